@@ -1,0 +1,90 @@
+//! Command-line interface: argument definitions (one file per command),
+//! turned into typed inputs for the library before any work starts.
+
+mod output;
+mod section;
+
+use beamsift::Error;
+use beamsift::report::Format;
+use beamsift::units::System;
+use clap::{Parser, Subcommand};
+
+/// Exit code when a check or a selection finds no passing section.
+#[allow(dead_code)]
+pub const EXIT_FAILS: i32 = 1;
+
+#[derive(Parser, Debug)]
+#[command(
+    name = "beamsift",
+    version,
+    about = "Find the lightest or cheapest beam section that works, and show the working.",
+    long_about = "beamsift analyses a beam once (spans, supports, loads by case and \
+combination) and checks sections against bending and shear stress, deflection \
+limits and, where asked, lateral-torsional buckling.\n\n\
+Every quantity carries its unit: 6m, 12.5kN/m, 250MPa, 8356cm4, 12'-6\".\n\n\
+beamsift is an aid for a competent person: verify its results against the \
+governing local code and licensed practice.",
+    after_help = "Exit codes: 0 done / passes, 1 fails or nothing passes, 2 bad input, \
+3 file error, 4 internal error."
+)]
+pub struct Cli {
+    #[command(flatten)]
+    pub out: output::OutputArgs,
+    #[command(subcommand)]
+    pub command: Command,
+}
+
+#[derive(Subcommand, Debug)]
+pub enum Command {
+    /// Print a cross-section's properties, to check a section before trusting a run.
+    #[command(after_help = section::EXAMPLES)]
+    Section(section::Args),
+}
+
+/// Run and map the outcome to an exit code.
+pub fn main() -> i32 {
+    let cli = Cli::parse();
+    match run(cli) {
+        Ok(code) => code,
+        Err(e) => {
+            if let Error::Io { source, .. } = &e
+                && source.kind() == std::io::ErrorKind::BrokenPipe
+            {
+                return 0;
+            }
+            eprintln!("beamsift: error: {e}");
+            let mut src = std::error::Error::source(&e);
+            while let Some(s) = src {
+                eprintln!("  caused by: {s}");
+                src = s.source();
+            }
+            e.exit_code()
+        }
+    }
+}
+
+fn run(cli: Cli) -> beamsift::Result<i32> {
+    let out = cli.out.resolve()?;
+    match cli.command {
+        Command::Section(a) => section::run(a, &out),
+    }
+}
+
+/// Resolved output options.
+#[derive(Clone, Debug)]
+pub struct Out {
+    pub units: System,
+    pub format: Format,
+    pub path: Option<std::path::PathBuf>,
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use clap::CommandFactory;
+
+    #[test]
+    fn clap_definition_is_consistent() {
+        Cli::command().debug_assert();
+    }
+}

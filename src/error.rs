@@ -1,0 +1,178 @@
+//! Typed errors of the library.
+//!
+//! Every error carries the context a user needs to fix the input: where it
+//! came from (file, line, column or field), the offending value and what was
+//! expected. The binary prints the chain once and maps the variant to an
+//! exit code (see `Error::exit_code`).
+
+use std::fmt;
+
+/// Where a piece of input came from. All parts are optional so that a
+/// command-line flag, a TOML key and a CSV cell can all be described.
+#[derive(Clone, Debug, Default, PartialEq, Eq)]
+pub struct Location {
+    pub file: Option<String>,
+    pub line: Option<u64>,
+    pub column: Option<u64>,
+    pub field: Option<String>,
+}
+
+impl Location {
+    pub fn field(name: impl Into<String>) -> Self {
+        Location {
+            field: Some(name.into()),
+            ..Default::default()
+        }
+    }
+    pub fn in_file(file: impl Into<String>) -> Self {
+        Location {
+            file: Some(file.into()),
+            ..Default::default()
+        }
+    }
+    pub fn with_line(mut self, line: u64) -> Self {
+        self.line = Some(line);
+        self
+    }
+    pub fn with_column(mut self, column: u64) -> Self {
+        self.column = Some(column);
+        self
+    }
+    pub fn with_field(mut self, field: impl Into<String>) -> Self {
+        self.field = Some(field.into());
+        self
+    }
+    pub fn is_empty(&self) -> bool {
+        self.file.is_none() && self.line.is_none() && self.column.is_none() && self.field.is_none()
+    }
+}
+
+impl fmt::Display for Location {
+    /// `file:line:column: field` with absent parts left out.
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        let mut parts: Vec<String> = Vec::new();
+        if let Some(file) = &self.file {
+            parts.push(file.clone());
+        }
+        if let Some(line) = self.line {
+            parts.push(line.to_string());
+        }
+        if let Some(col) = self.column {
+            parts.push(col.to_string());
+        }
+        let head = parts.join(":");
+        match (&self.field, head.is_empty()) {
+            (Some(field), true) => write!(f, "{field}"),
+            (Some(field), false) => write!(f, "{head}: {field}"),
+            (None, _) => write!(f, "{head}"),
+        }
+    }
+}
+
+/// The library's error type.
+#[derive(Debug, thiserror::Error)]
+pub enum Error {
+    /// A value the user gave is not acceptable (bad unit, bad dimension,
+    /// a load off the beam, a mechanism, ...).
+    #[error("{}{message}", prefix(location))]
+    Input { location: Location, message: String },
+
+    /// Several input problems at once (a catalogue with many bad rows).
+    #[error("{} problem(s) found:\n{}", .0.len(), join_errors(.0))]
+    Many(Vec<Error>),
+
+    /// Reading or writing a file failed.
+    #[error("{path}: {source}")]
+    Io {
+        path: String,
+        #[source]
+        source: std::io::Error,
+    },
+
+    /// A bug: an invariant the code relies on did not hold.
+    #[error("internal error (please report): {0}")]
+    Internal(String),
+}
+
+fn prefix(loc: &Location) -> String {
+    if loc.is_empty() {
+        String::new()
+    } else {
+        format!("{loc}: ")
+    }
+}
+
+fn join_errors(errors: &[Error]) -> String {
+    errors
+        .iter()
+        .map(|e| format!("  {e}"))
+        .collect::<Vec<_>>()
+        .join("\n")
+}
+
+impl Error {
+    /// An input error at a location.
+    pub fn input(location: Location, message: impl Into<String>) -> Self {
+        Error::Input {
+            location,
+            message: message.into(),
+        }
+    }
+
+    /// An input error with no location yet (the caller adds it with `at`).
+    pub fn msg(message: impl Into<String>) -> Self {
+        Error::input(Location::default(), message)
+    }
+
+    /// Fill in the parts of the location that are still unknown.
+    pub fn at(self, outer: &Location) -> Self {
+        match self {
+            Error::Input {
+                mut location,
+                message,
+            } => {
+                if location.file.is_none() {
+                    location.file = outer.file.clone();
+                }
+                if location.line.is_none() {
+                    location.line = outer.line;
+                }
+                if location.column.is_none() {
+                    location.column = outer.column;
+                }
+                if location.field.is_none() {
+                    location.field = outer.field.clone();
+                } else if let (Some(o), Some(i)) = (&outer.field, &location.field) {
+                    location.field = Some(format!("{o}.{i}"));
+                }
+                Error::Input { location, message }
+            }
+            Error::Many(v) => Error::Many(v.into_iter().map(|e| e.at(outer)).collect()),
+            other => other,
+        }
+    }
+
+    /// Shorthand for `at(&Location::field(name))`.
+    pub fn in_field(self, name: &str) -> Self {
+        self.at(&Location::field(name))
+    }
+
+    pub fn io(path: impl Into<String>, source: std::io::Error) -> Self {
+        Error::Io {
+            path: path.into(),
+            source,
+        }
+    }
+
+    /// Exit code of the binary for this error (documented in README):
+    /// 2 bad input, 3 input/output failure, 4 internal error.
+    pub fn exit_code(&self) -> i32 {
+        match self {
+            Error::Input { .. } | Error::Many(_) => 2,
+            Error::Io { .. } => 3,
+            Error::Internal(_) => 4,
+        }
+    }
+}
+
+pub type Result<T> = std::result::Result<T, Error>;

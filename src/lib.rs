@@ -1,0 +1,13 @@
+//! beamsift: size beams from a catalogue or by optimisation.
+//!
+//! The core — [`units`], [`section`], [`beam`], [`check`] — does no I/O.
+//! Drivers compose it; renderers print results. See DEVELOPERS.md.
+
+#![forbid(unsafe_code)]
+
+pub mod error;
+pub mod report;
+pub mod section;
+pub mod units;
+
+pub use error::{Error, Result};

@@ -1,0 +1,168 @@
+//! Hollow and round sections: rectangular hollow (sharp or rounded
+//! corners), circular hollow, solid round.
+//!
+//! RHS properties are integrated exactly over the outer rounded rectangle
+//! minus the inner one (corner radii r_out and r_in = max(r_out − t, 0)).
+//! Torsion constant of an RHS by the thin-walled closed-section formula of
+//! EN 10219-2:2006, Annex B: J = t³·p/3 + 4·A_m²·t/p, with the mid-line
+//! perimeter p = 2((b − t) + (h − t)) − 2·R_c·(4 − π) and enclosed area
+//! A_m = (b − t)(h − t) − R_c²·(4 − π), R_c = (r_out + r_in)/2.
+//!
+//! Circles: A = π(D² − d²)/4, I = π(D⁴ − d⁴)/64, Z = (D³ − d³)/6,
+//! Q_NA = (D³ − d³)/12, J = π(D⁴ − d⁴)/32 (standard closed forms; Roark,
+//! Table A.1). Warping is negligible for closed sections and not reported.
+
+use super::composite::{Composite, Part, add, sub};
+use super::{Properties, from_composite, mm, non_negative, positive};
+use crate::error::{Error, Result};
+use std::f64::consts::PI;
+
+pub(crate) fn validate_rhs(b: f64, h: f64, t: f64, r_out: f64) -> Result<()> {
+    positive("b", b)?;
+    positive("h", h)?;
+    positive("t", t)?;
+    non_negative("r_out", r_out)?;
+    let half = b.min(h) / 2.0;
+    if t >= half {
+        return Err(Error::msg(format!(
+            "wall t = {} is not less than half the smaller side ({}): expected a hollow section (use `rect` for a solid one)",
+            mm(t),
+            mm(half)
+        ))
+        .in_field("t"));
+    }
+    if r_out > half {
+        return Err(Error::msg(format!(
+            "corner radius r_out = {} exceeds half the smaller side ({}): expected r_out ≤ {}",
+            mm(r_out),
+            mm(half),
+            mm(half)
+        ))
+        .in_field("r_out"));
+    }
+    Ok(())
+}
+
+pub(crate) fn validate_chs(d: f64, t: f64) -> Result<()> {
+    positive("d", d)?;
+    positive("t", t)?;
+    if t >= d / 2.0 {
+        return Err(Error::msg(format!(
+            "wall t = {} is not less than the radius {}: expected a hollow tube (use `round` for a solid bar)",
+            mm(t),
+            mm(d / 2.0)
+        ))
+        .in_field("t"));
+    }
+    Ok(())
+}
+
+/// Rounded rectangle of width b, height h, bottom at yb, corner radius r,
+/// added with sign `s` (+1) or removed (−1).
+fn rounded_rect(
+    parts: &mut Vec<super::composite::Signed>,
+    b: f64,
+    h: f64,
+    yb: f64,
+    r: f64,
+    s: f64,
+) {
+    let rect = Part::Rect { xc: 0.0, yb, b, h };
+    parts.push(if s > 0.0 { add(rect) } else { sub(rect) });
+    if r > 0.0 {
+        for sx in [-1.0, 1.0] {
+            for (y, sy) in [(yb, 1.0), (yb + h, -1.0)] {
+                let p = Part::Spandrel {
+                    x: sx * b / 2.0,
+                    y,
+                    sx: -sx,
+                    sy,
+                    r,
+                };
+                parts.push(if s > 0.0 { sub(p) } else { add(p) });
+            }
+        }
+    }
+}
+
+pub(crate) fn composite_rhs(b: f64, h: f64, t: f64, r_out: f64) -> Composite {
+    let r_in = (r_out - t).max(0.0);
+    let mut parts = Vec::new();
+    rounded_rect(&mut parts, b, h, 0.0, r_out, 1.0);
+    rounded_rect(&mut parts, b - 2.0 * t, h - 2.0 * t, t, r_in, -1.0);
+    Composite::new(parts)
+}
+
+/// EN 10219-2 Annex B torsion constant of a rectangular hollow section.
+pub fn rhs_torsion_constant(b: f64, h: f64, t: f64, r_out: f64) -> f64 {
+    let r_in = (r_out - t).max(0.0);
+    let rc = (r_out + r_in) / 2.0;
+    let p = 2.0 * ((b - t) + (h - t)) - 2.0 * rc * (4.0 - PI);
+    let am = (b - t) * (h - t) - rc * rc * (4.0 - PI);
+    t.powi(3) * p / 3.0 + 4.0 * am * am * t / p
+}
+
+pub(crate) fn properties_rhs(b: f64, h: f64, t: f64, r_out: f64) -> Properties {
+    from_composite(
+        &composite_rhs(b, h, t, r_out),
+        h,
+        b,
+        Some(rhs_torsion_constant(b, h, t, r_out)),
+        None,
+        None,
+    )
+}
+
+/// Closed forms for a tube of outside diameter `d` and wall `t`
+/// (t = d/2 gives the solid bar).
+pub(crate) fn properties_chs(d: f64, t: f64) -> Properties {
+    let di = (d - 2.0 * t).max(0.0);
+    let area = PI * (d * d - di * di) / 4.0;
+    let i = PI * (d.powi(4) - di.powi(4)) / 64.0;
+    let c = d / 2.0;
+    let s = i / c;
+    let r = (i / area).sqrt();
+    Properties {
+        area,
+        depth: d,
+        width: d,
+        y_c: c,
+        ix: i,
+        iy: Some(i),
+        c_top: c,
+        c_bot: c,
+        s_top: s,
+        s_bot: s,
+        zx: Some((d.powi(3) - di.powi(3)) / 6.0),
+        rx: r,
+        ry: Some(r),
+        q_na: Some((d.powi(3) - di.powi(3)) / 12.0),
+        t_na: Some(d - di),
+        j: Some(2.0 * i),
+        cw: None,
+        web_area: None,
+        i_geometry: None,
+    }
+}
+
+/// Chord width of a disc of diameter d (bottom at y = 0) at height y.
+pub(crate) fn circle_width(d: f64, y: f64) -> f64 {
+    let r = d / 2.0;
+    let u = y - r;
+    if u.abs() > r {
+        0.0
+    } else {
+        2.0 * (r * r - u * u).sqrt()
+    }
+}
+
+/// Chord width of the bore of a tube at height y.
+pub(crate) fn circle_width_inner(d: f64, t: f64, y: f64) -> f64 {
+    let ri = d / 2.0 - t;
+    let u = y - d / 2.0;
+    if ri <= 0.0 || u.abs() > ri {
+        0.0
+    } else {
+        2.0 * (ri * ri - u * u).sqrt()
+    }
+}

@@ -1,0 +1,386 @@
+//! Cross-sections and their properties.
+//!
+//! This module owns geometry: from a shape's dimensions (or a catalogue
+//! row's given values) to the properties the checks need. It knows nothing
+//! of loads, materials' strengths or files.
+//!
+//! Bending is about the horizontal (x) axis; y is measured up from the
+//! bottom fibre. The flexure formula f = M·y/I gives the extreme-fibre
+//! stresses f_top = M/S_top and f_bot = M/S_bot with S = I/c.
+
+mod composite;
+pub mod given;
+pub mod hollow;
+pub mod ishape;
+pub mod rect;
+pub mod spec;
+
+use crate::error::{Error, Result};
+use crate::units::{Show, System};
+use serde::{Deserialize, Serialize};
+
+pub use given::Given;
+
+/// Geometry of an I-shape's flanges and web, kept for web shear, the
+/// slenderness limits and lateral-torsional buckling.
+#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+pub struct IGeometry {
+    /// Overall depth d.
+    pub d: f64,
+    pub bf_top: f64,
+    pub tf_top: f64,
+    pub bf_bot: f64,
+    pub tf_bot: f64,
+    pub tw: f64,
+    /// Clear web depth between flanges (fillets not deducted).
+    pub hw: f64,
+    /// Distance between flange centroids h0.
+    pub h0: f64,
+    /// Root fillet radius (0 for welded shapes).
+    pub r: f64,
+}
+
+/// Section properties, all in internal units (mm, mm², mm³, mm⁴, mm⁶).
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+pub struct Properties {
+    /// Cross-sectional area A.
+    pub area: f64,
+    /// Overall depth.
+    pub depth: f64,
+    /// Overall width.
+    pub width: f64,
+    /// Height of the elastic neutral axis (centroid) above the bottom fibre.
+    pub y_c: f64,
+    /// Second moment of area about the horizontal (strong) axis.
+    pub ix: f64,
+    /// Second moment of area about the vertical (weak) axis, if known.
+    pub iy: Option<f64>,
+    /// Distance from the neutral axis to the top fibre.
+    pub c_top: f64,
+    /// Distance from the neutral axis to the bottom fibre.
+    pub c_bot: f64,
+    /// Elastic section modulus to the top fibre, Ix/c_top.
+    pub s_top: f64,
+    /// Elastic section modulus to the bottom fibre, Ix/c_bot.
+    pub s_bot: f64,
+    /// Plastic section modulus about the horizontal axis, if known.
+    pub zx: Option<f64>,
+    /// Radius of gyration √(Ix/A).
+    pub rx: f64,
+    /// Radius of gyration √(Iy/A), if Iy is known.
+    pub ry: Option<f64>,
+    /// First moment of area about the neutral axis of the part above it.
+    pub q_na: Option<f64>,
+    /// Width of material at the neutral axis (for V·Q/(I·t)).
+    pub t_na: Option<f64>,
+    /// St Venant torsion constant J.
+    pub j: Option<f64>,
+    /// Warping constant Cw (open thin-walled shapes).
+    pub cw: Option<f64>,
+    /// Web area d·tw of an I-shape, for the average web shear V/(d·tw).
+    pub web_area: Option<f64>,
+    /// I-shape geometry, for the slenderness limits and lateral stability.
+    pub i_geometry: Option<IGeometry>,
+}
+
+impl Properties {
+    /// Mass per length (kg/m) for a density in kg/m³.
+    pub fn mass_per_length(&self, density: f64) -> f64 {
+        self.area * 1e-6 * density
+    }
+
+    /// Property lines for printing: (label, value in internal units, kind).
+    pub fn rows(&self) -> Vec<(&'static str, f64, Show)> {
+        let mut v = vec![
+            ("Depth d", self.depth, Show::Dimension),
+            ("Width b", self.width, Show::Dimension),
+            ("Area A", self.area, Show::Area),
+            ("Centroid above bottom y_c", self.y_c, Show::Dimension),
+            ("Second moment Ix", self.ix, Show::SecondMoment),
+        ];
+        if let Some(iy) = self.iy {
+            v.push(("Second moment Iy", iy, Show::SecondMoment));
+        }
+        v.push(("Extreme fibre c_top", self.c_top, Show::Dimension));
+        v.push(("Extreme fibre c_bot", self.c_bot, Show::Dimension));
+        v.push((
+            "Elastic modulus S_top = Ix/c_top",
+            self.s_top,
+            Show::SectionModulus,
+        ));
+        v.push((
+            "Elastic modulus S_bot = Ix/c_bot",
+            self.s_bot,
+            Show::SectionModulus,
+        ));
+        if let Some(z) = self.zx {
+            v.push(("Plastic modulus Zx", z, Show::SectionModulus));
+        }
+        v.push(("Radius of gyration rx", self.rx, Show::Dimension));
+        if let Some(ry) = self.ry {
+            v.push(("Radius of gyration ry", ry, Show::Dimension));
+        }
+        if let Some(q) = self.q_na {
+            v.push(("First moment at NA Q", q, Show::SectionModulus));
+        }
+        if let Some(t) = self.t_na {
+            v.push(("Width at NA t", t, Show::Dimension));
+        }
+        if let Some(j) = self.j {
+            v.push(("Torsion constant J", j, Show::SecondMoment));
+        }
+        if let Some(cw) = self.cw {
+            v.push(("Warping constant Cw", cw, Show::Warping));
+        }
+        v
+    }
+}
+
+/// A shape defined by its dimensions (internal units, mm).
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(tag = "shape", rename_all = "snake_case")]
+pub enum Shape {
+    /// Solid rectangle, width b, depth d.
+    Rect { b: f64, d: f64 },
+    /// Doubly symmetric welded I (plate girder), no fillets.
+    WeldedI { bf: f64, tf: f64, hw: f64, tw: f64 },
+    /// Rolled I with root fillets of radius r.
+    RolledI {
+        d: f64,
+        bf: f64,
+        tf: f64,
+        tw: f64,
+        r: f64,
+    },
+    /// Mono-symmetric welded I: separate top and bottom flanges.
+    MonoI {
+        bf_top: f64,
+        tf_top: f64,
+        bf_bot: f64,
+        tf_bot: f64,
+        hw: f64,
+        tw: f64,
+    },
+    /// Rectangular hollow section, width b, depth h, wall t, outer corner
+    /// radius r_out (0 = sharp corners).
+    Rhs { b: f64, h: f64, t: f64, r_out: f64 },
+    /// Circular hollow section, outside diameter d, wall t.
+    Chs { d: f64, t: f64 },
+    /// Solid round bar, diameter d.
+    Round { d: f64 },
+}
+
+pub(crate) fn positive(name: &str, v: f64) -> Result<()> {
+    if !v.is_finite() || v <= 0.0 {
+        return Err(Error::msg(format!(
+            "{name} = {} is not valid: expected a finite dimension greater than zero",
+            crate::units::fmt_num(v)
+        ))
+        .in_field(name));
+    }
+    Ok(())
+}
+
+pub(crate) fn non_negative(name: &str, v: f64) -> Result<()> {
+    if !v.is_finite() || v < 0.0 {
+        return Err(Error::msg(format!(
+            "{name} = {} is not valid: expected a finite dimension of zero or more",
+            crate::units::fmt_num(v)
+        ))
+        .in_field(name));
+    }
+    Ok(())
+}
+
+pub(crate) fn mm(v: f64) -> String {
+    format!("{} mm", crate::units::fmt_num(v))
+}
+
+impl Shape {
+    /// Short family name, as used in catalogue files and on the command line.
+    pub fn family(&self) -> &'static str {
+        match self {
+            Shape::Rect { .. } => "rect",
+            Shape::WeldedI { .. } => "welded-i",
+            Shape::RolledI { .. } => "rolled-i",
+            Shape::MonoI { .. } => "mono-i",
+            Shape::Rhs { .. } => "rhs",
+            Shape::Chs { .. } => "chs",
+            Shape::Round { .. } => "round",
+        }
+    }
+
+    /// Check the dimensions are physically possible.
+    pub fn validate(&self) -> Result<()> {
+        match *self {
+            Shape::Rect { b, d } => rect::validate(b, d),
+            Shape::WeldedI { bf, tf, hw, tw } => ishape::validate_welded(bf, tf, hw, tw),
+            Shape::RolledI { d, bf, tf, tw, r } => ishape::validate_rolled(d, bf, tf, tw, r),
+            Shape::MonoI {
+                bf_top,
+                tf_top,
+                bf_bot,
+                tf_bot,
+                hw,
+                tw,
+            } => ishape::validate_mono(bf_top, tf_top, bf_bot, tf_bot, hw, tw),
+            Shape::Rhs { b, h, t, r_out } => hollow::validate_rhs(b, h, t, r_out),
+            Shape::Chs { d, t } => hollow::validate_chs(d, t),
+            Shape::Round { d } => positive("d", d),
+        }
+    }
+
+    /// Properties of a valid shape (call `validate` first; `properties`
+    /// validates too and returns the error).
+    pub fn properties(&self) -> Result<Properties> {
+        self.validate()?;
+        Ok(match *self {
+            Shape::Rect { b, d } => rect::properties(b, d),
+            Shape::WeldedI { bf, tf, hw, tw } => {
+                ishape::properties_mono(bf, tf, bf, tf, hw, tw, 0.0)
+            }
+            Shape::RolledI { d, bf, tf, tw, r } => {
+                ishape::properties_mono(bf, tf, bf, tf, d - 2.0 * tf, tw, r)
+            }
+            Shape::MonoI {
+                bf_top,
+                tf_top,
+                bf_bot,
+                tf_bot,
+                hw,
+                tw,
+            } => ishape::properties_mono(bf_top, tf_top, bf_bot, tf_bot, hw, tw, 0.0),
+            Shape::Rhs { b, h, t, r_out } => hollow::properties_rhs(b, h, t, r_out),
+            Shape::Chs { d, t } => hollow::properties_chs(d, t),
+            Shape::Round { d } => hollow::properties_chs(d, d / 2.0),
+        })
+    }
+
+    /// Width of material at height y above the bottom fibre (for checks that
+    /// integrate over the section).
+    pub fn width_at(&self, y: f64) -> f64 {
+        match *self {
+            Shape::Chs { d, t } => hollow::circle_width(d, y) - hollow::circle_width_inner(d, t, y),
+            Shape::Round { d } => hollow::circle_width(d, y),
+            _ => self.composite().map(|c| c.width_at(y)).unwrap_or(0.0),
+        }
+    }
+
+    fn composite(&self) -> Option<composite::Composite> {
+        match *self {
+            Shape::Rect { b, d } => Some(rect::composite(b, d)),
+            Shape::WeldedI { bf, tf, hw, tw } => {
+                Some(ishape::composite(bf, tf, bf, tf, hw, tw, 0.0))
+            }
+            Shape::RolledI { d, bf, tf, tw, r } => {
+                Some(ishape::composite(bf, tf, bf, tf, d - 2.0 * tf, tw, r))
+            }
+            Shape::MonoI {
+                bf_top,
+                tf_top,
+                bf_bot,
+                tf_bot,
+                hw,
+                tw,
+            } => Some(ishape::composite(
+                bf_top, tf_top, bf_bot, tf_bot, hw, tw, 0.0,
+            )),
+            Shape::Rhs { b, h, t, r_out } => Some(hollow::composite_rhs(b, h, t, r_out)),
+            Shape::Chs { .. } | Shape::Round { .. } => None,
+        }
+    }
+
+    /// Overall depth.
+    pub fn depth(&self) -> f64 {
+        match *self {
+            Shape::Rect { d, .. } => d,
+            Shape::WeldedI { tf, hw, .. } => hw + 2.0 * tf,
+            Shape::RolledI { d, .. } => d,
+            Shape::MonoI {
+                tf_top, tf_bot, hw, ..
+            } => tf_top + hw + tf_bot,
+            Shape::Rhs { h, .. } => h,
+            Shape::Chs { d, .. } | Shape::Round { d } => d,
+        }
+    }
+
+    /// The dimensions as (name, value) for printing.
+    pub fn dimensions(&self) -> Vec<(&'static str, f64)> {
+        match *self {
+            Shape::Rect { b, d } => vec![("b", b), ("d", d)],
+            Shape::WeldedI { bf, tf, hw, tw } => {
+                vec![("bf", bf), ("tf", tf), ("hw", hw), ("tw", tw)]
+            }
+            Shape::RolledI { d, bf, tf, tw, r } => {
+                vec![("d", d), ("bf", bf), ("tf", tf), ("tw", tw), ("r", r)]
+            }
+            Shape::MonoI {
+                bf_top,
+                tf_top,
+                bf_bot,
+                tf_bot,
+                hw,
+                tw,
+            } => vec![
+                ("bf_top", bf_top),
+                ("tf_top", tf_top),
+                ("bf_bot", bf_bot),
+                ("tf_bot", tf_bot),
+                ("hw", hw),
+                ("tw", tw),
+            ],
+            Shape::Rhs { b, h, t, r_out } => vec![("b", b), ("h", h), ("t", t), ("r_out", r_out)],
+            Shape::Chs { d, t } => vec![("d", d), ("t", t)],
+            Shape::Round { d } => vec![("d", d)],
+        }
+    }
+
+    /// A one-line description, e.g. `welded-i bf 300 × tf 20, hw 800 × tw 10 mm`.
+    pub fn describe(&self, sys: System) -> String {
+        let dims = self
+            .dimensions()
+            .iter()
+            .map(|(n, v)| format!("{n} {}", Show::Dimension.num(*v, sys)))
+            .collect::<Vec<_>>()
+            .join(", ");
+        format!("{} ({dims} {})", self.family(), Show::Dimension.label(sys))
+    }
+}
+
+/// Assemble properties from the integrated values of a composite section.
+pub(crate) fn from_composite(
+    c: &composite::Composite,
+    depth: f64,
+    width: f64,
+    j: Option<f64>,
+    cw: Option<f64>,
+    i_geometry: Option<IGeometry>,
+) -> Properties {
+    let int = c.integrate();
+    let total_m = c.below(depth).1;
+    let q = c.q_above(int.y_c, int.area, total_m);
+    let (z, _) = c.plastic(depth, int.area);
+    let c_top = depth - int.y_c;
+    let c_bot = int.y_c;
+    Properties {
+        area: int.area,
+        depth,
+        width,
+        y_c: int.y_c,
+        ix: int.ix,
+        iy: Some(int.iy),
+        c_top,
+        c_bot,
+        s_top: int.ix / c_top,
+        s_bot: int.ix / c_bot,
+        zx: Some(z),
+        rx: (int.ix / int.area).sqrt(),
+        ry: Some((int.iy / int.area).sqrt()),
+        q_na: Some(q),
+        t_na: Some(c.width_at(int.y_c)),
+        j,
+        cw,
+        web_area: i_geometry.map(|g| g.d * g.tw),
+        i_geometry,
+    }
+}
