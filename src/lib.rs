@@ -5,6 +5,7 @@
 
 #![forbid(unsafe_code)]
 
+pub mod beam;
 pub mod error;
 pub mod report;
 pub mod section;

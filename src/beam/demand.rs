@@ -1,0 +1,459 @@
+//! The demand: the beam analysed once, for every case and combination, as
+//! element polynomials for E·I = 1, plus the response to a unit uniform
+//! self-weight. A section check then only scales and adds (see DESIGN.md,
+//! "analyse once, check many"):
+//!
+//!   M(x) = Σ factor·M_case(x) + w_sw·f_sw·M_unit(x)
+//!   δ(x) = (Σ factor·y_case(x) + w_sw·f_sw·y_unit(x)) / (E·I)
+//!
+//! Pattern (skip) loading: a case marked `pattern` is split into one part
+//! per stretch (span or overhang); at each station the envelope adds only
+//! the parts that make the value worse. The maximum of the envelope is
+//! located on stations (element ends and interior points) and then refined
+//! exactly on the element polynomials with the pattern found there.
+
+use super::model::{Beam, ComboKind, DeflectionLimit, Stretch};
+use super::solve::{self, Coef, Mesh, MeshLoad, Response};
+use crate::error::Result;
+
+/// A combination ready for checking.
+#[derive(Clone, Debug)]
+pub struct ComboDemand {
+    pub name: String,
+    pub kind: ComboKind,
+    pub limit: Option<DeflectionLimit>,
+    /// Response to the combination's non-patterned loads (factors applied).
+    pub fixed: Response,
+    /// Factor on the self-weight (0 when self-weight is off or its case is
+    /// not in this combination).
+    pub sw_factor: f64,
+    /// Patterned parts (factored), one per (case, stretch) with loads.
+    pub patterns: Vec<Response>,
+    /// Label of each pattern part, e.g. "live on span 2".
+    pub pattern_labels: Vec<String>,
+}
+
+/// The beam analysed once.
+#[derive(Clone, Debug)]
+pub struct Demand {
+    pub mesh: Mesh,
+    /// Element lengths.
+    pub len: Vec<f64>,
+    pub stretches: Vec<Stretch>,
+    pub node_x: Vec<f64>,
+    /// Response to each load case (unfactored, not patterned).
+    pub cases: Vec<Response>,
+    /// Response to a uniform 1 N/mm over the whole beam.
+    pub unit_sw: Response,
+    pub combos: Vec<ComboDemand>,
+    pub cantilever_factor: f64,
+}
+
+/// Which response quantity.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Quantity {
+    Moment,
+    Shear,
+    Deflection,
+}
+
+/// An extreme: largest and smallest value with their positions.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct Extremes {
+    pub max: f64,
+    pub x_max: f64,
+    pub min: f64,
+    pub x_min: f64,
+}
+
+impl Extremes {
+    pub const EMPTY: Extremes = Extremes {
+        max: f64::NEG_INFINITY,
+        x_max: 0.0,
+        min: f64::INFINITY,
+        x_min: 0.0,
+    };
+    #[inline]
+    fn push(&mut self, v: f64, x: f64) {
+        if v > self.max {
+            self.max = v;
+            self.x_max = x;
+        }
+        if v < self.min {
+            self.min = v;
+            self.x_min = x;
+        }
+    }
+    fn merge(&mut self, o: &Extremes) {
+        self.push(o.max, o.x_max);
+        self.push(o.min, o.x_min);
+    }
+    /// Largest magnitude, signed, and its position.
+    pub fn abs_max(&self) -> (f64, f64) {
+        if self.max.abs() >= self.min.abs() {
+            (self.max, self.x_max)
+        } else {
+            (self.min, self.x_min)
+        }
+    }
+}
+
+#[inline]
+pub fn eval(q: Quantity, c: &Coef, s: f64) -> f64 {
+    match q {
+        Quantity::Moment => solve::moment(c, s),
+        Quantity::Shear => solve::shear(c, s),
+        Quantity::Deflection => solve::deflection(c, s),
+    }
+}
+
+/// Exact extremes of one element's polynomial over [0, l]; positions are
+/// local (s).
+#[inline]
+pub fn element_extremes(q: Quantity, c: &Coef, l: f64) -> Extremes {
+    let mut e = Extremes::EMPTY;
+    e.push(eval(q, c, 0.0), 0.0);
+    e.push(eval(q, c, l), l);
+    match q {
+        Quantity::Moment => {
+            // dM/ds = V = c1 + 2c2·s + 3c3·s² = 0
+            let (a, b, cc) = (3.0 * c[3], 2.0 * c[2], c[1]);
+            let mut try_root = |s: f64| {
+                if s > 0.0 && s < l {
+                    e.push(solve::moment(c, s), s);
+                }
+            };
+            if a.abs() <= 1e-300 || (a * l).abs() <= 1e-12 * b.abs() {
+                if b != 0.0 {
+                    try_root(-cc / b);
+                }
+            } else {
+                let disc = b * b - 4.0 * a * cc;
+                if disc >= 0.0 {
+                    let sq = disc.sqrt();
+                    // Numerically stable pair of roots.
+                    let qv = -0.5 * (b + b.signum() * sq);
+                    if qv != 0.0 {
+                        try_root(qv / a);
+                        try_root(cc / qv);
+                    } else {
+                        try_root(0.0);
+                    }
+                }
+            }
+        }
+        Quantity::Shear => {
+            // dV/ds = 2c2 + 6c3·s = 0
+            if c[3] != 0.0 {
+                let s = -c[2] / (3.0 * c[3]);
+                if s > 0.0 && s < l {
+                    e.push(solve::shear(c, s), s);
+                }
+            }
+        }
+        Quantity::Deflection => {
+            // Roots of the slope (a quartic): bracket on 8 sub-intervals,
+            // then Newton safeguarded by bisection.
+            const K: usize = 8;
+            let h = l / K as f64;
+            let mut s0 = 0.0;
+            let mut t0 = solve::slope(c, 0.0);
+            for i in 1..=K {
+                let s1 = if i == K { l } else { i as f64 * h };
+                let t1 = solve::slope(c, s1);
+                if t0 == 0.0 {
+                    e.push(solve::deflection(c, s0), s0);
+                } else if t0 * t1 < 0.0 {
+                    let r = bracketed_root(c, s0, s1, t0);
+                    e.push(solve::deflection(c, r), r);
+                }
+                s0 = s1;
+                t0 = t1;
+            }
+        }
+    }
+    e
+}
+
+fn bracketed_root(c: &Coef, mut a: f64, mut b: f64, ta: f64) -> f64 {
+    let mut x = 0.5 * (a + b);
+    let sa = ta.signum();
+    for _ in 0..60 {
+        let t = solve::slope(c, x);
+        if t == 0.0 {
+            return x;
+        }
+        if t.signum() == sa {
+            a = x;
+        } else {
+            b = x;
+        }
+        // Newton step: slope' = −M.
+        let d = -solve::moment(c, x);
+        let xn = if d != 0.0 { x - t / d } else { f64::NAN };
+        let next = if xn > a && xn < b { xn } else { 0.5 * (a + b) };
+        if (next - x).abs() <= 1e-14 * (1.0 + x.abs()) || (b - a) <= 1e-13 * (1.0 + b.abs()) {
+            return next;
+        }
+        x = next;
+    }
+    x
+}
+
+/// Interior stations per element used to locate envelope extremes under
+/// pattern loading (before exact refinement).
+const PATTERN_STATIONS: usize = 8;
+
+impl Demand {
+    /// Analyse every case, the unit self-weight, and every combination.
+    /// `extra` adds stations (brace points, quarter points) to the mesh.
+    pub fn build(beam: &Beam, extra: &[f64]) -> Result<Demand> {
+        beam.validate()?;
+        let mesh = solve::mesh(beam, extra);
+        let len: Vec<f64> = mesh.x.windows(2).map(|w| w[1] - w[0]).collect();
+        let stretches = beam.stretches();
+        let case_loads: Vec<Vec<MeshLoad>> = (0..beam.cases.len())
+            .map(|c| {
+                beam.loads
+                    .iter()
+                    .filter(|l| l.case == c)
+                    .map(|l| MeshLoad::from(&l.kind))
+                    .collect()
+            })
+            .collect();
+        let cases = case_loads
+            .iter()
+            .map(|loads| solve::analyse(beam, &mesh, loads))
+            .collect::<Result<Vec<_>>>()?;
+        let length = beam.length();
+        let unit_sw = solve::analyse(
+            beam,
+            &mesh,
+            &[MeshLoad::Distributed {
+                x1: 0.0,
+                x2: length,
+                w1: 1.0,
+                w2: 1.0,
+            }],
+        )?;
+        // Pattern parts per (case, stretch), analysed once and shared by combos.
+        let mut parts: Vec<Vec<(String, Response)>> = vec![Vec::new(); beam.cases.len()];
+        let multi = stretches.len() > 1;
+        for (ci, case) in beam.cases.iter().enumerate() {
+            if !(case.pattern && multi) {
+                continue;
+            }
+            for (si, s) in stretches.iter().enumerate() {
+                let clipped: Vec<MeshLoad> = case_loads[ci]
+                    .iter()
+                    .filter_map(|l| l.clip(s.x1, s.x2, si == 0))
+                    .collect();
+                if clipped.is_empty() {
+                    continue;
+                }
+                parts[ci].push((
+                    format!("{} on {}", case.name, s.label),
+                    solve::analyse(beam, &mesh, &clipped)?,
+                ));
+            }
+        }
+        let ne = mesh.elements();
+        let nodes = beam.supports.len();
+        let combos = beam
+            .combinations
+            .iter()
+            .map(|c| {
+                let mut fixed = Response::zero(ne, nodes);
+                let mut patterns = Vec::new();
+                let mut pattern_labels = Vec::new();
+                let mut sw_factor = 0.0;
+                for &(ci, f) in &c.factors {
+                    if Some(ci) == beam.self_weight_case {
+                        sw_factor += f;
+                    }
+                    if !parts[ci].is_empty() {
+                        for (label, r) in &parts[ci] {
+                            let mut p = Response::zero(ne, nodes);
+                            p.add_scaled(f, r);
+                            patterns.push(p);
+                            pattern_labels.push(label.clone());
+                        }
+                    } else {
+                        fixed.add_scaled(f, &cases[ci]);
+                    }
+                }
+                ComboDemand {
+                    name: c.name.clone(),
+                    kind: c.kind,
+                    limit: c.limit,
+                    fixed,
+                    sw_factor,
+                    patterns,
+                    pattern_labels,
+                }
+            })
+            .collect();
+        Ok(Demand {
+            len,
+            stretches,
+            node_x: beam.node_x(),
+            cases,
+            unit_sw,
+            combos,
+            mesh,
+            cantilever_factor: beam.cantilever_factor,
+        })
+    }
+
+    /// Combined coefficients of element `e` for a combination with
+    /// self-weight intensity `w_sw` (N/mm), patterns left out.
+    #[inline]
+    pub fn base_coef(&self, combo: &ComboDemand, w_sw: f64, e: usize) -> Coef {
+        let f = &combo.fixed.elems[e];
+        let u = &self.unit_sw.elems[e];
+        let s = w_sw * combo.sw_factor;
+        [
+            f[0] + s * u[0],
+            f[1] + s * u[1],
+            f[2] + s * u[2],
+            f[3] + s * u[3],
+            f[4] + s * u[4],
+            f[5] + s * u[5],
+        ]
+    }
+
+    /// Extremes of a quantity over the elements `elems` for a combination,
+    /// with pattern loading enveloped when the combination has patterns.
+    pub fn extremes(
+        &self,
+        combo: &ComboDemand,
+        w_sw: f64,
+        q: Quantity,
+        elems: std::ops::Range<usize>,
+    ) -> Extremes {
+        let mut ex = Extremes::EMPTY;
+        if combo.patterns.is_empty() {
+            for e in elems {
+                let c = self.base_coef(combo, w_sw, e);
+                let mut el = element_extremes(q, &c, self.len[e]);
+                el.x_max += self.mesh.x[e];
+                el.x_min += self.mesh.x[e];
+                ex.merge(&el);
+            }
+            return ex;
+        }
+        // Envelope on stations, remembering where the extremes are.
+        let (mut best_max, mut best_min) = ((0usize, 0.0f64), (0usize, 0.0f64));
+        for e in elems.clone() {
+            let base = self.base_coef(combo, w_sw, e);
+            for k in 0..=PATTERN_STATIONS + 1 {
+                let s = self.len[e] * (k as f64 / (PATTERN_STATIONS + 1) as f64);
+                let b = eval(q, &base, s);
+                let (mut hi, mut lo) = (b, b);
+                for p in &combo.patterns {
+                    let v = eval(q, &p.elems[e], s);
+                    if v > 0.0 {
+                        hi += v;
+                    } else {
+                        lo += v;
+                    }
+                }
+                let x = self.mesh.x[e] + s;
+                if hi > ex.max {
+                    ex.max = hi;
+                    ex.x_max = x;
+                    best_max = (e, s);
+                }
+                if lo < ex.min {
+                    ex.min = lo;
+                    ex.x_min = x;
+                    best_min = (e, s);
+                }
+            }
+        }
+        // Exact refinement with the pattern found at each extreme.
+        for (sign, (e0, s0)) in [(1.0, best_max), (-1.0, best_min)] {
+            let chosen: Vec<usize> = (0..combo.patterns.len())
+                .filter(|&j| sign * eval(q, &combo.patterns[j].elems[e0], s0) > 0.0)
+                .collect();
+            let lo_e = e0.saturating_sub(1).max(elems.start);
+            let hi_e = (e0 + 2).min(elems.end);
+            for e in lo_e..hi_e {
+                let mut c = self.base_coef(combo, w_sw, e);
+                for &j in &chosen {
+                    for (ck, pk) in c.iter_mut().zip(combo.patterns[j].elems[e].iter()) {
+                        *ck += pk;
+                    }
+                }
+                let el = element_extremes(q, &c, self.len[e]);
+                let x0 = self.mesh.x[e];
+                if sign > 0.0 && el.max > ex.max {
+                    ex.max = el.max;
+                    ex.x_max = x0 + el.x_max;
+                }
+                if sign < 0.0 && el.min < ex.min {
+                    ex.min = el.min;
+                    ex.x_min = x0 + el.x_min;
+                }
+            }
+        }
+        ex
+    }
+
+    /// Elements of stretch `k`.
+    pub fn stretch_elements(&self, k: usize) -> std::ops::Range<usize> {
+        let first = self.mesh.stretch_of.iter().position(|&s| s == k).unwrap_or(0);
+        let last = self
+            .mesh
+            .stretch_of
+            .iter()
+            .rposition(|&s| s == k)
+            .map(|i| i + 1)
+            .unwrap_or(first);
+        first..last
+    }
+
+    /// Moment at a mesh node (the value just right of it, enveloped by
+    /// magnitude under patterns) — used for Cb's quarter points.
+    pub fn abs_moment_at_node(&self, combo: &ComboDemand, w_sw: f64, node: usize) -> f64 {
+        let (e, s) = if node < self.len.len() {
+            (node, 0.0)
+        } else {
+            (node - 1, self.len[node - 1])
+        };
+        let base = solve::moment(&self.base_coef(combo, w_sw, e), s);
+        if combo.patterns.is_empty() {
+            return base.abs();
+        }
+        let (mut hi, mut lo) = (base, base);
+        for p in &combo.patterns {
+            let v = solve::moment(&p.elems[e], s);
+            if v > 0.0 {
+                hi += v;
+            } else {
+                lo += v;
+            }
+        }
+        hi.abs().max(lo.abs())
+    }
+
+    /// Reactions of a combination: (min, max) upward force at each beam
+    /// node over the patterns, for self-weight intensity `w_sw`.
+    pub fn reactions(&self, combo: &ComboDemand, w_sw: f64) -> Vec<(f64, f64)> {
+        (0..self.node_x.len())
+            .map(|n| {
+                let b = combo.fixed.reaction[n] + w_sw * combo.sw_factor * self.unit_sw.reaction[n];
+                let (mut lo, mut hi) = (b, b);
+                for p in &combo.patterns {
+                    let v = p.reaction[n];
+                    if v > 0.0 {
+                        hi += v;
+                    } else {
+                        lo += v;
+                    }
+                }
+                (lo, hi)
+            })
+            .collect()
+    }
+}

@@ -1,0 +1,13 @@
+//! Beam model and analysis: spans, supports, loads by case, combinations;
+//! the direct stiffness solution; and the demand (analysed once, checked
+//! many times). No I/O.
+
+pub mod demand;
+pub mod model;
+pub mod solve;
+
+pub use demand::{Demand, Extremes, Quantity};
+pub use model::{
+    Beam, Category, ComboKind, Combination, DeflectionLimit, Load, LoadCase, LoadKind, Stretch,
+    Support,
+};
