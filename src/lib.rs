@@ -6,7 +6,9 @@
 #![forbid(unsafe_code)]
 
 pub mod beam;
+pub mod check;
 pub mod error;
+pub mod job;
 pub mod report;
 pub mod section;
 pub mod units;

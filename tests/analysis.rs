@@ -66,7 +66,12 @@ fn central_and_off_centre_point_loads() {
         close("x", m.x_max, a);
         close("V", v, p * a.max(bb) / l);
         // deflection under the load
-        let e = dm.mesh.x.iter().position(|&x| (x - a).abs() < 1e-9).unwrap();
+        let e = dm
+            .mesh
+            .x
+            .iter()
+            .position(|&x| (x - a).abs() < 1e-9)
+            .unwrap();
         let under = solve::deflection(&dm.combos[0].fixed.elems[e], 0.0);
         close("Δ under load", under, p * a * a * bb * bb / (3.0 * l));
         if a == 2500.0 {
@@ -147,7 +152,11 @@ fn overhang_and_triangular_load() {
     let (mut b, d) = single(vec![l, a], vec![Pinned, Pinned, Free]);
     b.udl(d, w);
     let (dm, m, _, _) = moments(&b);
-    close("R1", dm.cases[0].reaction[0], w * (l * l - a * a) / (2.0 * l));
+    close(
+        "R1",
+        dm.cases[0].reaction[0],
+        w * (l * l - a * a) / (2.0 * l),
+    );
     close("M support", m.min, -w * a * a / 2.0);
     let r1 = w * (l * l - a * a) / (2.0 * l);
     close("M+", m.max, r1 * r1 / (2.0 * w));
@@ -155,7 +164,15 @@ fn overhang_and_triangular_load() {
     // M = 2WL/(9√3) at x = L/√3, Δ = 0.01304·W·L³/(EI).
     let (l, wmax) = (6000.0, 9.0);
     let (mut b, d) = single(vec![l], vec![Pinned, Roller]);
-    b.load(d, LoadKind::Distributed { x1: 0.0, x2: l, w1: 0.0, w2: wmax });
+    b.load(
+        d,
+        LoadKind::Distributed {
+            x1: 0.0,
+            x2: l,
+            w1: 0.0,
+            w2: wmax,
+        },
+    );
     let tot = wmax * l / 2.0;
     let (_, m, y, _) = moments(&b);
     close("M tri", m.max, 2.0 * tot * l / (9.0 * 3f64.sqrt()));
@@ -174,10 +191,30 @@ fn element_polynomials_meet_exact_nodal_values() {
     );
     let d = b.case("D", Category::Dead);
     b.udl(d, 3.0)
-        .load(d, LoadKind::Point { x: 1200.0, p: 5000.0 })
-        .load(d, LoadKind::Point { x: 8200.0, p: 3000.0 })
+        .load(
+            d,
+            LoadKind::Point {
+                x: 1200.0,
+                p: 5000.0,
+            },
+        )
+        .load(
+            d,
+            LoadKind::Point {
+                x: 8200.0,
+                p: 3000.0,
+            },
+        )
         .load(d, LoadKind::Moment { x: 5000.0, m: 2e6 })
-        .load(d, LoadKind::Distributed { x1: 6000.0, x2: 9500.0, w1: 2.0, w2: -1.0 });
+        .load(
+            d,
+            LoadKind::Distributed {
+                x1: 6000.0,
+                x2: 9500.0,
+                w1: 2.0,
+                w2: -1.0,
+            },
+        );
     b.combo("D", ComboKind::Strength, &[(d, 1.0)]);
     let dm = Demand::build(&b, &[]).unwrap();
     let r = &dm.cases[0];
@@ -188,7 +225,10 @@ fn element_polynomials_meet_exact_nodal_values() {
         let l = dm.len[e];
         let end = solve::deflection(&r.elems[e], l);
         let next = r.elems[e + 1][4];
-        assert!((end - next).abs() <= 1e-7 * next.abs().max(1.0), "element {e}");
+        assert!(
+            (end - next).abs() <= 1e-7 * next.abs().max(1.0),
+            "element {e}"
+        );
         let slope_end = solve::slope(&r.elems[e], l);
         assert!((slope_end - r.elems[e + 1][5]).abs() <= 1e-7 * slope_end.abs().max(1e-3));
     }
@@ -208,15 +248,38 @@ fn mechanisms_and_bad_loads_are_refused() {
     let e = Demand::build(&b, &[]).unwrap_err().to_string();
     assert!(e.contains("mechanism") && e.contains("fixed"), "{e}");
     let b = Beam::new(vec![3000.0], vec![Free, Free]);
-    assert!(Demand::build(&b, &[]).unwrap_err().to_string().contains("mechanism"));
+    assert!(
+        Demand::build(&b, &[])
+            .unwrap_err()
+            .to_string()
+            .contains("mechanism")
+    );
     let mut b = Beam::new(vec![3000.0], vec![Pinned, Pinned]);
     let d = b.case("D", Category::Dead);
     b.load(d, LoadKind::Point { x: 3500.0, p: 1.0 });
-    assert!(Demand::build(&b, &[]).unwrap_err().to_string().contains("not on the beam"));
+    assert!(
+        Demand::build(&b, &[])
+            .unwrap_err()
+            .to_string()
+            .contains("not on the beam")
+    );
     let mut b = Beam::new(vec![3000.0], vec![Pinned, Pinned]);
     let d = b.case("D", Category::Dead);
-    b.load(d, LoadKind::Distributed { x1: 2000.0, x2: 1000.0, w1: 1.0, w2: 1.0 });
-    assert!(Demand::build(&b, &[]).unwrap_err().to_string().contains("before it starts"));
+    b.load(
+        d,
+        LoadKind::Distributed {
+            x1: 2000.0,
+            x2: 1000.0,
+            w1: 1.0,
+            w2: 1.0,
+        },
+    );
+    assert!(
+        Demand::build(&b, &[])
+            .unwrap_err()
+            .to_string()
+            .contains("before it starts")
+    );
     let b = Beam::new(vec![0.0], vec![Pinned, Pinned]);
     assert!(Demand::build(&b, &[]).is_err());
 }
@@ -233,10 +296,19 @@ fn random_beam() -> impl Strategy<Value = Beam> {
             (rng % 10_000) as f64 / 10_000.0
         };
         let mut sup = vec![Pinned; n + 1];
-        if next() < 0.3 { sup[0] = Fixed; }
-        if next() < 0.3 { sup[n] = Fixed; }
-        if n >= 2 && next() < 0.3 { sup[n] = Free; }
-        if n >= 3 && next() < 0.3 { sup[0] = Free; sup[n] = Fixed; }
+        if next() < 0.3 {
+            sup[0] = Fixed;
+        }
+        if next() < 0.3 {
+            sup[n] = Fixed;
+        }
+        if n >= 2 && next() < 0.3 {
+            sup[n] = Free;
+        }
+        if n >= 3 && next() < 0.3 {
+            sup[0] = Free;
+            sup[n] = Fixed;
+        }
         let mut b = Beam::new(spans, sup);
         let l = b.length();
         let d = b.case("D", Category::Dead);
@@ -245,11 +317,31 @@ fn random_beam() -> impl Strategy<Value = Beam> {
             let x1 = next() * l * 0.9;
             let x2 = x1 + (l - x1) * (0.1 + 0.9 * next());
             if r < 0.4 {
-                b.load(d, LoadKind::Distributed { x1, x2, w1: 10.0 * next() - 2.0, w2: 10.0 * next() - 2.0 });
+                b.load(
+                    d,
+                    LoadKind::Distributed {
+                        x1,
+                        x2,
+                        w1: 10.0 * next() - 2.0,
+                        w2: 10.0 * next() - 2.0,
+                    },
+                );
             } else if r < 0.8 {
-                b.load(d, LoadKind::Point { x: x1, p: 20_000.0 * next() - 5000.0 });
+                b.load(
+                    d,
+                    LoadKind::Point {
+                        x: x1,
+                        p: 20_000.0 * next() - 5000.0,
+                    },
+                );
             } else {
-                b.load(d, LoadKind::Moment { x: x1, m: 1e7 * (next() - 0.5) });
+                b.load(
+                    d,
+                    LoadKind::Moment {
+                        x: x1,
+                        m: 1e7 * (next() - 0.5),
+                    },
+                );
             }
         }
         b.combo("D", ComboKind::Strength, &[(d, 1.0)]);
@@ -265,13 +357,20 @@ fn total_load(b: &Beam) -> (f64, f64) {
             LoadKind::Distributed { x1, x2, w1, w2 } => {
                 let len = x2 - x1;
                 let tot = (w1 + w2) / 2.0 * len;
-                let xc = if (w1 + w2).abs() > 0.0 { x1 + len * (w1 + 2.0 * w2) / (3.0 * (w1 + w2)) } else { 0.0 };
+                let xc = if (w1 + w2).abs() > 0.0 {
+                    x1 + len * (w1 + 2.0 * w2) / (3.0 * (w1 + w2))
+                } else {
+                    0.0
+                };
                 f += tot;
                 // moment of a trapezoid computed from its two triangles
                 m += w1 * len / 2.0 * (x1 + len / 3.0) + w2 * len / 2.0 * (x1 + 2.0 * len / 3.0);
                 let _ = xc;
             }
-            LoadKind::Point { x, p } => { f += p; m += p * x; }
+            LoadKind::Point { x, p } => {
+                f += p;
+                m += p * x;
+            }
             LoadKind::Moment { m: c, .. } => m += c,
         }
     }

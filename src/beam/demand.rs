@@ -342,58 +342,57 @@ impl Demand {
             }
             return ex;
         }
-        // Envelope on stations, remembering where the extremes are.
-        let (mut best_max, mut best_min) = ((0usize, 0.0f64), (0usize, 0.0f64));
-        for e in elems.clone() {
+        // Envelope on stations; in each element, every distinct pattern seen
+        // at a station is then maximised exactly on the element polynomial.
+        let np = combo.patterns.len();
+        for e in elems {
             let base = self.base_coef(combo, w_sw, e);
+            let x0 = self.mesh.x[e];
+            let mut masks_hi: [u64; PATTERN_STATIONS + 2] = [0; PATTERN_STATIONS + 2];
+            let mut masks_lo: [u64; PATTERN_STATIONS + 2] = [0; PATTERN_STATIONS + 2];
             for k in 0..=PATTERN_STATIONS + 1 {
                 let s = self.len[e] * (k as f64 / (PATTERN_STATIONS + 1) as f64);
                 let b = eval(q, &base, s);
                 let (mut hi, mut lo) = (b, b);
-                for p in &combo.patterns {
+                for (j, p) in combo.patterns.iter().enumerate() {
                     let v = eval(q, &p.elems[e], s);
                     if v > 0.0 {
                         hi += v;
+                        masks_hi[k] |= 1u64 << (j % 64);
                     } else {
                         lo += v;
+                        masks_lo[k] |= 1u64 << (j % 64);
                     }
                 }
-                let x = self.mesh.x[e] + s;
-                if hi > ex.max {
-                    ex.max = hi;
-                    ex.x_max = x;
-                    best_max = (e, s);
-                }
-                if lo < ex.min {
-                    ex.min = lo;
-                    ex.x_min = x;
-                    best_min = (e, s);
-                }
+                ex.push(hi, x0 + s);
+                ex.push(lo, x0 + s);
             }
-        }
-        // Exact refinement with the pattern found at each extreme.
-        for (sign, (e0, s0)) in [(1.0, best_max), (-1.0, best_min)] {
-            let chosen: Vec<usize> = (0..combo.patterns.len())
-                .filter(|&j| sign * eval(q, &combo.patterns[j].elems[e0], s0) > 0.0)
-                .collect();
-            let lo_e = e0.saturating_sub(1).max(elems.start);
-            let hi_e = (e0 + 2).min(elems.end);
-            for e in lo_e..hi_e {
-                let mut c = self.base_coef(combo, w_sw, e);
-                for &j in &chosen {
-                    for (ck, pk) in c.iter_mut().zip(combo.patterns[j].elems[e].iter()) {
-                        *ck += pk;
+            if np > 64 {
+                continue;
+            }
+            for (sign, masks) in [(1.0, &masks_hi), (-1.0, &masks_lo)] {
+                for k in 0..masks.len() {
+                    let mask = masks[k];
+                    if masks[..k].contains(&mask) {
+                        continue;
                     }
-                }
-                let el = element_extremes(q, &c, self.len[e]);
-                let x0 = self.mesh.x[e];
-                if sign > 0.0 && el.max > ex.max {
-                    ex.max = el.max;
-                    ex.x_max = x0 + el.x_max;
-                }
-                if sign < 0.0 && el.min < ex.min {
-                    ex.min = el.min;
-                    ex.x_min = x0 + el.x_min;
+                    let mut c = base;
+                    for (j, p) in combo.patterns.iter().enumerate() {
+                        if mask & (1u64 << j) != 0 {
+                            for (ck, pk) in c.iter_mut().zip(p.elems[e].iter()) {
+                                *ck += pk;
+                            }
+                        }
+                    }
+                    let el = element_extremes(q, &c, self.len[e]);
+                    if sign > 0.0 && el.max > ex.max {
+                        ex.max = el.max;
+                        ex.x_max = x0 + el.x_max;
+                    }
+                    if sign < 0.0 && el.min < ex.min {
+                        ex.min = el.min;
+                        ex.x_min = x0 + el.x_min;
+                    }
                 }
             }
         }
@@ -402,7 +401,12 @@ impl Demand {
 
     /// Elements of stretch `k`.
     pub fn stretch_elements(&self, k: usize) -> std::ops::Range<usize> {
-        let first = self.mesh.stretch_of.iter().position(|&s| s == k).unwrap_or(0);
+        let first = self
+            .mesh
+            .stretch_of
+            .iter()
+            .position(|&s| s == k)
+            .unwrap_or(0);
         let last = self
             .mesh
             .stretch_of

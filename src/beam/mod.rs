@@ -8,6 +8,6 @@ pub mod solve;
 
 pub use demand::{Demand, Extremes, Quantity};
 pub use model::{
-    Beam, Category, ComboKind, Combination, DeflectionLimit, Load, LoadCase, LoadKind, Stretch,
+    Beam, Category, Combination, ComboKind, DeflectionLimit, Load, LoadCase, LoadKind, Stretch,
     Support,
 };

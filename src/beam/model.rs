@@ -55,7 +55,12 @@ pub enum Category {
 impl Category {
     pub fn parse(s: &str) -> Result<Category> {
         Ok(
-            match s.trim().to_ascii_lowercase().replace(['-', ' '], "_").as_str() {
+            match s
+                .trim()
+                .to_ascii_lowercase()
+                .replace(['-', ' '], "_")
+                .as_str()
+            {
                 "dead" | "d" => Category::Dead,
                 "live" | "l" => Category::Live,
                 "roof_live" | "lr" => Category::RoofLive,
@@ -213,8 +218,7 @@ impl Beam {
                     label: "left overhang".into(),
                 });
             }
-            let mut k = 1;
-            for w in sup.windows(2) {
+            for (k, w) in (1..).zip(sup.windows(2)) {
                 out.push(Stretch {
                     x1: xs[w[0]],
                     x2: xs[w[1]],
@@ -223,7 +227,6 @@ impl Beam {
                     right_node: Some(w[1]),
                     label: format!("span {k}"),
                 });
-                k += 1;
             }
             if last < n {
                 out.push(Stretch {
@@ -242,7 +245,9 @@ impl Beam {
     /// Check the model is complete and stable; returns the first problem.
     pub fn validate(&self) -> Result<()> {
         if self.spans.is_empty() {
-            return Err(Error::msg("the beam has no spans: expected at least one span length"));
+            return Err(Error::msg(
+                "the beam has no spans: expected at least one span length",
+            ));
         }
         for (i, s) in self.spans.iter().enumerate() {
             if !s.is_finite() || *s <= 0.0 {
@@ -340,7 +345,9 @@ impl Beam {
             }
         }
         if !(self.cantilever_factor.is_finite() && self.cantilever_factor > 0.0) {
-            return Err(Error::msg("the cantilever factor must be greater than zero"));
+            return Err(Error::msg(
+                "the cantilever factor must be greater than zero",
+            ));
         }
         Ok(())
     }
@@ -357,7 +364,10 @@ impl Beam {
         }
         let xs = self.node_x();
         let msg = match restraints.as_slice() {
-            [] => "the supports form a mechanism: nothing holds the beam up (every support is 'free')".to_string(),
+            [] => {
+                "the supports form a mechanism: nothing holds the beam up (every support is 'free')"
+                    .to_string()
+            }
             [i] => format!(
                 "the supports form a mechanism: the beam can rotate about its only support ({} at x = {} m); a cantilever needs a fixed end, a span needs two supports",
                 self.supports[*i].name(),
@@ -425,7 +435,12 @@ impl Beam {
         self
     }
 
-    pub fn service(&mut self, name: &str, factors: &[(usize, f64)], limit: DeflectionLimit) -> &mut Self {
+    pub fn service(
+        &mut self,
+        name: &str,
+        factors: &[(usize, f64)],
+        limit: DeflectionLimit,
+    ) -> &mut Self {
         self.combinations.push(Combination {
             name: name.to_string(),
             kind: ComboKind::Service,

@@ -186,7 +186,11 @@ impl MeshLoad {
                 })
             }
             MeshLoad::Point { x, .. } | MeshLoad::Moment { x, .. } => {
-                let inside = if first { x >= a && x <= b } else { x > a && x <= b };
+                let inside = if first {
+                    x >= a && x <= b
+                } else {
+                    x > a && x <= b
+                };
                 inside.then_some(*self)
             }
         }
@@ -484,8 +488,7 @@ pub fn shear(c: &Coef, s: f64) -> f64 {
 #[inline]
 pub fn deflection(c: &Coef, s: f64) -> f64 {
     let s2 = s * s;
-    c[4] + c[5] * s
-        - s2 * (c[0] / 2.0 + s * (c[1] / 6.0 + s * (c[2] / 12.0 + s * c[3] / 20.0)))
+    c[4] + c[5] * s - s2 * (c[0] / 2.0 + s * (c[1] / 6.0 + s * (c[2] / 12.0 + s * c[3] / 20.0)))
 }
 
 /// Evaluate an element's slope (E·I = 1) at s.

@@ -1,6 +1,9 @@
 //! Command-line interface: argument definitions (one file per command),
 //! turned into typed inputs for the library before any work starts.
 
+mod analyse;
+mod check;
+mod jobargs;
 mod output;
 mod section;
 
@@ -10,7 +13,6 @@ use beamsift::units::System;
 use clap::{Parser, Subcommand};
 
 /// Exit code when a check or a selection finds no passing section.
-#[allow(dead_code)]
 pub const EXIT_FAILS: i32 = 1;
 
 #[derive(Parser, Debug)]
@@ -39,6 +41,12 @@ pub enum Command {
     /// Print a cross-section's properties, to check a section before trusting a run.
     #[command(after_help = section::EXAMPLES)]
     Section(section::Args),
+    /// Check one section against a job: bending, shear, deflection, stability.
+    #[command(after_help = check::EXAMPLES)]
+    Check(check::Args),
+    /// Analyse a beam: reactions, moment, shear and deflection extremes.
+    #[command(after_help = analyse::EXAMPLES)]
+    Analyse(analyse::Args),
 }
 
 /// Run and map the outcome to an exit code.
@@ -67,6 +75,8 @@ fn run(cli: Cli) -> beamsift::Result<i32> {
     let out = cli.out.resolve()?;
     match cli.command {
         Command::Section(a) => section::run(a, &out),
+        Command::Check(a) => check::run(a, &out),
+        Command::Analyse(a) => analyse::run(a, &out),
     }
 }
 

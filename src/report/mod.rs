@@ -4,6 +4,7 @@
 
 pub mod csv_out;
 pub mod markdown;
+pub mod member;
 pub mod text;
 
 use serde::Serialize;

@@ -1,0 +1,761 @@
+//! The job file (TOML) and the presets of combinations: turns a user's
+//! description of a member into a validated [`Beam`], [`Material`] and
+//! [`Criteria`]. Pure: it takes text, not files.
+//!
+//! Every quantity is a string with its unit (`"5.4 m"`, `"2.5 kN/m"`).
+//! Errors carry the file name, line and column of the offending value.
+//!
+//! Presets (from memory; verify against the edition in force):
+//! * `asce7-16-asd` — ASCE/SEI 7-16 §2.4.1 basic allowable-stress
+//!   combinations 1–7 (seismic omitted): D; D+L; D+(Lr|S); D+0.75L+0.75(Lr|S);
+//!   D+0.6W; D+0.75L+0.45W+0.75(Lr|S); 0.6D+0.6W.
+//! * service `floor` — IBC 2018 Table 1604.3 floor members: L/360 under
+//!   live load, L/240 under dead + live.
+//! * service `roof` — IBC 2018 Table 1604.3 roof members supporting a
+//!   non-plaster ceiling: L/240 under roof live or snow, L/180 under dead
+//!   plus that load.
+
+use crate::beam::model::{
+    Beam, Category, Combination, ComboKind, DeflectionLimit, Load, LoadCase, LoadKind, Support,
+};
+use crate::check::{Bracing, Criteria, Material, ShearMethod};
+use crate::error::{Error, Location, Result};
+use crate::units::{self, Dim};
+use serde::Deserialize;
+use std::collections::BTreeMap;
+use toml::Spanned;
+
+/// A job ready to analyse.
+#[derive(Clone, Debug)]
+pub struct Job {
+    pub title: String,
+    pub beam: Beam,
+    pub material: Material,
+    pub criteria: Criteria,
+    /// Notes on how the job was interpreted (defaults applied, ...).
+    pub notes: Vec<String>,
+}
+
+#[derive(Deserialize)]
+#[serde(deny_unknown_fields)]
+struct RawJob {
+    title: Option<String>,
+    beam: RawBeam,
+    material: RawMaterial,
+    #[serde(default)]
+    case: Vec<RawCase>,
+    #[serde(default)]
+    load: Vec<RawLoad>,
+    #[serde(default)]
+    combination: Vec<RawCombo>,
+    presets: Option<RawPresets>,
+    checks: Option<RawChecks>,
+}
+
+#[derive(Deserialize)]
+#[serde(deny_unknown_fields)]
+struct RawBeam {
+    spans: Spanned<Vec<Spanned<String>>>,
+    supports: Spanned<Vec<Spanned<RawSupport>>>,
+    cantilever_factor: Option<f64>,
+}
+
+#[derive(Deserialize)]
+#[serde(untagged)]
+enum RawSupport {
+    Name(String),
+    Spring { spring: String },
+}
+
+#[derive(Deserialize)]
+#[serde(deny_unknown_fields)]
+struct RawMaterial {
+    name: Option<String>,
+    #[serde(rename = "E")]
+    e: Option<Spanned<String>>,
+    #[serde(rename = "Fb")]
+    fb: Option<Spanned<String>>,
+    #[serde(rename = "Fbt")]
+    fbt: Option<Spanned<String>>,
+    #[serde(rename = "Fbc")]
+    fbc: Option<Spanned<String>>,
+    #[serde(rename = "Fv")]
+    fv: Option<Spanned<String>>,
+    #[serde(rename = "Fy")]
+    fy: Option<Spanned<String>>,
+    density: Option<Spanned<String>>,
+}
+
+#[derive(Deserialize)]
+#[serde(deny_unknown_fields)]
+struct RawCase {
+    name: Spanned<String>,
+    category: Spanned<String>,
+    self_weight: Option<bool>,
+    pattern: Option<bool>,
+}
+
+#[derive(Deserialize)]
+#[serde(deny_unknown_fields)]
+struct RawLoad {
+    case: Spanned<String>,
+    uniform: Option<Spanned<String>>,
+    area: Option<Spanned<String>>,
+    width: Option<Spanned<String>>,
+    linear: Option<Spanned<Vec<String>>>,
+    point: Option<Spanned<String>>,
+    moment: Option<Spanned<String>>,
+    at: Option<Spanned<String>>,
+    from: Option<Spanned<String>>,
+    to: Option<Spanned<String>>,
+}
+
+#[derive(Deserialize)]
+#[serde(deny_unknown_fields)]
+struct RawCombo {
+    name: Spanned<String>,
+    kind: Option<Spanned<String>>,
+    factors: Spanned<BTreeMap<String, f64>>,
+    limit: Option<Spanned<String>>,
+    max: Option<Spanned<String>>,
+}
+
+#[derive(Deserialize)]
+#[serde(deny_unknown_fields)]
+struct RawPresets {
+    strength: Option<Spanned<String>>,
+    service: Option<Spanned<String>>,
+}
+
+#[derive(Deserialize)]
+#[serde(deny_unknown_fields)]
+struct RawChecks {
+    lateral_bracing: Option<Spanned<String>>,
+    shear: Option<Spanned<String>>,
+    self_weight: Option<bool>,
+}
+
+/// Maps byte offsets to line:column for error messages.
+struct Source<'a> {
+    file: &'a str,
+    text: &'a str,
+}
+
+impl Source<'_> {
+    fn loc(&self, span: std::ops::Range<usize>, field: &str) -> Location {
+        let upto = &self.text[..span.start.min(self.text.len())];
+        let line = upto.matches('\n').count() as u64 + 1;
+        let col = upto
+            .rsplit('\n')
+            .next()
+            .map(|l| l.chars().count())
+            .unwrap_or(0) as u64
+            + 1;
+        Location::in_file(self.file)
+            .with_line(line)
+            .with_column(col)
+            .with_field(field)
+    }
+    fn err<T>(
+        &self,
+        span: std::ops::Range<usize>,
+        field: &str,
+        msg: impl Into<String>,
+    ) -> Result<T> {
+        Err(Error::input(self.loc(span, field), msg))
+    }
+    fn q(&self, v: &Spanned<String>, dim: Dim, field: &str) -> Result<f64> {
+        units::parse(v.get_ref(), dim).map_err(|e| e.at(&self.loc(v.span(), field)))
+    }
+}
+
+/// Parse a deflection limit like `L/360`.
+pub fn parse_ratio(s: &str) -> Result<f64> {
+    let t = s.trim().replace(' ', "");
+    let n = t
+        .strip_prefix("L/")
+        .or_else(|| t.strip_prefix("l/"))
+        .and_then(|n| n.parse::<f64>().ok())
+        .filter(|n| n.is_finite() && *n > 0.0);
+    n.ok_or_else(|| {
+        Error::msg(format!(
+            "'{s}' is not a deflection limit: expected the form L/360 (and/or an absolute limit with a length unit)"
+        ))
+    })
+}
+
+/// Parse a lateral bracing description.
+pub fn parse_bracing(s: &str) -> Result<Bracing> {
+    match s.trim().to_ascii_lowercase().as_str() {
+        "continuous" => Ok(Bracing::Continuous),
+        "supports" | "at supports" | "span" => Ok(Bracing::Supports),
+        "none" | "not given" => Ok(Bracing::NotGiven),
+        _ => units::parse(s, Dim::Length).map(Bracing::Spacing).map_err(|_| {
+            Error::msg(format!(
+                "'{s}' is not a lateral bracing: expected \"continuous\", \"supports\" or a brace spacing such as \"1.5 m\""
+            ))
+        }),
+    }
+}
+
+/// Parse a support name.
+pub fn parse_support(s: &str) -> Result<Support> {
+    match s.trim().to_ascii_lowercase().as_str() {
+        "pinned" | "pin" => Ok(Support::Pinned),
+        "roller" => Ok(Support::Roller),
+        "fixed" => Ok(Support::Fixed),
+        "free" | "none" => Ok(Support::Free),
+        other => Err(Error::msg(format!(
+            "unknown support '{other}': expected pinned, roller, fixed, free or {{ spring = \"5000 kN/m\" }}"
+        ))),
+    }
+}
+
+/// Read a job from TOML text; `file` names it in errors.
+pub fn from_toml(text: &str, file: &str) -> Result<Job> {
+    let src = Source { file, text };
+    let raw: RawJob = toml::from_str(text).map_err(|e| {
+        let loc = match e.span() {
+            Some(sp) => src.loc(sp, ""),
+            None => Location::in_file(file),
+        };
+        let loc = Location { field: None, ..loc };
+        Error::input(loc, e.message().to_string())
+    })?;
+    let mut notes = Vec::new();
+    // Beam.
+    let mut spans = Vec::new();
+    for (i, s) in raw.beam.spans.get_ref().iter().enumerate() {
+        spans.push(src.q(s, Dim::Length, &format!("beam.spans[{}]", i + 1))?);
+    }
+    let mut supports = Vec::new();
+    for (i, s) in raw.beam.supports.get_ref().iter().enumerate() {
+        let field = format!("beam.supports[{}]", i + 1);
+        let sup = match s.get_ref() {
+            RawSupport::Name(n) => {
+                parse_support(n).map_err(|e| e.at(&src.loc(s.span(), &field)))?
+            }
+            RawSupport::Spring { spring } => {
+                let k = units::parse(spring, Dim::LineLoad)
+                    .map_err(|e| e.at(&src.loc(s.span(), &field)))?;
+                Support::Spring(k)
+            }
+        };
+        supports.push(sup);
+    }
+    if supports.len() != spans.len() + 1 {
+        return src.err(
+            raw.beam.supports.span(),
+            "beam.supports",
+            format!(
+                "{} span(s) need {} supports, one at each end of every span ('free' where there is none); {} given",
+                spans.len(),
+                spans.len() + 1,
+                supports.len()
+            ),
+        );
+    }
+    let mut beam = Beam::new(spans, supports);
+    if let Some(f) = raw.beam.cantilever_factor {
+        beam.cantilever_factor = f;
+    }
+    // Material.
+    let m = &raw.material;
+    let need = |v: &Option<Spanned<String>>, name: &str, what: &str| -> Result<f64> {
+        match v {
+            Some(v) => src.q(v, Dim::Stress, &format!("material.{name}")),
+            None => Err(Error::input(
+                Location::in_file(file).with_field(format!("material.{name}")),
+                format!("missing {what}: add {name} = \"...\" with a stress unit to [material]"),
+            )),
+        }
+    };
+    let e = need(&m.e, "E", "the modulus of elasticity")?;
+    let fb =
+        m.fb.as_ref()
+            .map(|v| src.q(v, Dim::Stress, "material.Fb"))
+            .transpose()?;
+    let fbt = m
+        .fbt
+        .as_ref()
+        .map(|v| src.q(v, Dim::Stress, "material.Fbt"))
+        .transpose()?;
+    let fbc = m
+        .fbc
+        .as_ref()
+        .map(|v| src.q(v, Dim::Stress, "material.Fbc"))
+        .transpose()?;
+    let (fb_tension, fb_compression) = match (fb, fbt, fbc) {
+        (_, Some(t), Some(c)) => (t, c),
+        (Some(b), t, c) => (t.unwrap_or(b), c.unwrap_or(b)),
+        _ => {
+            return Err(Error::input(
+                Location::in_file(file).with_field("material.Fb"),
+                "missing the allowable bending stress: add Fb = \"...\" (or both Fbt and Fbc) to [material]",
+            ));
+        }
+    };
+    let material = Material {
+        name: m.name.clone().unwrap_or_else(|| "material".into()),
+        e,
+        fb_tension,
+        fb_compression,
+        fv: m
+            .fv
+            .as_ref()
+            .map(|v| src.q(v, Dim::Stress, "material.Fv"))
+            .transpose()?,
+        fy: m
+            .fy
+            .as_ref()
+            .map(|v| src.q(v, Dim::Stress, "material.Fy"))
+            .transpose()?,
+        density: match &m.density {
+            Some(v) => src.q(v, Dim::Density, "material.density")?,
+            None => {
+                notes.push("no density given: the section's self-weight is not included unless a catalogue row gives its mass".into());
+                0.0
+            }
+        },
+    };
+    // Cases.
+    let mut sw_case = None;
+    for (i, c) in raw.case.iter().enumerate() {
+        let field = format!("case[{}]", i + 1);
+        let name = c.name.get_ref().trim().to_string();
+        if name.is_empty() {
+            return src.err(c.name.span(), &field, "a load case needs a name");
+        }
+        if beam.cases.iter().any(|k| k.name == name) {
+            return src.err(
+                c.name.span(),
+                &field,
+                format!("load case '{name}' is defined twice"),
+            );
+        }
+        let cat = Category::parse(c.category.get_ref())
+            .map_err(|e| e.at(&src.loc(c.category.span(), &format!("{field}.category"))))?;
+        let idx = beam.case(&name, cat);
+        if let Some(p) = c.pattern {
+            beam.cases[idx].pattern = p;
+        }
+        if c.self_weight == Some(true) {
+            sw_case = Some(idx);
+        }
+    }
+    if beam.cases.is_empty() {
+        return Err(Error::input(
+            Location::in_file(file).with_field("case"),
+            "the job has no load cases: add [[case]] tables with name and category",
+        ));
+    }
+    let sw_case = sw_case.or_else(|| beam.cases.iter().position(|c| c.category == Category::Dead));
+    beam.self_weight_case = sw_case;
+    // Loads.
+    let case_index = |name: &Spanned<String>, field: &str| -> Result<usize> {
+        beam.cases
+            .iter()
+            .position(|c| c.name == name.get_ref().trim())
+            .ok_or_else(|| {
+                Error::input(
+                    src.loc(name.span(), field),
+                    format!(
+                        "unknown load case '{}': expected one of {}",
+                        name.get_ref(),
+                        beam.cases
+                            .iter()
+                            .map(|c| c.name.as_str())
+                            .collect::<Vec<_>>()
+                            .join(", ")
+                    ),
+                )
+            })
+    };
+    let length = beam.length();
+    let mut loads = Vec::new();
+    for (i, l) in raw.load.iter().enumerate() {
+        let field = format!("load[{}]", i + 1);
+        let case = case_index(&l.case, &format!("{field}.case"))?;
+        let from = l
+            .from
+            .as_ref()
+            .map(|v| src.q(v, Dim::Length, &format!("{field}.from")))
+            .transpose()?;
+        let to =
+            l.to.as_ref()
+                .map(|v| src.q(v, Dim::Length, &format!("{field}.to")))
+                .transpose()?;
+        let at =
+            l.at.as_ref()
+                .map(|v| src.q(v, Dim::Length, &format!("{field}.at")))
+                .transpose()?;
+        let kinds = [
+            l.uniform.is_some(),
+            l.area.is_some(),
+            l.linear.is_some(),
+            l.point.is_some(),
+            l.moment.is_some(),
+        ];
+        let n_kinds = kinds.iter().filter(|k| **k).count();
+        let span0 = l.case.span();
+        if n_kinds != 1 {
+            return src.err(
+                span0,
+                &field,
+                "a load needs exactly one of uniform, area (with width), linear, point or moment",
+            );
+        }
+        let kind = if let Some(u) = &l.uniform {
+            let w = src.q(u, Dim::LineLoad, &format!("{field}.uniform"))?;
+            LoadKind::Distributed {
+                x1: from.unwrap_or(0.0),
+                x2: to.unwrap_or(length),
+                w1: w,
+                w2: w,
+            }
+        } else if let Some(a) = &l.area {
+            let p = src.q(a, Dim::AreaLoad, &format!("{field}.area"))?;
+            let Some(wd) = &l.width else {
+                return src.err(a.span(), &field, "an area load needs width = \"...\" (the tributary width, e.g. the joist spacing)");
+            };
+            let b = src.q(wd, Dim::Length, &format!("{field}.width"))?;
+            if b <= 0.0 {
+                return src.err(
+                    wd.span(),
+                    &format!("{field}.width"),
+                    "the tributary width must be greater than zero",
+                );
+            }
+            LoadKind::Distributed {
+                x1: from.unwrap_or(0.0),
+                x2: to.unwrap_or(length),
+                w1: p * b,
+                w2: p * b,
+            }
+        } else if let Some(lin) = &l.linear {
+            let v = lin.get_ref();
+            if v.len() != 2 {
+                return src.err(
+                    lin.span(),
+                    &format!("{field}.linear"),
+                    "expected two intensities, [start, end], e.g. [\"0 kN/m\", \"6 kN/m\"]",
+                );
+            }
+            let w1 = units::parse(&v[0], Dim::LineLoad)
+                .map_err(|e| e.at(&src.loc(lin.span(), &format!("{field}.linear"))))?;
+            let w2 = units::parse(&v[1], Dim::LineLoad)
+                .map_err(|e| e.at(&src.loc(lin.span(), &format!("{field}.linear"))))?;
+            LoadKind::Distributed {
+                x1: from.unwrap_or(0.0),
+                x2: to.unwrap_or(length),
+                w1,
+                w2,
+            }
+        } else if let Some(p) = &l.point {
+            let pv = src.q(p, Dim::Force, &format!("{field}.point"))?;
+            let Some(x) = at else {
+                return src.err(
+                    p.span(),
+                    &field,
+                    "a point load needs at = \"...\" (its distance from the left end)",
+                );
+            };
+            LoadKind::Point { x, p: pv }
+        } else if let Some(mo) = &l.moment {
+            let mv = src.q(mo, Dim::Moment, &format!("{field}.moment"))?;
+            let Some(x) = at else {
+                return src.err(
+                    mo.span(),
+                    &field,
+                    "a point moment needs at = \"...\" (its distance from the left end)",
+                );
+            };
+            LoadKind::Moment { x, m: mv }
+        } else {
+            return Err(Error::Internal("load kind".into()));
+        };
+        loads.push((
+            Load {
+                case,
+                kind,
+                label: field.clone(),
+            },
+            span0,
+        ));
+    }
+    for (l, _) in &loads {
+        beam.loads.push(l.clone());
+    }
+    // Combinations.
+    for (i, c) in raw.combination.iter().enumerate() {
+        let field = format!("combination[{}]", i + 1);
+        let kind = match c.kind.as_ref().map(|k| k.get_ref().to_ascii_lowercase()) {
+            None => {
+                if c.limit.is_some() || c.max.is_some() {
+                    ComboKind::Service
+                } else {
+                    ComboKind::Strength
+                }
+            }
+            Some(k) if k == "strength" => ComboKind::Strength,
+            Some(k) if k == "service" || k == "serviceability" => ComboKind::Service,
+            Some(k) => {
+                let sp = c.kind.as_ref().map(|s| s.span()).unwrap_or(c.name.span());
+                return src.err(
+                    sp,
+                    &format!("{field}.kind"),
+                    format!("unknown combination kind '{k}': expected strength or service"),
+                );
+            }
+        };
+        let mut factors = Vec::new();
+        for (name, f) in c.factors.get_ref() {
+            let Some(ci) = beam.cases.iter().position(|k| &k.name == name) else {
+                return src.err(
+                    c.factors.span(),
+                    &format!("{field}.factors"),
+                    format!(
+                        "combination '{}' names unknown load case '{name}': expected one of {}",
+                        c.name.get_ref(),
+                        beam.cases
+                            .iter()
+                            .map(|c| c.name.as_str())
+                            .collect::<Vec<_>>()
+                            .join(", ")
+                    ),
+                );
+            };
+            if !f.is_finite() {
+                return src.err(
+                    c.factors.span(),
+                    &format!("{field}.factors"),
+                    "factors must be finite numbers",
+                );
+            }
+            factors.push((ci, *f));
+        }
+        let ratio = c
+            .limit
+            .as_ref()
+            .map(|l| {
+                parse_ratio(l.get_ref())
+                    .map_err(|e| e.at(&src.loc(l.span(), &format!("{field}.limit"))))
+            })
+            .transpose()?;
+        let absolute = c
+            .max
+            .as_ref()
+            .map(|l| src.q(l, Dim::Length, &format!("{field}.max")))
+            .transpose()?;
+        if kind == ComboKind::Service && ratio.is_none() && absolute.is_none() {
+            return src.err(
+                c.name.span(),
+                &field,
+                "a service combination needs limit = \"L/360\" and/or max = \"20 mm\"",
+            );
+        }
+        beam.combinations.push(Combination {
+            name: c.name.get_ref().clone(),
+            kind,
+            factors,
+            limit: (kind == ComboKind::Service).then_some(DeflectionLimit { ratio, absolute }),
+        });
+    }
+    if let Some(p) = &raw.presets {
+        if let Some(s) = &p.strength {
+            let combos = strength_preset(&beam.cases, s.get_ref())
+                .map_err(|e| e.at(&src.loc(s.span(), "presets.strength")))?;
+            beam.combinations.extend(combos);
+        }
+        if let Some(s) = &p.service {
+            let combos = service_preset(&beam.cases, s.get_ref())
+                .map_err(|e| e.at(&src.loc(s.span(), "presets.service")))?;
+            beam.combinations.extend(combos);
+        }
+    }
+    if !beam
+        .combinations
+        .iter()
+        .any(|c| c.kind == ComboKind::Strength)
+    {
+        return Err(Error::input(
+            Location::in_file(file).with_field("combination"),
+            "the job has no strength combination: add [[combination]] tables or [presets] strength = \"asce7-16-asd\"",
+        ));
+    }
+    // Checks.
+    let mut criteria = Criteria::default();
+    if let Some(c) = &raw.checks {
+        if let Some(b) = &c.lateral_bracing {
+            criteria.bracing = parse_bracing(b.get_ref())
+                .map_err(|e| e.at(&src.loc(b.span(), "checks.lateral_bracing")))?;
+        }
+        if let Some(s) = &c.shear {
+            criteria.shear = match s.get_ref().as_str() {
+                "auto" => ShearMethod::Auto,
+                "peak_vq" => ShearMethod::PeakVq,
+                other => {
+                    return src.err(
+                        s.span(),
+                        "checks.shear",
+                        format!("unknown shear method '{other}': expected auto or peak_vq"),
+                    );
+                }
+            };
+        }
+        if let Some(sw) = c.self_weight {
+            criteria.self_weight = sw;
+        }
+    }
+    if criteria.self_weight && beam.self_weight_case.is_none() {
+        notes.push("no dead load case: the section's self-weight is not included".into());
+    }
+    // Validate the beam with locations for load errors.
+    if let Err(e) = beam.validate() {
+        if let Error::Input { location, .. } = &e
+            && let Some(field) = &location.field
+            && let Some((_, span)) = loads.iter().find(|(l, _)| field.starts_with(&l.label))
+        {
+            return Err(e.at(&src.loc(span.clone(), "")));
+        }
+        return Err(e.at(&Location::in_file(file)));
+    }
+    Ok(Job {
+        title: raw.title.unwrap_or_else(|| "beam".into()),
+        beam,
+        material,
+        criteria,
+        notes,
+    })
+}
+
+fn cases_of(cases: &[LoadCase], cat: Category) -> Vec<usize> {
+    (0..cases.len())
+        .filter(|&i| cases[i].category == cat)
+        .collect()
+}
+
+fn term(factor: f64, label: &str) -> String {
+    if factor == 1.0 {
+        label.to_string()
+    } else {
+        format!("{}{}", crate::units::fmt_num(factor), label)
+    }
+}
+
+/// Strength combinations of a named preset for the cases present.
+pub fn strength_preset(cases: &[LoadCase], name: &str) -> Result<Vec<Combination>> {
+    let key = name.trim().to_ascii_lowercase();
+    if key != "asce7-16-asd" && key != "asce7-asd" {
+        return Err(Error::msg(format!(
+            "unknown strength preset '{name}': expected asce7-16-asd"
+        )));
+    }
+    let d = cases_of(cases, Category::Dead);
+    let l = cases_of(cases, Category::Live);
+    let w = cases_of(cases, Category::Wind);
+    let roofs: Vec<(&str, Vec<usize>)> = [("Lr", Category::RoofLive), ("S", Category::Snow)]
+        .into_iter()
+        .map(|(n, c)| (n, cases_of(cases, c)))
+        .filter(|(_, v)| !v.is_empty())
+        .collect();
+    let others = cases_of(cases, Category::Other);
+    let mut out = Vec::new();
+    let mut push = |parts: Vec<(f64, &str, &Vec<usize>)>| {
+        if parts.iter().skip(1).any(|p| p.2.is_empty()) {
+            return;
+        }
+        let name = parts
+            .iter()
+            .filter(|p| !p.2.is_empty() || p.1 == "D")
+            .map(|p| term(p.0, p.1))
+            .collect::<Vec<_>>()
+            .join("+");
+        let mut factors: Vec<(usize, f64)> = Vec::new();
+        for (f, _, idx) in &parts {
+            for &i in idx.iter() {
+                factors.push((i, *f));
+            }
+        }
+        // "Other" cases ride with dead load at factor 1.
+        for &i in &others {
+            factors.push((i, 1.0));
+        }
+        out.push(Combination {
+            name,
+            kind: ComboKind::Strength,
+            factors,
+            limit: None,
+        });
+    };
+    push(vec![(1.0, "D", &d)]);
+    push(vec![(1.0, "D", &d), (1.0, "L", &l)]);
+    for (rn, r) in &roofs {
+        push(vec![(1.0, "D", &d), (1.0, rn, r)]);
+        push(vec![(1.0, "D", &d), (0.75, "L", &l), (0.75, rn, r)]);
+    }
+    push(vec![(1.0, "D", &d), (0.6, "W", &w)]);
+    if roofs.is_empty() {
+        push(vec![(1.0, "D", &d), (0.75, "L", &l), (0.45, "W", &w)]);
+    }
+    for (rn, r) in &roofs {
+        push(vec![
+            (1.0, "D", &d),
+            (0.75, "L", &l),
+            (0.45, "W", &w),
+            (0.75, rn, r),
+        ]);
+    }
+    push(vec![(0.6, "D", &d), (0.6, "W", &w)]);
+    Ok(out)
+}
+
+/// Serviceability combinations of a named preset.
+pub fn service_preset(cases: &[LoadCase], name: &str) -> Result<Vec<Combination>> {
+    let key = name.trim().to_ascii_lowercase();
+    let d = cases_of(cases, Category::Dead);
+    let mut out = Vec::new();
+    let mut add = |label: String, idx: Vec<usize>, with_dead: bool, n: f64| {
+        if idx.is_empty() {
+            return;
+        }
+        let mut factors: Vec<(usize, f64)> = idx.iter().map(|&i| (i, 1.0)).collect();
+        if with_dead {
+            factors.extend(d.iter().map(|&i| (i, 1.0)));
+        }
+        out.push(Combination {
+            name: format!("{label} ≤ L/{}", crate::units::fmt_num(n)),
+            kind: ComboKind::Service,
+            factors,
+            limit: Some(DeflectionLimit {
+                ratio: Some(n),
+                absolute: None,
+            }),
+        });
+    };
+    match key.as_str() {
+        "floor" => {
+            let l = cases_of(cases, Category::Live);
+            add("L".into(), l.clone(), false, 360.0);
+            add("D+L".into(), l, true, 240.0);
+        }
+        "roof" => {
+            for (n, c) in [("Lr", Category::RoofLive), ("S", Category::Snow)] {
+                let v = cases_of(cases, c);
+                add(n.into(), v.clone(), false, 240.0);
+                add(format!("D+{n}"), v, true, 180.0);
+            }
+        }
+        _ => {
+            return Err(Error::msg(format!(
+                "unknown service preset '{name}': expected floor or roof"
+            )));
+        }
+    }
+    if out.is_empty() {
+        return Err(Error::msg(format!(
+            "service preset '{name}' found no load case of its category (live for floor; roof_live or snow for roof)"
+        )));
+    }
+    Ok(out)
+}

@@ -1,0 +1,392 @@
+//! The result model of a single-member check, and its document. Shared by
+//! `check` and the calculation report.
+
+use super::{Align, Document, Table};
+use crate::beam::model::{ComboKind, Support};
+use crate::check::{CheckKind, Item, Prepared, SectionInput};
+use crate::job::Job;
+use crate::section::Properties;
+use crate::units::{Show, System};
+use serde::Serialize;
+
+/// One check line, with names resolved, in internal units.
+#[derive(Clone, Debug, Serialize)]
+pub struct Line {
+    pub check: CheckKind,
+    pub label: String,
+    pub combination: String,
+    /// Span or overhang label ("span 2"), or the buckling segment.
+    pub part: String,
+    /// Position from the left end, mm.
+    pub x: f64,
+    /// The action at x: N·mm (bending, buckling), N (shear), mm (deflection).
+    pub action: f64,
+    /// Stress (MPa), moment (N·mm) or deflection (mm).
+    pub demand: f64,
+    pub capacity: f64,
+    pub utilisation: f64,
+    pub passes: bool,
+}
+
+/// The outcome of checking one section on one job.
+#[derive(Clone, Debug, Serialize)]
+pub struct MemberCheck {
+    pub title: String,
+    pub section: String,
+    pub properties: Properties,
+    /// kg/m.
+    pub mass_per_length: f64,
+    /// N/mm, as added to the self-weight case (0 when off).
+    pub self_weight: f64,
+    pub lines: Vec<Line>,
+    pub utilisation: f64,
+    pub governing: Option<Line>,
+    pub passes: bool,
+    pub not_checked: Vec<String>,
+    pub notes: Vec<String>,
+    pub caution: &'static str,
+}
+
+/// Where along the beam x lies, in words.
+pub fn part_at(prep: &Prepared, x: f64) -> String {
+    prep.demand
+        .stretches
+        .iter()
+        .find(|s| x >= s.x1 - 1e-9 && x <= s.x2 + 1e-9)
+        .map(|s| s.label.clone())
+        .unwrap_or_default()
+}
+
+pub fn line(prep: &Prepared, it: &Item) -> Line {
+    let d = &prep.demand;
+    let part = match it.kind {
+        CheckKind::Deflection => d.stretches[it.part].label.clone(),
+        CheckKind::LateralTorsional if !prep.segments.is_empty() => {
+            let s = &prep.segments[it.part];
+            format!("segment {:.3}–{:.3} m", s.x1 / 1000.0, s.x2 / 1000.0)
+        }
+        _ => part_at(prep, it.x),
+    };
+    Line {
+        check: it.kind,
+        label: it.kind.label().to_string(),
+        combination: d.combos[it.combo].name.clone(),
+        part,
+        x: it.x,
+        action: it.action,
+        demand: it.demand,
+        capacity: it.capacity,
+        utilisation: it.utilisation,
+        passes: it.utilisation <= 1.0,
+    }
+}
+
+/// Check a section and collect the result.
+pub fn member_check(
+    job: &Job,
+    prep: &Prepared,
+    section: &str,
+    props: &Properties,
+    mass: f64,
+) -> MemberCheck {
+    let sec = SectionInput { props, mass };
+    let items = prep.check_all(sec);
+    let lines: Vec<Line> = items.iter().map(|it| line(prep, it)).collect();
+    let summary = prep.check(sec);
+    MemberCheck {
+        title: job.title.clone(),
+        section: section.to_string(),
+        properties: props.clone(),
+        mass_per_length: mass,
+        self_weight: prep.self_weight(mass),
+        governing: summary.governing.map(|g| line(prep, &g)),
+        utilisation: summary.utilisation,
+        passes: summary.passes,
+        lines,
+        not_checked: prep.not_checked(props),
+        notes: job.notes.clone(),
+        caution: super::CAUTION,
+    }
+}
+
+fn fmt_part(l: &Line, sys: System) -> String {
+    if l.part.starts_with("segment") {
+        l.part.clone()
+    } else {
+        format!("{}, x = {}", l.part, Show::Span.fmt(l.x, sys))
+    }
+}
+
+/// (action, demand, capacity) formatted for a line.
+pub fn fmt_values(l: &Line, sys: System) -> (String, String, String) {
+    match l.check {
+        CheckKind::Shear => (
+            format!("V = {}", Show::Force.fmt(l.action.abs(), sys)),
+            Show::Stress.fmt(l.demand, sys),
+            Show::Stress.fmt(l.capacity, sys),
+        ),
+        CheckKind::Deflection => (
+            format!("δ = {}", Show::Deflection.fmt(l.action, sys)),
+            Show::Deflection.fmt(l.demand, sys),
+            Show::Deflection.fmt(l.capacity, sys),
+        ),
+        CheckKind::LateralTorsional => (
+            format!("M = {}", Show::Moment.fmt(l.action, sys)),
+            Show::Moment.fmt(l.demand, sys),
+            Show::Moment.fmt(l.capacity, sys),
+        ),
+        _ => (
+            format!("M = {}", Show::Moment.fmt(l.action, sys)),
+            Show::Stress.fmt(l.demand, sys),
+            Show::Stress.fmt(l.capacity, sys),
+        ),
+    }
+}
+
+/// Describe the job: member, material, cases and combinations.
+pub fn job_tables(job: &Job, sys: System) -> Vec<Table> {
+    let b = &job.beam;
+    let mut member = Table::new("Member", &[("Item", Align::Left), ("Value", Align::Left)]);
+    let spans: Vec<String> = b.spans.iter().map(|s| Show::Span.fmt(*s, sys)).collect();
+    member.row(vec!["Segments, left to right".into(), spans.join(" + ")]);
+    let sups: Vec<String> = b
+        .supports
+        .iter()
+        .map(|s| match s {
+            Support::Spring(k) => format!(
+                "spring {}",
+                Show::LineLoad.fmt(*k, sys).replace("/m", "/m stiffness")
+            ),
+            other => other.name(),
+        })
+        .collect();
+    member.row(vec!["Supports at the nodes".into(), sups.join(", ")]);
+    let m = &job.material;
+    member.row(vec!["Material".into(), m.name.clone()]);
+    member.row(vec![
+        "Modulus of elasticity E".into(),
+        Show::Modulus.fmt(m.e, sys),
+    ]);
+    if m.fb_tension == m.fb_compression {
+        member.row(vec![
+            "Allowable bending stress Fb".into(),
+            Show::Stress.fmt(m.fb_tension, sys),
+        ]);
+    } else {
+        member.row(vec![
+            "Allowable bending stress, tension Fbt".into(),
+            Show::Stress.fmt(m.fb_tension, sys),
+        ]);
+        member.row(vec![
+            "Allowable bending stress, compression Fbc".into(),
+            Show::Stress.fmt(m.fb_compression, sys),
+        ]);
+    }
+    member.row(vec![
+        "Allowable shear stress Fv".into(),
+        m.fv.map(|v| Show::Stress.fmt(v, sys))
+            .unwrap_or_else(|| "not given".into()),
+    ]);
+    if let Some(fy) = m.fy {
+        member.row(vec!["Yield stress Fy".into(), Show::Stress.fmt(fy, sys)]);
+    }
+    member.row(vec!["Density".into(), Show::Density.fmt(m.density, sys)]);
+    member.row(vec![
+        "Lateral bracing".into(),
+        match job.criteria.bracing {
+            crate::check::Bracing::NotGiven => "not given (stability not checked)".into(),
+            crate::check::Bracing::Continuous => "continuous".into(),
+            crate::check::Bracing::Supports => "at supports only".into(),
+            crate::check::Bracing::Spacing(s) => {
+                format!("at supports and every {}", Show::Span.fmt(s, sys))
+            }
+        },
+    ]);
+    let mut loads = Table::new(
+        "Loads (x from the left end; downward and clockwise positive)",
+        &[
+            ("Case", Align::Left),
+            ("Category", Align::Left),
+            ("Load", Align::Left),
+        ],
+    );
+    for l in &b.loads {
+        let c = &b.cases[l.case];
+        let desc = match l.kind {
+            crate::beam::LoadKind::Distributed { x1, x2, w1, w2 } => {
+                let span = format!(
+                    "from {} to {}",
+                    Show::Span.fmt(x1, sys),
+                    Show::Span.fmt(x2, sys)
+                );
+                if w1 == w2 {
+                    format!("uniform {} {span}", Show::LineLoad.fmt(w1, sys))
+                } else {
+                    format!(
+                        "linear {} to {} {span}",
+                        Show::LineLoad.fmt(w1, sys),
+                        Show::LineLoad.fmt(w2, sys)
+                    )
+                }
+            }
+            crate::beam::LoadKind::Point { x, p } => {
+                format!(
+                    "point {} at {}",
+                    Show::Force.fmt(p, sys),
+                    Show::Span.fmt(x, sys)
+                )
+            }
+            crate::beam::LoadKind::Moment { x, m } => {
+                format!(
+                    "moment {} at {}",
+                    Show::Moment.fmt(m, sys),
+                    Show::Span.fmt(x, sys)
+                )
+            }
+        };
+        let pat = if c.pattern && b.stretches().len() > 1 {
+            " (patterned by span)"
+        } else {
+            ""
+        };
+        loads.row(vec![
+            c.name.clone(),
+            format!("{}{pat}", c.category.name()),
+            desc,
+        ]);
+    }
+    if let Some(sw) = b.self_weight_case.filter(|_| job.criteria.self_weight) {
+        loads.row(vec![
+            b.cases[sw].name.clone(),
+            "dead".into(),
+            "self-weight of the section, over the whole beam".into(),
+        ]);
+    }
+    let mut combos = Table::new(
+        "Combinations",
+        &[
+            ("Name", Align::Left),
+            ("Kind", Align::Left),
+            ("Factors", Align::Left),
+            ("Limit", Align::Left),
+        ],
+    );
+    for c in &b.combinations {
+        let f: Vec<String> = c
+            .factors
+            .iter()
+            .map(|(i, f)| format!("{}×{}", crate::units::fmt_num(*f), b.cases[*i].name))
+            .collect();
+        let limit = match (c.kind, c.limit) {
+            (ComboKind::Service, Some(l)) => {
+                let mut parts = Vec::new();
+                if let Some(n) = l.ratio {
+                    parts.push(format!("L/{}", crate::units::fmt_num(n)));
+                }
+                if let Some(a) = l.absolute {
+                    parts.push(Show::Deflection.fmt(a, sys));
+                }
+                parts.join(" and ")
+            }
+            _ => String::new(),
+        };
+        combos.row(vec![
+            c.name.clone(),
+            match c.kind {
+                ComboKind::Strength => "strength".into(),
+                ComboKind::Service => "service".into(),
+            },
+            f.join(" + "),
+            limit,
+        ]);
+    }
+    vec![member, loads, combos]
+}
+
+/// The document of a member check.
+pub fn document(job: &Job, r: &MemberCheck, sys: System) -> Document {
+    let mut doc = Document::new(format!("Check of {} — {}", r.section, r.title));
+    for t in job_tables(job, sys) {
+        doc.table(t);
+    }
+    let mut sec = Table::new(
+        "Section",
+        &[
+            ("Property", Align::Left),
+            ("Value", Align::Right),
+            ("Unit", Align::Left),
+        ],
+    );
+    let p = &r.properties;
+    for (label, v, kind) in [
+        ("Depth d", p.depth, Show::Dimension),
+        ("Area A", p.area, Show::Area),
+        ("Second moment Ix", p.ix, Show::SecondMoment),
+        ("S_top = Ix/c_top", p.s_top, Show::SectionModulus),
+        ("S_bot = Ix/c_bot", p.s_bot, Show::SectionModulus),
+        ("Mass per length", r.mass_per_length, Show::Mass),
+    ] {
+        sec.row(vec![label.into(), kind.num(v, sys), kind.label(sys).into()]);
+    }
+    sec.row(vec![
+        "Self-weight added".into(),
+        Show::LineLoad.num(r.self_weight, sys),
+        Show::LineLoad.label(sys).into(),
+    ]);
+    doc.table(sec);
+    let mut t = Table::new(
+        "Checks",
+        &[
+            ("Check", Align::Left),
+            ("Combination", Align::Left),
+            ("Where", Align::Left),
+            ("Action", Align::Right),
+            ("Demand", Align::Right),
+            ("Capacity", Align::Right),
+            ("Utilisation", Align::Right),
+            ("Result", Align::Left),
+        ],
+    );
+    for l in &r.lines {
+        let (a, d, c) = fmt_values(l, sys);
+        t.row(vec![
+            l.check.short().to_string(),
+            l.combination.clone(),
+            fmt_part(l, sys),
+            a,
+            d,
+            c,
+            format!("{:.3}", l.utilisation),
+            if l.passes {
+                "pass".into()
+            } else {
+                "FAIL".into()
+            },
+        ]);
+    }
+    doc.table(t);
+    doc.para(
+        "+M sagging, −M hogging; (C) fibre in compression, (T) in tension. Bending: f = M·c/I = M/S. \
+Utilisation = demand / capacity; a section passes when every utilisation is at most 1.",
+    );
+    if let Some(g) = &r.governing {
+        doc.para(format!(
+            "{}: utilisation {:.3}, governed by {} under {} ({}).",
+            if r.passes { "PASSES" } else { "FAILS" },
+            r.utilisation,
+            g.label,
+            g.combination,
+            fmt_part(g, sys)
+        ));
+    }
+    if !r.notes.is_empty() {
+        doc.list("Notes:", r.notes.clone());
+    }
+    doc.caution(r.not_checked.clone());
+    doc
+}
+
+/// Convenience: the kinds of section value a reader may want.
+pub fn section_input(props: &Properties, mass: f64) -> SectionInput<'_> {
+    SectionInput { props, mass }
+}

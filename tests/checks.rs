@@ -1,0 +1,312 @@
+//! Section checks on a prepared demand: pattern envelopes against brute
+//! force, the fast path against a full re-analysis, hand calculations from
+//! the standard formulas, and AISC 360-16 F2 against the AISC Manual's
+//! tabulated limiting lengths.
+
+use beamsift::beam::*;
+use beamsift::check::ltb::{Capacity, cb};
+use beamsift::check::*;
+use beamsift::section::Shape;
+use proptest::prelude::*;
+
+fn steel() -> Material {
+    Material {
+        name: "steel".into(),
+        e: 200_000.0,
+        fb_tension: 165.0,
+        fb_compression: 165.0,
+        fv: Some(100.0),
+        fy: Some(275.0),
+        density: 7850.0,
+    }
+}
+
+/// Hand calculation (simply supported, uniform load, standard formulas):
+/// M = wL²/8, f = M/S with S = b·d²/6, V = wL/2, fv = 1.5·V/(b·d),
+/// δ = 5wL⁴/(384·E·I), with self-weight ρ·g·A added to the dead load.
+#[test]
+fn rectangle_simple_span_by_hand() {
+    let (l, wd, wl) = (4800.0, 0.9, 1.8);
+    let (b, d) = (63.0, 250.0);
+    let mut beam = Beam::new(vec![l], vec![Support::Pinned, Support::Roller]);
+    let dc = beam.case("D", Category::Dead);
+    let lc = beam.case("L", Category::Live);
+    beam.self_weight_case = Some(dc);
+    beam.udl(dc, wd).udl(lc, wl);
+    beam.combo("D+L", ComboKind::Strength, &[(dc, 1.0), (lc, 1.0)]);
+    beam.service(
+        "L",
+        &[(lc, 1.0)],
+        DeflectionLimit {
+            ratio: Some(360.0),
+            absolute: None,
+        },
+    );
+    let mat = Material {
+        name: "timber".into(),
+        e: 11_000.0,
+        fb_tension: 10.0,
+        fb_compression: 10.0,
+        fv: Some(1.0),
+        fy: None,
+        density: 460.0,
+    };
+    let prep = Prepared::new(&beam, mat, Criteria::default()).unwrap();
+    let p = Shape::Rect { b, d }.properties().unwrap();
+    let mass = p.mass_per_length(460.0);
+    let items = prep.check_all(SectionInput { props: &p, mass });
+    let sw = 460.0 * 9.80665 * (b * d) * 1e-9; // N/mm: ρ·g·A
+    let w = wd + wl + sw;
+    let m = w * l * l / 8.0;
+    let f = m / (b * d * d / 6.0);
+    let v = w * l / 2.0;
+    let fv = 1.5 * v / (b * d);
+    let i = b * d.powi(3) / 12.0;
+    let delta_l = 5.0 * wl * l.powi(4) / (384.0 * 11_000.0 * i);
+    let get = |k: CheckKind| items.iter().find(|it| it.kind == k).unwrap();
+    let close = |a: f64, b: f64| (a - b).abs() < 1e-9 * b.abs();
+    assert!(close(get(CheckKind::BendingSaggingBottom).demand, f));
+    assert!(close(get(CheckKind::BendingSaggingTop).demand, f));
+    assert!(
+        close(get(CheckKind::Shear).demand, fv),
+        "{} {}",
+        get(CheckKind::Shear).demand,
+        fv
+    );
+    assert!(close(get(CheckKind::Deflection).demand, delta_l));
+    assert!(close(get(CheckKind::Deflection).capacity, l / 360.0));
+    assert!(
+        !items
+            .iter()
+            .any(|it| it.kind == CheckKind::BendingHoggingTop)
+    );
+}
+
+/// AISC Steel Construction Manual, 15th ed., Table 3-2 (from memory),
+/// W14×22, Fy = 50 ksi: Lp = 3.67 ft, Lr = 10.4 ft, Mp/Ωb = 82.8 kip-ft,
+/// Mr/Ωb = 0.7·Fy·Sx/Ωb = 50.6 kip-ft. Properties here are computed from
+/// the rounded table dimensions, hence 3 %.
+#[test]
+fn w14x22_limiting_lengths_aisc_table_3_2() {
+    let i = 25.4;
+    let p = Shape::RolledI {
+        d: 13.7 * i,
+        bf: 5.0 * i,
+        tf: 0.335 * i,
+        tw: 0.230 * i,
+        r: 0.4 * i,
+    }
+    .properties()
+    .unwrap();
+    let ksi = 6.894_757;
+    let mat = Material {
+        e: 29_000.0 * ksi,
+        fy: Some(50.0 * ksi),
+        ..steel()
+    };
+    let cap = Capacity::new(&p, &mat, Bracing::Supports).unwrap();
+    let ft = 304.8;
+    let kipft = 4448.222 * 304.8;
+    let near = |a: f64, b: f64, tol: f64| ((a - b) / b).abs() < tol;
+    assert!(near(cap.lp / ft, 3.67, 0.03), "Lp {}", cap.lp / ft);
+    assert!(near(cap.lr / ft, 10.4, 0.03), "Lr {}", cap.lr / ft);
+    assert!(near(cap.mp / 1.67 / kipft, 82.8, 0.03));
+    assert!(near(cap.fy_sx_07 / 1.67 / kipft, 50.6, 0.03));
+    // The F2-2 line and the F2-3 curve meet at Lr (Cb = 1): a check on
+    // the transcription of F2-4 and F2-6.
+    let below = cap.nominal(cap.lr * (1.0 - 1e-9), 1.0);
+    let above = cap.nominal(cap.lr * (1.0 + 1e-9), 1.0);
+    // F2-6 carries the rounded constants 1.95 and 6.76 (exact: 1.949 and
+    // 6.748 from F2-4 with Fcr = 0.7Fy), so the two meet to about 0.2 %.
+    assert!(near(below, cap.fy_sx_07, 1e-9), "{below} {}", cap.fy_sx_07);
+    assert!(near(above, below, 2e-3), "{below} {above}");
+    assert!(near(cap.nominal(0.5 * cap.lp, 1.0), cap.mp, 1e-12));
+    // Uniform moment gives Cb = 1; a uniform load on a simple span gives
+    // 1.14 (AISC 360-16 Commentary Fig. C-F1.2, from memory).
+    assert!((cb(1.0, 1.0, 1.0, 1.0) - 1.0).abs() < 1e-12);
+    let (ma, mb, mc) = (0.75, 1.0, 0.75);
+    assert!((cb(1.0, ma, mb, mc) - 1.136).abs() < 1e-3);
+}
+
+/// With bracing at the supports only, a simply supported steel beam under
+/// uniform load gets Cb = 1.136 from the quarter-point moments (exact
+/// stations), and the check uses Mn(Lb = span)/Ω.
+#[test]
+fn lateral_torsional_check_uses_the_moment_diagram() {
+    let l = 6000.0;
+    let mut beam = Beam::new(vec![l], vec![Support::Pinned, Support::Pinned]);
+    let d = beam.case("D", Category::Dead);
+    beam.udl(d, 20.0);
+    beam.combo("D", ComboKind::Strength, &[(d, 1.0)]);
+    let crit = Criteria {
+        bracing: Bracing::Supports,
+        self_weight: false,
+        ..Criteria::default()
+    };
+    let prep = Prepared::new(&beam, steel(), crit).unwrap();
+    let p = Shape::RolledI {
+        d: 300.0,
+        bf: 150.0,
+        tf: 10.7,
+        tw: 7.1,
+        r: 15.0,
+    }
+    .properties()
+    .unwrap();
+    let items = prep.check_all(SectionInput {
+        props: &p,
+        mass: 0.0,
+    });
+    let ltb = items
+        .iter()
+        .find(|i| i.kind == CheckKind::LateralTorsional)
+        .unwrap();
+    let cap = Capacity::new(&p, &steel(), Bracing::Supports).unwrap();
+    let want = cap.allowable(l, 12.5 / (2.5 + 3.0 * 0.75 + 4.0 + 3.0 * 0.75));
+    assert!((ltb.capacity - want).abs() < 1e-9 * want);
+    assert!((ltb.demand - 20.0 * l * l / 8.0).abs() < 1e-6 * ltb.demand);
+    // Without bracing information the check is absent and reported.
+    let prep = Prepared::new(&beam, steel(), Criteria::default()).unwrap();
+    let items = prep.check_all(SectionInput {
+        props: &p,
+        mass: 0.0,
+    });
+    assert!(!items.iter().any(|i| i.kind == CheckKind::LateralTorsional));
+    assert!(
+        prep.not_checked(&p)
+            .iter()
+            .any(|s| s.contains("lateral stability"))
+    );
+}
+
+fn continuous(spans: Vec<f64>, seed: u64) -> Beam {
+    let n = spans.len();
+    let mut rng = seed | 1;
+    let mut next = move || {
+        rng ^= rng << 13;
+        rng ^= rng >> 7;
+        rng ^= rng << 17;
+        (rng % 10_000) as f64 / 10_000.0
+    };
+    let mut sup = vec![Support::Pinned; n + 1];
+    if next() < 0.3 {
+        sup[0] = Support::Fixed;
+    }
+    if n >= 2 && next() < 0.3 {
+        sup[n] = Support::Free;
+    }
+    let mut b = Beam::new(spans, sup);
+    let l = b.length();
+    let d = b.case("D", Category::Dead);
+    let lv = b.case("L", Category::Live);
+    b.udl(d, 1.0 + 4.0 * next());
+    b.udl(lv, 1.0 + 6.0 * next());
+    b.load(
+        lv,
+        LoadKind::Point {
+            x: next() * l,
+            p: 10_000.0 * next(),
+        },
+    );
+    b.self_weight_case = Some(d);
+    b.combo("D+L", ComboKind::Strength, &[(d, 1.0), (lv, 1.0)]);
+    b.service(
+        "L",
+        &[(lv, 1.0)],
+        DeflectionLimit {
+            ratio: Some(360.0),
+            absolute: None,
+        },
+    );
+    b
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(40))]
+
+    /// The pattern envelope equals the worst of all 2^n explicit patterns
+    /// (each analysed as an ordinary beam with live load on the chosen
+    /// spans only), for moment, shear and deflection.
+    #[test]
+    fn pattern_envelope_equals_brute_force(
+        spans in prop::collection::vec(2000.0..7000.0f64, 2..5),
+        seed in any::<u64>(),
+    ) {
+        let beam = continuous(spans, seed);
+        let dm = Demand::build(&beam, &[]).unwrap();
+        let st = beam.stretches();
+        let ne = dm.len.len();
+        let w_sw = 0.3;
+        let mut worst = [f64::NEG_INFINITY, f64::INFINITY, 0.0f64, 0.0f64];
+        for mask in 0u32..(1 << st.len()) {
+            let mut b = beam.clone();
+            b.cases[1].pattern = false;
+            let live: Vec<_> = b.loads.iter().filter(|l| l.case == 1).cloned().collect();
+            b.loads.retain(|l| l.case != 1);
+            for ld in live {
+                for (k, s) in st.iter().enumerate() {
+                    if mask & (1 << k) == 0 { continue; }
+                    let kind = match ld.kind {
+                        LoadKind::Distributed { x1, x2, w1, w2 } => {
+                            let (a, bb) = (x1.max(s.x1), x2.min(s.x2));
+                            if bb <= a { continue; }
+                            let at = |x: f64| w1 + (w2 - w1) * (x - x1) / (x2 - x1);
+                            LoadKind::Distributed { x1: a, x2: bb, w1: at(a), w2: at(bb) }
+                        }
+                        LoadKind::Point { x, p } => {
+                            let inside = if k == 0 { x >= s.x1 && x <= s.x2 } else { x > s.x1 && x <= s.x2 };
+                            if !inside { continue; }
+                            LoadKind::Point { x, p }
+                        }
+                        ref other => other.clone(),
+                    };
+                    b.load(1, kind);
+                }
+            }
+            let d2 = Demand::build(&b, &[]).unwrap();
+            let m = d2.extremes(&d2.combos[0], w_sw, Quantity::Moment, 0..d2.len.len());
+            let v = d2.extremes(&d2.combos[0], w_sw, Quantity::Shear, 0..d2.len.len());
+            worst[0] = worst[0].max(m.max);
+            worst[1] = worst[1].min(m.min);
+            worst[2] = worst[2].max(v.max.abs().max(v.min.abs()));
+            let y = d2.extremes(&d2.combos[1], w_sw, Quantity::Deflection, d2.stretch_elements(0));
+            worst[3] = worst[3].max(y.max.abs().max(y.min.abs()));
+        }
+        let m = dm.extremes(&dm.combos[0], w_sw, Quantity::Moment, 0..ne);
+        let v = dm.extremes(&dm.combos[0], w_sw, Quantity::Shear, 0..ne);
+        let y = dm.extremes(&dm.combos[1], w_sw, Quantity::Deflection, dm.stretch_elements(0));
+        let scale = m.max.abs().max(m.min.abs());
+        prop_assert!((m.max - worst[0]).abs() <= 1e-9 * scale, "M+ {} vs {}", m.max, worst[0]);
+        prop_assert!((m.min - worst[1]).abs() <= 1e-9 * scale, "M- {} vs {}", m.min, worst[1]);
+        prop_assert!((v.max.abs().max(v.min.abs()) - worst[2]).abs() <= 1e-9 * worst[2]);
+        let yy = y.max.abs().max(y.min.abs());
+        prop_assert!((yy - worst[3]).abs() <= 1e-9 * worst[3], "δ {} vs {}", yy, worst[3]);
+    }
+
+    /// The fast check (demand + unit self-weight scaled by the section's
+    /// mass) agrees with a full re-analysis in which the self-weight is an
+    /// ordinary dead load.
+    #[test]
+    fn fast_check_equals_reanalysis_with_self_weight(
+        spans in prop::collection::vec(2000.0..7000.0f64, 1..4),
+        seed in any::<u64>(),
+        depth in 200.0..600.0f64,
+    ) {
+        let mut beam = continuous(spans, seed);
+        for c in beam.cases.iter_mut() { c.pattern = false; }
+        let shape = Shape::WeldedI { bf: 150.0, tf: 10.0, hw: depth, tw: 6.0 };
+        let p = shape.properties().unwrap();
+        let mass = p.mass_per_length(7850.0);
+        let crit = Criteria { bracing: Bracing::Supports, ..Criteria::default() };
+        let fast = Prepared::new(&beam, steel(), crit.clone()).unwrap()
+            .check(SectionInput { props: &p, mass });
+        let mut explicit = beam.clone();
+        explicit.udl(0, mass * 9.80665 / 1000.0);
+        let crit2 = Criteria { self_weight: false, ..crit };
+        let slow = Prepared::new(&explicit, steel(), crit2).unwrap()
+            .check(SectionInput { props: &p, mass });
+        prop_assert!((fast.utilisation - slow.utilisation).abs() <= 1e-9 * slow.utilisation,
+            "{} vs {}", fast.utilisation, slow.utilisation);
+        prop_assert_eq!(fast.governing.map(|g| g.kind), slow.governing.map(|g| g.kind));
+    }
+}

@@ -1,0 +1,156 @@
+//! End-to-end: the real binary, run as a user would, in a temporary folder.
+
+use std::path::PathBuf;
+use std::process::{Command, Output};
+
+fn bin() -> Command {
+    Command::new(env!("CARGO_BIN_EXE_beamsift"))
+}
+
+fn repo(p: &str) -> PathBuf {
+    PathBuf::from(env!("CARGO_MANIFEST_DIR")).join(p)
+}
+
+fn run(args: &[&str]) -> Output {
+    bin().args(args).output().expect("binary runs")
+}
+
+fn text(o: &Output) -> (String, String) {
+    (
+        String::from_utf8_lossy(&o.stdout).into_owned(),
+        String::from_utf8_lossy(&o.stderr).into_owned(),
+    )
+}
+
+const IPE300: [&str; 6] = [
+    "rolled-i",
+    "d=300mm",
+    "bf=150mm",
+    "tf=10.7mm",
+    "tw=7.1mm",
+    "r=15mm",
+];
+
+#[test]
+fn section_table_and_json() {
+    let o = run(&[&["section"], &IPE300[..], &["--density", "7850kg/m3"]].concat());
+    let (out, _) = text(&o);
+    assert!(o.status.success());
+    assert!(out.contains("83.56") && out.contains("10⁶ mm⁴") && out.contains("CAUTION"));
+    let o = run(&[&["section"], &IPE300[..], &["--json", "--units", "us"]].concat());
+    let v: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();
+    assert!((v["properties"]["ix"].as_f64().unwrap() - 83.56e6).abs() < 0.01e6);
+    let o = run(&["section", "rect", "b=100", "d=200mm"]);
+    let (_, err) = text(&o);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(err.contains("has no unit") && err.contains("b"), "{err}");
+}
+
+#[test]
+fn check_exit_codes_follow_the_verdict() {
+    let job = repo("catalogs/demo-job.toml");
+    let job = job.to_str().unwrap();
+    // A deep section passes, a shallow one fails.
+    let ok = run(&[
+        "check", "--job", job, "welded-i", "bf=180mm", "tf=14mm", "hw=420mm", "tw=8mm",
+    ]);
+    let (out, err) = text(&ok);
+    assert_eq!(ok.status.code(), Some(0), "{out}{err}");
+    assert!(out.contains("PASSES"));
+    let bad = run(&[&["check", "--job", job], &IPE300[..]].concat());
+    assert_eq!(bad.status.code(), Some(1));
+    assert!(text(&bad).0.contains("FAILS"));
+    // JSON for scripts.
+    let o = run(&[&["check", "--job", job, "--json"], &IPE300[..]].concat());
+    let v: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();
+    assert_eq!(v["passes"], false);
+    assert!(v["utilisation"].as_f64().unwrap() > 1.0);
+    // Flags for a simple span; bad input is exit 2.
+    let o = run(&[
+        "check",
+        "--span",
+        "4.8m",
+        "--dead",
+        "0.9kN/m",
+        "--live",
+        "1.8kN/m",
+        "--E",
+        "11GPa",
+        "--Fb",
+        "10MPa",
+        "--density",
+        "460kg/m3",
+        "rect",
+        "b=75mm",
+        "d=300mm",
+    ]);
+    assert_eq!(o.status.code(), Some(0), "{}", text(&o).0);
+    let o = run(&[
+        "check", "--span", "4.8m", "--dead", "0.9", "--E", "11GPa", "--Fb", "10MPa", "rect",
+        "b=75mm", "d=300mm",
+    ]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(text(&o).1.contains("--dead"));
+    let o = run(&[
+        "check",
+        "--job",
+        "/nonexistent/job.toml",
+        "rect",
+        "b=75mm",
+        "d=300mm",
+    ]);
+    assert_eq!(o.status.code(), Some(3));
+}
+
+#[test]
+fn analyse_prints_reactions_and_extremes() {
+    let o = run(&[
+        "analyse",
+        "--span",
+        "4m,4m",
+        "--dead",
+        "2kN/m",
+        "--live",
+        "3kN/m",
+        "--E",
+        "200GPa",
+        "--Fb",
+        "165MPa",
+        "--Ix",
+        "8356cm4",
+        "--stations",
+        "--format",
+        "csv",
+    ]);
+    let (out, err) = text(&o);
+    assert!(o.status.success(), "{err}");
+    // Two equal spans, full load 5 kN/m: centre reaction 10wL/8 = 25 kN
+    // (AISC Manual Table 3-23 case 29, from memory).
+    assert!(out.contains("D+L,pinned,4 m,10,25"), "{out}");
+    let o = run(&[
+        "analyse",
+        "--job",
+        repo("catalogs/demo-job.toml").to_str().unwrap(),
+        "--json",
+    ]);
+    let v: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();
+    assert!(v["extremes"].as_array().unwrap().len() >= 4);
+}
+
+#[test]
+fn output_file_is_written_whole() {
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("props.json");
+    let o = run(&[
+        &["section"],
+        &IPE300[..],
+        &["--json", "-o", path.to_str().unwrap()],
+    ]
+    .concat());
+    assert!(o.status.success());
+    let v: serde_json::Value =
+        serde_json::from_str(&std::fs::read_to_string(&path).unwrap()).unwrap();
+    assert!(v["properties"]["area"].as_f64().unwrap() > 5000.0);
+    let leftovers: Vec<_> = std::fs::read_dir(dir.path()).unwrap().collect();
+    assert_eq!(leftovers.len(), 1, "no temporary file left behind");
+}

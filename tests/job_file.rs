@@ -1,0 +1,104 @@
+//! Job files: the demo parses and means what it says; errors carry the
+//! file, line and column of the offending value.
+
+use beamsift::beam::model::{ComboKind, LoadKind, Support};
+use beamsift::check::Bracing;
+use beamsift::job::from_toml;
+
+const DEMO: &str = include_str!("../catalogs/demo-job.toml");
+
+#[test]
+fn demo_job_reads_as_written() {
+    let job = from_toml(DEMO, "demo-job.toml").unwrap();
+    let b = &job.beam;
+    assert_eq!(b.spans, vec![6000.0, 1200.0]);
+    assert_eq!(
+        b.supports,
+        vec![Support::Pinned, Support::Pinned, Support::Free]
+    );
+    // 1.4 kPa × 3.0 m = 4.2 kN/m = 4.2 N/mm.
+    match b.loads[0].kind {
+        LoadKind::Distributed { w1, x1, x2, .. } => {
+            assert!((w1 - 4.2).abs() < 1e-12);
+            assert_eq!((x1, x2), (0.0, 7200.0));
+        }
+        _ => panic!("area load should become a line load"),
+    }
+    assert_eq!(job.material.e, 200_000.0);
+    assert_eq!(job.criteria.bracing, Bracing::Spacing(2000.0));
+    // ASCE 7-16 §2.4.1 with only D and L present: D and D+L (from memory).
+    let strength: Vec<_> = b
+        .combinations
+        .iter()
+        .filter(|c| c.kind == ComboKind::Strength)
+        .map(|c| c.name.as_str())
+        .collect();
+    assert_eq!(strength, vec!["D", "D+L"]);
+    // IBC Table 1604.3 floor members: L/360 live, L/240 total (from memory).
+    let limits: Vec<f64> = b
+        .combinations
+        .iter()
+        .filter_map(|c| c.limit.and_then(|l| l.ratio))
+        .collect();
+    assert_eq!(limits, vec![360.0, 240.0]);
+    assert_eq!(b.self_weight_case, Some(0));
+}
+
+fn err(text: &str) -> String {
+    from_toml(text, "job.toml").unwrap_err().to_string()
+}
+
+const BASE: &str = r#"
+[beam]
+spans = ["5 m"]
+supports = ["pinned", "pinned"]
+[material]
+E = "200 GPa"
+Fb = "165 MPa"
+[[case]]
+name = "D"
+category = "dead"
+[[combination]]
+name = "D"
+factors = { D = 1.0 }
+"#;
+
+#[test]
+fn errors_name_file_line_and_column() {
+    assert!(from_toml(BASE, "job.toml").is_ok());
+    let e = err(&BASE.replace("\"5 m\"", "\"5\""));
+    assert!(e.starts_with("job.toml:3:"), "{e}");
+    assert!(e.contains("no unit"), "{e}");
+    let e = err(&format!(
+        "{BASE}[[load]]\ncase = \"X\"\nuniform = \"1 kN/m\"\n"
+    ));
+    assert!(
+        e.contains("job.toml:15:8") && e.contains("unknown load case 'X'"),
+        "{e}"
+    );
+    let e = err(&format!(
+        "{BASE}[[load]]\ncase = \"D\"\npoint = \"1 kN\"\nat = \"7 m\"\n"
+    ));
+    assert!(
+        e.contains("job.toml:15") && e.contains("not on the beam"),
+        "{e}"
+    );
+    let e = err(&BASE.replace("factors = { D = 1.0 }", "factors = { Q = 1.0 }"));
+    assert!(
+        e.contains("unknown load case 'Q'") && e.contains("job.toml:13:11"),
+        "{e}"
+    );
+    let e = err(&BASE.replace("\"pinned\", \"pinned\"", "\"pinned\", \"free\""));
+    assert!(e.contains("mechanism"), "{e}");
+    let e = err(&BASE.replace("Fb = \"165 MPa\"\n", ""));
+    assert!(e.contains("Fb"), "{e}");
+    let e = err(&BASE.replace("[beam]", "[beam]\nspam = 1"));
+    assert!(
+        e.contains("job.toml:3") && e.contains("unknown field"),
+        "{e}"
+    );
+    let e = err("this is not toml = = =");
+    assert!(e.starts_with("job.toml:1:"), "{e}");
+    let e = err(&BASE.replace("\"pinned\", \"pinned\"", "\"pinned\", \"hinge\""));
+    assert!(e.contains("unknown support 'hinge'"), "{e}");
+}
