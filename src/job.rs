@@ -32,6 +32,13 @@ pub struct Job {
     pub beam: Beam,
     pub material: Material,
     pub criteria: Criteria,
+    /// Named material grades a catalogue row may refer to.
+    pub grades: Vec<(String, Material)>,
+    /// Currency of catalogue costs (for display).
+    pub currency: Option<String>,
+    /// Preset names used (strength, service), so a schedule can regenerate
+    /// the combinations for its own cases.
+    pub presets: (Option<String>, Option<String>),
     /// Notes on how the job was interpreted (defaults applied, ...).
     pub notes: Vec<String>,
 }
@@ -50,6 +57,8 @@ struct RawJob {
     combination: Vec<RawCombo>,
     presets: Option<RawPresets>,
     checks: Option<RawChecks>,
+    materials: Option<BTreeMap<String, RawMaterial>>,
+    currency: Option<String>,
 }
 
 #[derive(Deserialize)]
@@ -259,65 +268,22 @@ pub fn from_toml(text: &str, file: &str) -> Result<Job> {
     if let Some(f) = raw.beam.cantilever_factor {
         beam.cantilever_factor = f;
     }
-    // Material.
-    let m = &raw.material;
-    let need = |v: &Option<Spanned<String>>, name: &str, what: &str| -> Result<f64> {
-        match v {
-            Some(v) => src.q(v, Dim::Stress, &format!("material.{name}")),
-            None => Err(Error::input(
-                Location::in_file(file).with_field(format!("material.{name}")),
-                format!("missing {what}: add {name} = \"...\" with a stress unit to [material]"),
-            )),
-        }
-    };
-    let e = need(&m.e, "E", "the modulus of elasticity")?;
-    let fb =
-        m.fb.as_ref()
-            .map(|v| src.q(v, Dim::Stress, "material.Fb"))
-            .transpose()?;
-    let fbt = m
-        .fbt
-        .as_ref()
-        .map(|v| src.q(v, Dim::Stress, "material.Fbt"))
-        .transpose()?;
-    let fbc = m
-        .fbc
-        .as_ref()
-        .map(|v| src.q(v, Dim::Stress, "material.Fbc"))
-        .transpose()?;
-    let (fb_tension, fb_compression) = match (fb, fbt, fbc) {
-        (_, Some(t), Some(c)) => (t, c),
-        (Some(b), t, c) => (t.unwrap_or(b), c.unwrap_or(b)),
-        _ => {
-            return Err(Error::input(
-                Location::in_file(file).with_field("material.Fb"),
-                "missing the allowable bending stress: add Fb = \"...\" (or both Fbt and Fbc) to [material]",
-            ));
-        }
-    };
-    let material = Material {
-        name: m.name.clone().unwrap_or_else(|| "material".into()),
-        e,
-        fb_tension,
-        fb_compression,
-        fv: m
-            .fv
-            .as_ref()
-            .map(|v| src.q(v, Dim::Stress, "material.Fv"))
-            .transpose()?,
-        fy: m
-            .fy
-            .as_ref()
-            .map(|v| src.q(v, Dim::Stress, "material.Fy"))
-            .transpose()?,
-        density: match &m.density {
-            Some(v) => src.q(v, Dim::Density, "material.density")?,
-            None => {
-                notes.push("no density given: the section's self-weight is not included unless a catalogue row gives its mass".into());
-                0.0
+    // Material and grades.
+    let material = parse_material(&src, &raw.material, "material", &mut notes)?;
+    let mut grades = Vec::new();
+    if let Some(ms) = &raw.materials {
+        for (name, m) in ms {
+            let mut sink = Vec::new();
+            let mut mat = parse_material(&src, m, &format!("materials.{name}"), &mut sink)?;
+            if m.density.is_none() {
+                mat.density = material.density;
             }
-        },
-    };
+            if mat.name == "material" {
+                mat.name = name.clone();
+            }
+            grades.push((name.clone(), mat));
+        }
+    }
     // Cases.
     let mut sw_case = None;
     for (i, c) in raw.case.iter().enumerate() {
@@ -625,8 +591,73 @@ pub fn from_toml(text: &str, file: &str) -> Result<Job> {
         beam,
         material,
         criteria,
+        grades,
+        currency: raw.currency.clone(),
+        presets: (
+            raw.presets
+                .as_ref()
+                .and_then(|p| p.strength.as_ref().map(|s| s.get_ref().clone())),
+            raw.presets
+                .as_ref()
+                .and_then(|p| p.service.as_ref().map(|s| s.get_ref().clone())),
+        ),
         notes,
     })
+}
+
+fn parse_material(
+    src: &Source<'_>,
+    m: &RawMaterial,
+    table: &str,
+    notes: &mut Vec<String>,
+) -> Result<Material> {
+    let file = src.file;
+    let need = |v: &Option<Spanned<String>>, name: &str, what: &str| -> Result<f64> {
+        match v {
+            Some(v) => src.q(v, Dim::Stress, &format!("{table}.{name}")),
+            None => Err(Error::input(
+                Location::in_file(file).with_field(format!("{table}.{name}")),
+                format!("missing {what}: add {name} = \"...\" with a stress unit to [{table}]"),
+            )),
+        }
+    };
+    let opt = |v: &Option<Spanned<String>>, name: &str| -> Result<Option<f64>> {
+        v.as_ref()
+            .map(|v| src.q(v, Dim::Stress, &format!("{table}.{name}")))
+            .transpose()
+    };
+    let e = need(&m.e, "E", "the modulus of elasticity")?;
+    let (fb, fbt, fbc) = (opt(&m.fb, "Fb")?, opt(&m.fbt, "Fbt")?, opt(&m.fbc, "Fbc")?);
+    let (fb_tension, fb_compression) = match (fb, fbt, fbc) {
+        (_, Some(t), Some(c)) => (t, c),
+        (Some(b), t, c) => (t.unwrap_or(b), c.unwrap_or(b)),
+        _ => {
+            return Err(Error::input(
+                Location::in_file(file).with_field(format!("{table}.Fb")),
+                format!(
+                    "missing the allowable bending stress: add Fb = \"...\" (or both Fbt and Fbc) to [{table}]"
+                ),
+            ));
+        }
+    };
+    let density = match &m.density {
+        Some(v) => src.q(v, Dim::Density, &format!("{table}.density"))?,
+        None => {
+            notes.push("no density given: the section's self-weight is not included unless a catalogue row gives its mass".into());
+            0.0
+        }
+    };
+    let mat = Material {
+        name: m.name.clone().unwrap_or_else(|| "material".into()),
+        e,
+        fb_tension,
+        fb_compression,
+        fv: opt(&m.fv, "Fv")?,
+        fy: opt(&m.fy, "Fy")?,
+        density,
+    };
+    mat.validate().map_err(|e| e.at(&Location::in_file(file)))?;
+    Ok(mat)
 }
 
 fn cases_of(cases: &[LoadCase], cat: Category) -> Vec<usize> {
@@ -758,4 +789,72 @@ pub fn service_preset(cases: &[LoadCase], name: &str) -> Result<Vec<Combination>
         )));
     }
     Ok(out)
+}
+
+/// Combinations for a beam built from flags or a schedule row: the named
+/// presets if given; otherwise D and D + every variable case (strength),
+/// the variable cases alone at L/`n_live` and the total at L/`n_total`
+/// (serviceability; L/360 and L/240 for floors by common practice).
+pub fn standard_combinations(
+    beam: &mut Beam,
+    strength: Option<&str>,
+    service: Option<&str>,
+    n_live: f64,
+    n_total: f64,
+) -> Result<()> {
+    let dead = cases_of(&beam.cases, Category::Dead);
+    let variable: Vec<usize> = (0..beam.cases.len())
+        .filter(|&i| beam.cases[i].category != Category::Dead)
+        .collect();
+    match strength {
+        Some(p) => {
+            let c = strength_preset(&beam.cases, p)?;
+            beam.combinations.extend(c);
+        }
+        None => {
+            let d: Vec<(usize, f64)> = dead.iter().map(|&i| (i, 1.0)).collect();
+            beam.combo("D", ComboKind::Strength, &d);
+            if !variable.is_empty() {
+                let mut f = d.clone();
+                f.extend(variable.iter().map(|&v| (v, 1.0)));
+                let name = std::iter::once("D".to_string())
+                    .chain(variable.iter().map(|&v| beam.cases[v].name.clone()))
+                    .collect::<Vec<_>>()
+                    .join("+");
+                beam.combo(&name, ComboKind::Strength, &f);
+            }
+        }
+    }
+    match service {
+        Some(p) => {
+            let c = service_preset(&beam.cases, p)?;
+            beam.combinations.extend(c);
+        }
+        None => {
+            if !variable.is_empty() {
+                let names: Vec<String> = variable
+                    .iter()
+                    .map(|&v| beam.cases[v].name.clone())
+                    .collect();
+                beam.service(
+                    &names.join("+"),
+                    &variable.iter().map(|&v| (v, 1.0)).collect::<Vec<_>>(),
+                    DeflectionLimit {
+                        ratio: Some(n_live),
+                        absolute: None,
+                    },
+                );
+            }
+            let all: Vec<(usize, f64)> = (0..beam.cases.len()).map(|i| (i, 1.0)).collect();
+            beam.service(
+                "total",
+                &all,
+                DeflectionLimit {
+                    ratio: Some(n_total),
+                    absolute: None,
+                },
+            );
+        }
+    }
+    Ok(())
 }

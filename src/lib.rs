@@ -6,10 +6,12 @@
 #![forbid(unsafe_code)]
 
 pub mod beam;
+pub mod catalog;
 pub mod check;
 pub mod error;
 pub mod job;
 pub mod report;
+pub mod search;
 pub mod section;
 pub mod units;
 

@@ -549,6 +549,15 @@ impl Show {
         fmt_num(self.value(internal, sys))
     }
 
+    /// Number with a fixed count of decimals (for table columns).
+    pub fn fixed(self, internal: f64, sys: System, decimals: usize) -> String {
+        let v = self.value(internal, sys);
+        if v.abs() >= 1000.0 {
+            return fmt_num(v);
+        }
+        format!("{v:.decimals$}")
+    }
+
     /// Number and unit, e.g. `"12.5 kN·m"`.
     pub fn fmt(self, internal: f64, sys: System) -> String {
         format!("{} {}", self.num(internal, sys), self.label(sys))

@@ -54,7 +54,7 @@ fn rectangle_simple_span_by_hand() {
     let prep = Prepared::new(&beam, mat, Criteria::default()).unwrap();
     let p = Shape::Rect { b, d }.properties().unwrap();
     let mass = p.mass_per_length(460.0);
-    let items = prep.check_all(SectionInput { props: &p, mass });
+    let items = prep.check_all(SectionInput::new(&p, mass));
     let sw = 460.0 * 9.80665 * (b * d) * 1e-9; // N/mm: ρ·g·A
     let w = wd + wl + sw;
     let m = w * l * l / 8.0;
@@ -153,10 +153,7 @@ fn lateral_torsional_check_uses_the_moment_diagram() {
     }
     .properties()
     .unwrap();
-    let items = prep.check_all(SectionInput {
-        props: &p,
-        mass: 0.0,
-    });
+    let items = prep.check_all(SectionInput::new(&p, 0.0));
     let ltb = items
         .iter()
         .find(|i| i.kind == CheckKind::LateralTorsional)
@@ -167,10 +164,7 @@ fn lateral_torsional_check_uses_the_moment_diagram() {
     assert!((ltb.demand - 20.0 * l * l / 8.0).abs() < 1e-6 * ltb.demand);
     // Without bracing information the check is absent and reported.
     let prep = Prepared::new(&beam, steel(), Criteria::default()).unwrap();
-    let items = prep.check_all(SectionInput {
-        props: &p,
-        mass: 0.0,
-    });
+    let items = prep.check_all(SectionInput::new(&p, 0.0));
     assert!(!items.iter().any(|i| i.kind == CheckKind::LateralTorsional));
     assert!(
         prep.not_checked(&p)
@@ -299,12 +293,12 @@ proptest! {
         let mass = p.mass_per_length(7850.0);
         let crit = Criteria { bracing: Bracing::Supports, ..Criteria::default() };
         let fast = Prepared::new(&beam, steel(), crit.clone()).unwrap()
-            .check(SectionInput { props: &p, mass });
+            .check(SectionInput::new(&p, mass));
         let mut explicit = beam.clone();
         explicit.udl(0, mass * 9.80665 / 1000.0);
         let crit2 = Criteria { self_weight: false, ..crit };
         let slow = Prepared::new(&explicit, steel(), crit2).unwrap()
-            .check(SectionInput { props: &p, mass });
+            .check(SectionInput::new(&p, mass));
         prop_assert!((fast.utilisation - slow.utilisation).abs() <= 1e-9 * slow.utilisation,
             "{} vs {}", fast.utilisation, slow.utilisation);
         prop_assert_eq!(fast.governing.map(|g| g.kind), slow.governing.map(|g| g.kind));

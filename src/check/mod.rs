@@ -190,6 +190,22 @@ pub struct SectionInput<'a> {
     pub props: &'a Properties,
     /// Mass per length, kg/m (for self-weight).
     pub mass: f64,
+    /// The section's own material (a catalogue row's grade); None = the job's.
+    pub material: Option<&'a Material>,
+}
+
+impl<'a> SectionInput<'a> {
+    pub fn new(props: &'a Properties, mass: f64) -> Self {
+        SectionInput {
+            props,
+            mass,
+            material: None,
+        }
+    }
+    pub fn with_material(mut self, m: &'a Material) -> Self {
+        self.material = Some(m);
+        self
+    }
 }
 
 /// An unbraced segment for lateral-torsional buckling.
@@ -328,7 +344,7 @@ impl Prepared {
     /// Visit every check line of a section (no allocation).
     pub fn visit<F: FnMut(Item)>(&self, sec: SectionInput<'_>, mut f: F) {
         let p = sec.props;
-        let m = &self.material;
+        let m = sec.material.unwrap_or(&self.material);
         let w = self.self_weight(sec.mass);
         let d = &self.demand;
         let ne = d.len.len();

@@ -1,7 +1,7 @@
 //! The job, from a TOML file or from flags for the common single- and
 //! multi-span cases.
 
-use beamsift::beam::model::{Beam, Category, Combination, ComboKind, DeflectionLimit, LoadKind};
+use beamsift::beam::model::{Beam, Category, LoadKind};
 use beamsift::check::{Criteria, Material};
 use beamsift::error::{Error, Result};
 use beamsift::job::{self, Job};
@@ -162,7 +162,6 @@ impl JobArgs {
         for t in &self.dead_point {
             point(&mut beam, d, t, "--dead-point")?;
         }
-        let mut variable = Vec::new();
         if self.live.is_some() || !self.live_point.is_empty() {
             let l = beam.case("L", Category::Live);
             if let Some(t) = &self.live {
@@ -171,60 +170,20 @@ impl JobArgs {
             for t in &self.live_point {
                 point(&mut beam, l, t, "--live-point")?;
             }
-            variable.push(l);
         }
         if let Some(t) = &self.snow {
             let s = beam.case("S", Category::Snow);
             uniform(&mut beam, s, t, "--snow")?;
-            variable.push(s);
         }
         for (i, l) in beam.loads.iter_mut().enumerate() {
             l.label = format!("load {}", i + 1);
         }
-        // Combinations.
-        if let Some(p) = &self.preset {
-            let c = flag(job::strength_preset(&beam.cases, p), "--preset")?;
-            beam.combinations.extend(c);
-        } else {
-            beam.combo("D", ComboKind::Strength, &[(d, 1.0)]);
-            if !variable.is_empty() {
-                let mut f = vec![(d, 1.0)];
-                f.extend(variable.iter().map(|&v| (v, 1.0)));
-                let name = std::iter::once("D".to_string())
-                    .chain(variable.iter().map(|&v| beam.cases[v].name.clone()))
-                    .collect::<Vec<_>>()
-                    .join("+");
-                beam.combo(&name, ComboKind::Strength, &f);
-            }
-        }
         let n_live = flag(job::parse_ratio(&self.limit_live), "--limit-live")?;
         let n_total = flag(job::parse_ratio(&self.limit_total), "--limit-total")?;
-        if !variable.is_empty() {
-            let names: Vec<String> = variable
-                .iter()
-                .map(|&v| beam.cases[v].name.clone())
-                .collect();
-            beam.combinations.push(Combination {
-                name: names.join("+"),
-                kind: ComboKind::Service,
-                factors: variable.iter().map(|&v| (v, 1.0)).collect(),
-                limit: Some(DeflectionLimit {
-                    ratio: Some(n_live),
-                    absolute: None,
-                }),
-            });
-        }
-        let mut total = vec![(d, 1.0)];
-        total.extend(variable.iter().map(|&v| (v, 1.0)));
-        beam.combinations.push(Combination {
-            name: "total".into(),
-            kind: ComboKind::Service,
-            factors: total,
-            limit: Some(DeflectionLimit {
-                ratio: Some(n_total),
-                absolute: None,
-            }),
-        });
+        flag(
+            job::standard_combinations(&mut beam, self.preset.as_deref(), None, n_live, n_total),
+            "--preset",
+        )?;
         let stress = |v: &Option<String>, name: &str| -> Result<Option<f64>> {
             v.as_deref()
                 .map(|t| flag(units::parse(t, Dim::Stress), name))
@@ -266,6 +225,9 @@ impl JobArgs {
             beam,
             material,
             criteria,
+            grades: Vec::new(),
+            currency: None,
+            presets: (self.preset.clone(), None),
             notes,
         })
     }

@@ -2,10 +2,15 @@
 //! turned into typed inputs for the library before any work starts.
 
 mod analyse;
+mod batch;
+mod catalog;
+mod catargs;
 mod check;
 mod jobargs;
 mod output;
+mod progress;
 mod section;
+mod select;
 
 use beamsift::Error;
 use beamsift::report::Format;
@@ -47,6 +52,18 @@ pub enum Command {
     /// Analyse a beam: reactions, moment, shear and deflection extremes.
     #[command(after_help = analyse::EXAMPLES)]
     Analyse(analyse::Args),
+    /// Scan catalogues and rank the sections that pass (lightest first by default).
+    #[command(after_help = select::EXAMPLES)]
+    Select(select::Args),
+    /// A priced shortlist: the cheapest and the lightest passing sections with quantities.
+    #[command(after_help = select::SHORTLIST_EXAMPLES)]
+    Shortlist(select::ShortlistArgs),
+    /// Size a whole member schedule into a bill of quantities.
+    #[command(after_help = batch::EXAMPLES)]
+    Batch(batch::Args),
+    /// Validate or list a catalogue file.
+    #[command(subcommand)]
+    Catalog(catalog::Cmd),
 }
 
 /// Run and map the outcome to an exit code.
@@ -77,6 +94,10 @@ fn run(cli: Cli) -> beamsift::Result<i32> {
         Command::Section(a) => section::run(a, &out),
         Command::Check(a) => check::run(a, &out),
         Command::Analyse(a) => analyse::run(a, &out),
+        Command::Select(a) => select::run(a, &out),
+        Command::Shortlist(a) => select::run_shortlist(a, &out),
+        Command::Batch(a) => batch::run(a, &out),
+        Command::Catalog(c) => catalog::run(c, &out),
     }
 }
 

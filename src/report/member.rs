@@ -89,7 +89,7 @@ pub fn member_check(
     props: &Properties,
     mass: f64,
 ) -> MemberCheck {
-    let sec = SectionInput { props, mass };
+    let sec = SectionInput::new(props, mass);
     let items = prep.check_all(sec);
     let lines: Vec<Line> = items.iter().map(|it| line(prep, it)).collect();
     let summary = prep.check(sec);
@@ -388,5 +388,5 @@ Utilisation = demand / capacity; a section passes when every utilisation is at m
 
 /// Convenience: the kinds of section value a reader may want.
 pub fn section_input(props: &Properties, mass: f64) -> SectionInput<'_> {
-    SectionInput { props, mass }
+    SectionInput::new(props, mass)
 }

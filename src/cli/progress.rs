@@ -1,0 +1,20 @@
+//! The one progress-bar factory: a bar on stderr for long scans, hidden
+//! when stderr is not a terminal or with --quiet. Updated per chunk.
+
+use indicatif::{ProgressBar, ProgressDrawTarget, ProgressStyle};
+use std::io::IsTerminal;
+
+pub fn bytes_bar(total: u64, quiet: bool) -> ProgressBar {
+    // Small jobs finish before a bar would be noticed.
+    if quiet || !std::io::stderr().is_terminal() || total < 4 << 20 {
+        return ProgressBar::with_draw_target(Some(total), ProgressDrawTarget::hidden());
+    }
+    let pb = ProgressBar::new(total);
+    pb.set_style(
+        ProgressStyle::with_template(
+            "{spinner} checking sections {bar:40} {bytes}/{total_bytes} ({eta} left) {msg}",
+        )
+        .unwrap_or_else(|_| ProgressStyle::default_bar()),
+    );
+    pb
+}

@@ -1,0 +1,454 @@
+//! Catalogue scans against an independent brute force, a hand-worked
+//! selection, header units, schedules and rationalisation.
+
+use beamsift::beam::*;
+use beamsift::catalog::Materials;
+use beamsift::catalog::read::{self, ReadOptions};
+use beamsift::check::*;
+use beamsift::search::batch;
+use beamsift::search::rationalise::rationalise;
+use beamsift::search::{self, Filters, Rank, ScanOptions};
+use proptest::prelude::*;
+
+fn timber() -> Material {
+    Material {
+        name: "timber".into(),
+        e: 10_000.0,
+        fb_tension: 10.0,
+        fb_compression: 10.0,
+        fv: Some(1.0),
+        fy: None,
+        density: 450.0,
+    }
+}
+
+fn simple_job(l: f64, wd: f64, wl: f64) -> Beam {
+    let mut b = Beam::new(vec![l], vec![Support::Pinned, Support::Roller]);
+    let d = b.case("D", Category::Dead);
+    let lv = b.case("L", Category::Live);
+    b.self_weight_case = Some(d);
+    b.udl(d, wd).udl(lv, wl);
+    b.combo("D+L", ComboKind::Strength, &[(d, 1.0), (lv, 1.0)]);
+    b.service(
+        "L",
+        &[(lv, 1.0)],
+        DeflectionLimit {
+            ratio: Some(360.0),
+            absolute: None,
+        },
+    );
+    b.service(
+        "D+L",
+        &[(d, 1.0), (lv, 1.0)],
+        DeflectionLimit {
+            ratio: Some(240.0),
+            absolute: None,
+        },
+    );
+    b
+}
+
+fn scan_text(
+    csv: &str,
+    beam: &Beam,
+    mat: &Material,
+    opts: &ScanOptions,
+) -> beamsift::Result<search::Selection> {
+    let prep = Prepared::new(beam, mat.clone(), Criteria::default())?;
+    let cat = read::open(csv.as_bytes(), "test.csv", &ReadOptions::default())?;
+    let mats = Materials {
+        base: mat,
+        grades: &[],
+    };
+    search::scan(&prep, vec![cat], &mats, opts, &|_, _| {})
+}
+
+/// Worked example by hand (standard formulas, simple span, uniform load):
+/// L = 4.0 m, D = 0.8 kN/m, L = 2.0 kN/m, Fb = 10 MPa, E = 10 GPa, L/360
+/// live, L/240 total, self-weight ρ = 450 kg/m³.
+///   Strength: M = wL²/8 with w = 2.8 + sw → S_req = M/Fb.
+///   For 50 × 200: sw = 450·9.80665·0.01/1000 = 0.0441 N/mm, M = 2.8441·4000²/8
+///   = 5.688 kN·m, S = 50·200²/6 = 333.3·10³ mm³ → f = 17.1 MPa > 10: fails.
+///   For 75 × 225: sw = 0.0745, M = 5.749 kN·m, S = 632.8·10³ → f = 9.08 MPa ok;
+///   I = 75·225³/12 = 71.19·10⁶ mm⁴; δ_L = 5·2·4000⁴/(384·10000·71.19e6)
+///   = 9.36 mm ≤ 11.1 (L/360) ok; δ_total = 5·2.8745·4000⁴/(384·E·I) = 13.46 mm
+///   ≤ 16.7 (L/240) ok → passes, 16 875 mm² area.
+///   For 63 × 250: sw = 0.0695, M = 5.739 kN·m, S = 656.3·10³ → 8.74 MPa ok;
+///   I = 82.03·10⁶ → δ_L = 8.13 mm, δ_tot = 11.67 mm ok → passes with
+///   15 750 mm², lighter than 75 × 225. 50 × 250: S = 520.8·10³ → 11.0 MPa
+///   fails. So the lightest is 63 × 250.
+#[test]
+fn hand_worked_selection_picks_the_lightest() {
+    let csv = "name,shape,b [mm],d [mm]\n50x200,rect,50,200\n75x225,rect,75,225\n63x250,rect,63,250\n50x250,rect,50,250\n100x300,rect,100,300\n";
+    let beam = simple_job(4000.0, 0.8, 2.0);
+    let sel = scan_text(csv, &beam, &timber(), &ScanOptions::default()).unwrap();
+    let names: Vec<&str> = sel.lists[0].items.iter().map(|c| c.name.as_str()).collect();
+    assert_eq!(names, vec!["63x250", "75x225", "100x300"]);
+    let best = &sel.lists[0].items[0];
+    // f = M/S = 5.739e6 / 656 250 = 8.745 MPa → utilisation of bending 0.8745;
+    // δ_tot/limit = 11.67/16.67 = 0.700: bending governs.
+    assert!(
+        (best.utilisation - 0.8745).abs() < 5e-4,
+        "{}",
+        best.utilisation
+    );
+    assert_eq!(sel.counts.passing, 3);
+    assert_eq!(sel.counts.failing, 2);
+    // Nearest miss: 50x250 at 11.0/10.
+    assert_eq!(sel.near_misses.items[0].name, "50x250");
+}
+
+/// US customary headers convert exactly: a dressed 2×10 (1.5 × 9.25 in)
+/// given by its NDS Supplement Table 1B properties (from memory):
+/// A = 13.88 in², Sx = 21.39 in³, Ix = 98.93 in⁴; 2.7 lb/ft is A·ρ at
+/// 450 kg/m³ (28 pcf).
+#[test]
+fn header_units_convert() {
+    let csv = "name,A [in2],Ix [in4],S [in3],d [in],mass [lb/ft],E [ksi],Fb [psi],cost [USD/ft]\n2x10,13.88,98.93,21.39,9.25,2.7,1600,1000,2.5\n";
+    let beam = simple_job(3000.0, 0.5, 1.0);
+    let opts = ScanOptions {
+        ranks: vec![(Rank::Mass, 10)],
+        ..ScanOptions::default()
+    };
+    let sel = scan_text(csv, &beam, &timber(), &opts).unwrap();
+    let c = sel.lists[0]
+        .items
+        .first()
+        .or(sel.near_misses.items.first())
+        .unwrap();
+    let p = &c.properties;
+    assert!((p.area - 13.88 * 645.16).abs() < 1e-6);
+    assert!((p.ix - 98.93 * 416_231.425_6).abs() < 1e-3);
+    assert!((p.s_top - 21.39 * 16_387.064).abs() < 1e-6);
+    assert!((p.depth - 9.25 * 25.4).abs() < 1e-9);
+    assert!((c.mass - 2.7 * 1.488_163_94).abs() < 1e-6);
+    assert!((c.cost.unwrap() - 2.5 / 304.8).abs() < 1e-12);
+}
+
+#[test]
+fn demo_catalogues_validate_clean() {
+    let job = beamsift::job::from_toml(include_str!("../catalogs/demo-joists.toml"), "j").unwrap();
+    for (name, text) in [
+        ("demo-steel.csv", include_str!("../catalogs/demo-steel.csv")),
+        (
+            "demo-timber.csv",
+            include_str!("../catalogs/demo-timber.csv"),
+        ),
+        (
+            "ipe-en10365-from-memory.csv",
+            include_str!("../catalogs/ipe-en10365-from-memory.csv"),
+        ),
+    ] {
+        let cat = read::open(text.as_bytes(), name, &ReadOptions::default()).unwrap();
+        let mut base = job.material.clone();
+        base.density = 7850.0;
+        let v = read::validate(cat, &base, &job.grades, true).unwrap();
+        assert!(v.errors.is_empty(), "{name}: {:?}", v.errors);
+        assert!(v.rows > 10);
+    }
+}
+
+/// Given properties and dimensions are cross-checked (2 %).
+#[test]
+fn contradictory_properties_are_reported() {
+    let base = "name,shape,b [mm],d [mm],Ix [mm4]\n";
+    let good = format!(
+        "{base}a,rect,100,200,{}\n",
+        100.0 * 200f64.powi(3) / 12.0 * 1.01
+    );
+    let bad = format!(
+        "{base}a,rect,100,200,{}\n",
+        100.0 * 200f64.powi(3) / 12.0 * 1.05
+    );
+    let beam = simple_job(3000.0, 0.5, 1.0);
+    assert!(scan_text(&good, &beam, &timber(), &ScanOptions::default()).is_ok());
+    let e = scan_text(&bad, &beam, &timber(), &ScanOptions::default())
+        .unwrap_err()
+        .to_string();
+    assert!(
+        e.contains("test.csv:2:5") && e.contains("differs by 5.0 %"),
+        "{e}"
+    );
+}
+
+#[test]
+fn bad_catalogues_are_refused_with_positions() {
+    let beam = simple_job(3000.0, 0.5, 1.0);
+    let cases: &[(&str, &str)] = &[
+        ("", "empty"),
+        ("name,b,d\n", "needs its unit"),
+        ("name,shape,b [furlong],d [mm]\n", "unknown unit"),
+        (
+            "name,shape,b [mm],d [mm],Ixx [cm4]\n",
+            "unknown column 'Ixx'",
+        ),
+        (
+            "name,shape,b [mm],d [mm]\na,rect,100,200\na,rect,100,250\n",
+            "test.csv:3:1: duplicate",
+        ),
+        ("name,shape,b [mm],d [mm]\na,rect,abc,200\n", "test.csv:2:3"),
+        (
+            "name,shape,b [mm],d [mm]\na,rect,-5,200\n",
+            "greater than zero",
+        ),
+        (
+            "name,shape,b [mm],d [mm]\na,rect,100\n",
+            "fields but the header has 4",
+        ),
+        ("name;shape;b [mm];d [mm]\na;rect;100;200\n", "--delimiter"),
+        (
+            "name,shape,b [mm],d [mm]\na,hexagon,100,200\n",
+            "unknown shape",
+        ),
+        ("name,shape,b [mm],d [mm]\n", "no rows"),
+    ];
+    for (csv, want) in cases {
+        let r = scan_text(csv, &beam, &timber(), &ScanOptions::default());
+        let msg = match r {
+            Err(e) => e.to_string(),
+            Ok(sel) if sel.counts.rows == 0 => {
+                // An empty body is reported by validate.
+                let cat = read::open(csv.as_bytes(), "test.csv", &ReadOptions::default()).unwrap();
+                let v = read::validate(cat, &timber(), &[], true).unwrap();
+                v.errors
+                    .iter()
+                    .map(|e| e.to_string())
+                    .collect::<Vec<_>>()
+                    .join("; ")
+            }
+            Ok(_) => String::new(),
+        };
+        assert!(msg.contains(want), "{csv:?}: expected '{want}' in '{msg}'");
+    }
+    // --skip-bad-rows keeps the good rows and counts the bad.
+    let csv = "name,shape,b [mm],d [mm]\na,rect,abc,200\nb,rect,100,300\n";
+    let opts = ScanOptions {
+        skip_bad_rows: true,
+        ..ScanOptions::default()
+    };
+    let sel = scan_text(csv, &beam, &timber(), &opts).unwrap();
+    assert_eq!(sel.counts.bad, 1);
+    assert_eq!(sel.counts.checked, 1);
+    // A UTF-8 BOM and comment lines are fine.
+    let csv = "\u{feff}name,shape,b [mm],d [mm]\n# a comment\nb,rect,100,300\n";
+    assert_eq!(
+        scan_text(csv, &beam, &timber(), &ScanOptions::default())
+            .unwrap()
+            .counts
+            .checked,
+        1
+    );
+}
+
+fn random_catalog(seed: u64, n: usize) -> String {
+    let mut rng = seed | 1;
+    let mut next = move || {
+        rng ^= rng << 13;
+        rng ^= rng >> 7;
+        rng ^= rng << 17;
+        (rng % 1_000_000) as f64 / 1_000_000.0
+    };
+    let mut s = String::from("name,shape,b [mm],d [mm],cost [EUR/m],stock\n");
+    for i in 0..n {
+        let b = 30.0 + (next() * 20.0).round() * 5.0;
+        let d = 100.0 + (next() * 40.0).round() * 10.0;
+        s.push_str(&format!(
+            "R{i:04},rect,{b},{d},{:.2},{}\n",
+            next() * 20.0,
+            if next() < 0.7 { "yes" } else { "no" }
+        ));
+    }
+    s
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(24))]
+
+    /// The scan returns exactly the sections an independent brute force
+    /// passes (checked one by one with the plain formulas of a simple span:
+    /// M = wL²/8, V = wL/2, δ = 5wL⁴/(384EI)), in mass order, with
+    /// filters applied.
+    #[test]
+    fn select_equals_brute_force(seed in any::<u64>(), l in 2000.0..6000.0f64, wd in 0.2..2.0f64, wl in 0.5..4.0f64, maxd in 200.0..600.0f64) {
+        let csv = random_catalog(seed, 150);
+        let beam = simple_job(l, wd, wl);
+        let mat = timber();
+        let filters = Filters { max_depth: Some(maxd), in_stock_only: true, ..Filters::default() };
+        let opts = ScanOptions { ranks: vec![(Rank::Mass, usize::MAX)], filters, ..ScanOptions::default() };
+        let sel = scan_text(&csv, &beam, &mat, &opts).unwrap();
+        let got: Vec<String> = sel.lists[0].items.iter().map(|c| c.name.clone()).collect();
+        // Brute force.
+        let mut want: Vec<(f64, f64, String)> = Vec::new();
+        for line in csv.lines().skip(1) {
+            let f: Vec<&str> = line.split(',').collect();
+            let (b, d): (f64, f64) = (f[2].parse().unwrap(), f[3].parse().unwrap());
+            if d > maxd || f[5] != "yes" { continue; }
+            let sw = 450.0 * 9.80665 * b * d * 1e-9;
+            let w = wd + wl + sw;
+            let s = b * d * d / 6.0;
+            let i = b * d.powi(3) / 12.0;
+            let ok_m = w * l * l / 8.0 / s <= 10.0;
+            let ok_v = 1.5 * (w * l / 2.0) / (b * d) <= 1.0;
+            let ok_l = 5.0 * wl * l.powi(4) / (384.0 * 10_000.0 * i) <= l / 360.0;
+            let ok_t = 5.0 * w * l.powi(4) / (384.0 * 10_000.0 * i) <= l / 240.0;
+            if ok_m && ok_v && ok_l && ok_t {
+                want.push((450.0 * b * d * 1e-6, d, f[0].to_string()));
+            }
+        }
+        want.sort_by(|a, b| a.0.total_cmp(&b.0).then(a.1.total_cmp(&b.1)).then(a.2.cmp(&b.2)));
+        let want: Vec<String> = want.into_iter().map(|w| w.2).collect();
+        prop_assert_eq!(got, want);
+    }
+
+    /// Results do not depend on the number of threads or the chunk size.
+    #[test]
+    fn identical_across_thread_counts(seed in any::<u64>()) {
+        let csv = random_catalog(seed, 400);
+        let beam = simple_job(4000.0, 0.8, 2.0);
+        let run = |threads: usize, chunk: usize| {
+            let pool = rayon::ThreadPoolBuilder::new().num_threads(threads).build().unwrap();
+            let opts = ScanOptions { ranks: vec![(Rank::Cost, 25), (Rank::Mass, 25)], chunk, ..ScanOptions::default() };
+            pool.install(|| {
+                let sel = scan_text(&csv, &beam, &timber(), &opts).unwrap();
+                serde_json::to_string(&sel).unwrap()
+            })
+        };
+        let one = run(1, 8192);
+        prop_assert_eq!(&one, &run(4, 8192));
+        prop_assert_eq!(&one, &run(3, 7));
+    }
+}
+
+/// Rationalisation: with k = number of members it equals every member's
+/// own best; with k = 1 it is the lightest single section passing all;
+/// on small random instances it equals exhaustive enumeration.
+#[test]
+fn rationalisation_limits_and_exhaustive() {
+    let mut rng = 12345u64;
+    let mut next = move || {
+        rng ^= rng << 13;
+        rng ^= rng >> 7;
+        rng ^= rng << 17;
+        (rng % 1000) as f64 / 1000.0
+    };
+    for _ in 0..60 {
+        let n = 2 + (next() * 5.0) as usize;
+        let m = 3 + (next() * 8.0) as usize;
+        let q: Vec<f64> = (0..n).map(|_| 1.0 + 9.0 * next()).collect();
+        let u: Vec<f64> = (0..m).map(|_| 1.0 + 99.0 * next()).collect();
+        let mut passing: Vec<Vec<usize>> = (0..n)
+            .map(|_| (0..m).filter(|_| next() < 0.5).collect())
+            .collect();
+        let heaviest = (0..m).max_by(|&a, &b| u[a].total_cmp(&u[b])).unwrap();
+        for p in passing.iter_mut() {
+            if !p.contains(&heaviest) {
+                p.push(heaviest);
+            }
+        }
+        let own: f64 = (0..n)
+            .map(|i| {
+                passing[i]
+                    .iter()
+                    .map(|&j| q[i] * u[j])
+                    .fold(f64::INFINITY, f64::min)
+            })
+            .sum();
+        let all = rationalise(&q, &u, &passing, n, 1_000_000).unwrap();
+        assert!(all.exact && (all.total - own).abs() < 1e-9 * own);
+        // Exhaustive over every subset of size ≤ k.
+        for k in 1..=3usize {
+            let mut best = f64::INFINITY;
+            for mask in 1u32..(1 << m) {
+                if mask.count_ones() as usize > k {
+                    continue;
+                }
+                let mut tot = 0.0;
+                for i in 0..n {
+                    let c = passing[i]
+                        .iter()
+                        .filter(|&&j| mask & (1 << j) != 0)
+                        .map(|&j| q[i] * u[j])
+                        .fold(f64::INFINITY, f64::min);
+                    tot += c;
+                }
+                best = best.min(tot);
+            }
+            let plan = rationalise(&q, &u, &passing, k, 1_000_000).unwrap();
+            assert!(plan.exact);
+            assert!(
+                (plan.total - best).abs() < 1e-9 * best,
+                "k={k}: {} vs {best}",
+                plan.total
+            );
+            assert!(plan.sections.len() <= k);
+            if k == 1 {
+                // the lightest single section passing every member
+                let single = (0..m)
+                    .filter(|j| passing.iter().all(|p| p.contains(j)))
+                    .min_by(|&a, &b| u[a].total_cmp(&u[b]))
+                    .unwrap();
+                assert!((plan.total - q.iter().sum::<f64>() * u[single]).abs() < 1e-9 * plan.total);
+            }
+        }
+        // A tiny node budget falls back to the heuristic, which is still
+        // feasible and no better than the optimum.
+        let h = rationalise(&q, &u, &passing, 2, 3).unwrap();
+        let exact = rationalise(&q, &u, &passing, 2, 1_000_000).unwrap();
+        assert!(h.total >= exact.total - 1e-9);
+        assert!(h.gap >= 0.0);
+    }
+}
+
+/// Schedule sizing: the bill of quantities adds up to the members.
+#[test]
+fn schedule_bill_adds_up() {
+    let job = beamsift::job::from_toml(include_str!("../catalogs/demo-job.toml"), "demo-job.toml")
+        .unwrap();
+    let members = batch::read_schedule(
+        include_str!("../catalogs/demo-schedule.csv").as_bytes(),
+        "s.csv",
+        &job,
+        360.0,
+        240.0,
+    )
+    .unwrap();
+    let cat = read::open(
+        include_str!("../catalogs/demo-steel.csv").as_bytes(),
+        "c.csv",
+        &ReadOptions::default(),
+    )
+    .unwrap();
+    let mats = Materials {
+        base: &job.material,
+        grades: &job.grades,
+    };
+    let (rows, _, _) = search::load_rows(vec![cat], &mats, false, &Filters::default()).unwrap();
+    let results = batch::size(&members, &rows, &mats, &Filters::default()).unwrap();
+    let choice: Vec<Option<usize>> = results.iter().map(|r| r.chosen).collect();
+    let bill = batch::bill(&results, &choice, &rows);
+    let pieces: u32 = bill.iter().map(|l| l.pieces).sum();
+    assert_eq!(pieces, members.iter().map(|m| m.count).sum::<u32>());
+    let mass: f64 = bill.iter().map(|l| l.total_mass).sum();
+    let by_member: f64 = results
+        .iter()
+        .map(|r| rows[r.chosen.unwrap()].mass * r.length * r.count as f64 / 1000.0)
+        .sum();
+    assert!((mass - by_member).abs() < 1e-9 * mass);
+    // B3 has a 300 mm depth limit.
+    let b3 = results.iter().find(|r| r.mark == "B3").unwrap();
+    assert!(rows[b3.chosen.unwrap()].depth <= 300.0);
+    // k = 1: one section for all, passing every member.
+    let plan = batch::rationalise_schedule(&results, &rows, 1, false).unwrap();
+    assert_eq!(plan.sections.len(), 1);
+    assert!(
+        results
+            .iter()
+            .all(|r| r.passing.contains(&plan.sections[0]))
+    );
+    // Unknown supports in a schedule are named with their line.
+    let bad = "mark,spans [m],supports\nX,4,pinned;hinge\n";
+    let e = batch::read_schedule(bad.as_bytes(), "s.csv", &job, 360.0, 240.0)
+        .unwrap_err()
+        .to_string();
+    assert!(e.contains("s.csv:2:3") && e.contains("hinge"), "{e}");
+}
