@@ -331,6 +331,15 @@ impl Prepared {
         })
     }
 
+    /// The same job with another material (the demand is reused: it does
+    /// not depend on the material).
+    pub fn new_from(prep: &Prepared, material: Material) -> Option<Prepared> {
+        material.validate().ok()?;
+        let mut p = prep.clone();
+        p.material = material;
+        Some(p)
+    }
+
     /// Self-weight intensity (N/mm) of a section of `mass` kg/m.
     #[inline]
     pub fn self_weight(&self, mass: f64) -> f64 {

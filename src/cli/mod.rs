@@ -7,6 +7,7 @@ mod catalog;
 mod catargs;
 mod check;
 mod jobargs;
+mod optimise;
 mod output;
 mod progress;
 mod section;
@@ -61,6 +62,9 @@ pub enum Command {
     /// Size a whole member schedule into a bill of quantities.
     #[command(after_help = batch::EXAMPLES)]
     Batch(batch::Args),
+    /// Proportion a rectangle, welded I, mono-symmetric I or hollow section for least area.
+    #[command(after_help = optimise::EXAMPLES)]
+    Optimise(optimise::Args),
     /// Validate or list a catalogue file.
     #[command(subcommand)]
     Catalog(catalog::Cmd),
@@ -98,6 +102,7 @@ fn run(cli: Cli) -> beamsift::Result<i32> {
         Command::Shortlist(a) => select::run_shortlist(a, &out),
         Command::Batch(a) => batch::run(a, &out),
         Command::Catalog(c) => catalog::run(c, &out),
+        Command::Optimise(a) => optimise::run(a, &out),
     }
 }
 

@@ -224,6 +224,15 @@ impl Composite {
     /// Plastic modulus about the horizontal equal-area axis; returns
     /// (Z, y of the plastic neutral axis).
     pub fn plastic(&self, depth: f64, total_area: f64) -> (f64, f64) {
+        // Sections symmetric about mid-depth (most of them) need no search.
+        let mid = depth / 2.0;
+        let (a_mid, m_mid) = self.below(mid);
+        if (a_mid - total_area / 2.0).abs() <= 1e-13 * total_area {
+            let total_m = self.below(depth).1;
+            let above = (total_m - m_mid) - mid * (total_area - a_mid);
+            let below = mid * a_mid - m_mid;
+            return (above + below, mid);
+        }
         let (mut lo, mut hi) = (0.0, depth);
         for _ in 0..200 {
             let mid = 0.5 * (lo + hi);
