@@ -440,11 +440,19 @@ pub fn from_toml(text: &str, file: &str) -> Result<Job> {
         } else {
             return Err(Error::Internal("load kind".into()));
         };
+        let tributary = match (&l.area, &l.width) {
+            (Some(a), Some(w)) => Some((
+                src.q(a, Dim::AreaLoad, &format!("{field}.area"))?,
+                src.q(w, Dim::Length, &format!("{field}.width"))?,
+            )),
+            _ => None,
+        };
         loads.push((
             Load {
                 case,
                 kind,
                 label: field.clone(),
+                tributary,
             },
             span0,
         ));

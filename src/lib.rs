@@ -14,6 +14,7 @@ pub mod optimise;
 pub mod report;
 pub mod search;
 pub mod section;
+pub mod sweep;
 pub mod units;
 
 pub use error::{Error, Result};

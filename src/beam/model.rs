@@ -122,6 +122,10 @@ pub struct Load {
     /// Where the load came from (for error messages), e.g. "load 3".
     #[serde(skip)]
     pub label: String,
+    /// For a distributed load given as pressure × tributary width: (pressure
+    /// N/mm², width mm), so span tables can vary the spacing.
+    #[serde(default)]
+    pub tributary: Option<(f64, f64)>,
 }
 
 /// Deflection limit of a serviceability combination.
@@ -381,6 +385,63 @@ impl Beam {
 
 /// Builder-style helpers for code and tests.
 impl Beam {
+    /// The same beam with every length (spans, load positions) multiplied
+    /// by `factor`; load intensities are unchanged. Used by span sweeps.
+    pub fn scaled(&self, factor: f64) -> Beam {
+        let mut b = self.clone();
+        for s in b.spans.iter_mut() {
+            *s *= factor;
+        }
+        for l in b.loads.iter_mut() {
+            match &mut l.kind {
+                LoadKind::Distributed { x1, x2, .. } => {
+                    *x1 *= factor;
+                    *x2 *= factor;
+                }
+                LoadKind::Point { x, .. } | LoadKind::Moment { x, .. } => *x *= factor,
+            }
+        }
+        b
+    }
+
+    /// The same beam with every area load's tributary width set to `width`.
+    /// Returns None when the beam has no area loads.
+    pub fn with_spacing(&self, width: f64) -> Option<Beam> {
+        let mut b = self.clone();
+        let mut any = false;
+        for l in b.loads.iter_mut() {
+            if let (Some((p, w)), LoadKind::Distributed { w1, w2, .. }) =
+                (l.tributary.as_mut(), &mut l.kind)
+            {
+                *w = width;
+                *w1 = *p * width;
+                *w2 = *p * width;
+                any = true;
+            }
+        }
+        any.then_some(b)
+    }
+
+    /// The same beam with every live area load's pressure set to `pressure`.
+    pub fn with_live_pressure(&self, pressure: f64) -> Option<Beam> {
+        let mut b = self.clone();
+        let mut any = false;
+        for l in b.loads.iter_mut() {
+            if b.cases[l.case].category != Category::Live {
+                continue;
+            }
+            if let (Some((p, w)), LoadKind::Distributed { w1, w2, .. }) =
+                (l.tributary.as_mut(), &mut l.kind)
+            {
+                *p = pressure;
+                *w1 = pressure * *w;
+                *w2 = pressure * *w;
+                any = true;
+            }
+        }
+        any.then_some(b)
+    }
+
     /// A beam with no loads yet; the cantilever factor is 2 (common practice).
     pub fn new(spans: Vec<f64>, supports: Vec<Support>) -> Beam {
         Beam {
@@ -407,7 +468,12 @@ impl Beam {
 
     pub fn load(&mut self, case: usize, kind: LoadKind) -> &mut Self {
         let label = format!("load {}", self.loads.len() + 1);
-        self.loads.push(Load { case, kind, label });
+        self.loads.push(Load {
+            case,
+            kind,
+            label,
+            tributary: None,
+        });
         self
     }
 

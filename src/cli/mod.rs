@@ -12,6 +12,7 @@ mod output;
 mod progress;
 mod section;
 mod select;
+mod sweep;
 
 use beamsift::Error;
 use beamsift::report::Format;
@@ -65,6 +66,9 @@ pub enum Command {
     /// Proportion a rectangle, welded I, mono-symmetric I or hollow section for least area.
     #[command(after_help = optimise::EXAMPLES)]
     Optimise(optimise::Args),
+    /// Span sweeps: the lightest section per span, and span tables.
+    #[command(subcommand, after_help = sweep::EXAMPLES)]
+    Sweep(sweep::Cmd),
     /// Validate or list a catalogue file.
     #[command(subcommand)]
     Catalog(catalog::Cmd),
@@ -103,6 +107,7 @@ fn run(cli: Cli) -> beamsift::Result<i32> {
         Command::Batch(a) => batch::run(a, &out),
         Command::Catalog(c) => catalog::run(c, &out),
         Command::Optimise(a) => optimise::run(a, &out),
+        Command::Sweep(c) => sweep::run(c, &out),
     }
 }
 

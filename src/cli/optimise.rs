@@ -89,7 +89,7 @@ pub fn parse_list(text: &str, field: &str) -> Result<Vec<f64>> {
         .collect()
 }
 
-fn default_bounds(f: Family) -> Vec<(f64, f64)> {
+pub fn default_bounds_for(f: Family) -> Vec<(f64, f64)> {
     match f {
         Family::Rect => vec![(38.0, 300.0), (75.0, 1200.0)],
         Family::WeldedI => vec![(100.0, 600.0), (6.0, 50.0), (150.0, 2000.0), (5.0, 30.0)],
@@ -329,7 +329,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     let prep = Prepared::new(&job.beam, job.material.clone(), job.criteria.clone())?;
     let fam = a.family;
     let vars = fam.variables();
-    let mut bounds = default_bounds(fam);
+    let mut bounds = default_bounds_for(fam);
     for b in &a.bounds {
         let (name, range) = b.split_once('=').ok_or_else(|| {
             Error::msg(format!(

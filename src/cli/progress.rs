@@ -18,3 +18,17 @@ pub fn bytes_bar(total: u64, quiet: bool) -> ProgressBar {
     );
     pb
 }
+
+pub fn count_bar(total: u64, quiet: bool, what: &str) -> ProgressBar {
+    if quiet || !std::io::stderr().is_terminal() || total < 50 {
+        return ProgressBar::with_draw_target(Some(total), ProgressDrawTarget::hidden());
+    }
+    let pb = ProgressBar::new(total);
+    pb.set_style(
+        ProgressStyle::with_template(&format!(
+            "{{spinner}} {what} {{bar:40}} {{pos}}/{{len}} ({{eta}} left)"
+        ))
+        .unwrap_or_else(|_| ProgressStyle::default_bar()),
+    );
+    pb
+}

@@ -1,0 +1,506 @@
+//! `beamsift sweep lightest` and `beamsift sweep table`.
+
+use super::Out;
+use super::catargs::CatalogArgs;
+use super::jobargs::JobArgs;
+use super::optimise::parse_list;
+use super::output::{emit, write_atomic};
+use beamsift::catalog::Materials;
+use beamsift::check::Prepared;
+use beamsift::error::{Error, Result};
+use beamsift::optimise::{self, Family, Objective, Problem};
+use beamsift::report::{self, Align, Document, Table, chart};
+use beamsift::search::{self, Candidate};
+use beamsift::sweep::{self, Cell, Method, TableOptions};
+use beamsift::units::{self, Dim, Show};
+use serde::Serialize;
+use std::path::PathBuf;
+
+pub const EXAMPLES: &str = "Examples:
+  beamsift sweep lightest --job catalogs/demo-job.toml -c catalogs/demo-steel.csv --spans 3m..9m:0.5m --chart lightest.svg
+  beamsift sweep table --job catalogs/demo-joists.toml -c catalogs/demo-timber.csv --spacings 300,400,600mm --round 10mm --chart spans.svg
+
+A sweep scales the job's geometry so that its longest span equals each swept value;
+load intensities stay as given (area loads follow --spacings).";
+
+#[derive(clap::Subcommand, Debug)]
+pub enum Cmd {
+    /// The lightest passing section at each span of a range.
+    Lightest(LightestArgs),
+    /// The longest span of each section, per joist spacing or live-load level.
+    Table(TableArgs),
+}
+
+#[derive(clap::Args, Debug)]
+pub struct LightestArgs {
+    #[command(flatten)]
+    pub job: JobArgs,
+    #[command(flatten)]
+    pub cat: CatalogArgs,
+    /// Spans as START..END:STEP (e.g. 3m..9m:0.5m) or a list (4m,5m,6m).
+    #[arg(long)]
+    pub spans: String,
+    /// Also the least-area parametric section of this family at each span.
+    #[arg(long, value_enum)]
+    pub optimise: Option<Family>,
+    /// Write the chart (SVG) here.
+    #[arg(long, value_name = "FILE")]
+    pub chart: Option<PathBuf>,
+}
+
+#[derive(clap::Args, Debug)]
+pub struct TableArgs {
+    #[command(flatten)]
+    pub job: JobArgs,
+    #[command(flatten)]
+    pub cat: CatalogArgs,
+    /// Columns: tributary widths of the job's area loads (e.g. 300,400,600mm).
+    #[arg(long)]
+    pub spacings: Option<String>,
+    /// Columns: pressures of the job's live area loads (e.g. 1.5,2.5,4kPa).
+    #[arg(long = "live-levels")]
+    pub live_levels: Option<String>,
+    /// Round spans down to a multiple of this (e.g. 10mm, 1in), as publishers do.
+    #[arg(long)]
+    pub round: Option<String>,
+    /// Bisection tolerance where no closed form applies.
+    #[arg(long, default_value = "1mm")]
+    pub tolerance: String,
+    /// Write the chart (SVG) here.
+    #[arg(long, value_name = "FILE")]
+    pub chart: Option<PathBuf>,
+}
+
+fn parse_spans(text: &str) -> Result<Vec<f64>> {
+    if let Some((range, step)) = text.split_once(':')
+        && let Some((a, b)) = range.split_once("..")
+    {
+        let p = |t: &str| units::parse(t, Dim::Length).map_err(|e| e.in_field("--spans"));
+        return sweep::span_range(p(a)?, p(b)?, p(step)?);
+    }
+    parse_list(text, "--spans")
+}
+
+/// Check an output path before any work: its folder exists and it is not an input.
+fn check_output(path: &Option<PathBuf>, inputs: &[PathBuf]) -> Result<()> {
+    if let Some(p) = path {
+        let dir = p
+            .parent()
+            .filter(|d| !d.as_os_str().is_empty())
+            .unwrap_or(std::path::Path::new("."));
+        if !dir.is_dir() {
+            return Err(Error::msg(format!(
+                "{}: the folder {} does not exist",
+                p.display(),
+                dir.display()
+            )));
+        }
+        for i in inputs {
+            if let (Ok(a), Ok(b)) = (std::fs::canonicalize(i), std::fs::canonicalize(p))
+                && a == b
+            {
+                return Err(Error::msg(format!(
+                    "{}: refusing to overwrite an input file",
+                    p.display()
+                )));
+            }
+        }
+    }
+    Ok(())
+}
+
+fn short(kind: Option<beamsift::check::CheckKind>) -> &'static str {
+    use beamsift::check::CheckKind::*;
+    match kind {
+        Some(
+            BendingSaggingTop | BendingSaggingBottom | BendingHoggingTop | BendingHoggingBottom,
+        ) => "M",
+        Some(Shear) => "V",
+        Some(LateralTorsional) => "LTB",
+        Some(Deflection) => "δ",
+        None => "",
+    }
+}
+
+#[derive(Serialize)]
+struct LightestOut {
+    /// mm.
+    span: f64,
+    section: Option<String>,
+    /// kg/m.
+    mass: Option<f64>,
+    utilisation: Option<f64>,
+    governing: Option<beamsift::check::CheckKind>,
+    /// Parametric optimum at this span (area mm², description).
+    optimum: Option<(f64, String)>,
+}
+
+#[derive(Serialize)]
+struct LightestResult {
+    title: String,
+    rows: Vec<LightestOut>,
+    chart: Option<String>,
+    caution: &'static str,
+}
+
+fn load(job: &beamsift::job::Job, cat: &CatalogArgs) -> Result<Vec<Candidate>> {
+    cat.setup_threads()?;
+    let (cats, _) = cat.open()?;
+    let mats = Materials {
+        base: &job.material,
+        grades: &job.grades,
+    };
+    let (rows, _, _) = search::load_rows(cats, &mats, cat.skip_bad_rows, &cat.filters()?)?;
+    Ok(rows)
+}
+
+pub fn run(cmd: Cmd, out: &Out) -> Result<i32> {
+    match cmd {
+        Cmd::Lightest(a) => run_lightest(a, out),
+        Cmd::Table(a) => run_table(a, out),
+    }
+}
+
+fn run_lightest(a: LightestArgs, out: &Out) -> Result<i32> {
+    let mut inputs = a.cat.catalog.clone();
+    inputs.extend(a.job.job.clone());
+    check_output(&a.chart, &inputs)?;
+    let job = a.job.load()?;
+    let spans = parse_spans(&a.spans)?;
+    let rows = load(&job, &a.cat)?;
+    let mats = Materials {
+        base: &job.material,
+        grades: &job.grades,
+    };
+    let sys = out.units;
+    let pb = super::progress::count_bar(spans.len() as u64, a.cat.quiet, "spans");
+    let found = sweep::lightest(
+        &job.beam,
+        &job.material,
+        &job.criteria,
+        &rows,
+        &mats,
+        &spans,
+        &|| pb.inc(1),
+    )?;
+    pb.finish_and_clear();
+    let optima: Vec<Option<(f64, String)>> = match a.optimise {
+        Some(fam) => {
+            use rayon::prelude::*;
+            spans
+                .par_iter()
+                .map(|&s| {
+                    let prep = Prepared::new(
+                        &sweep::at_span(&job.beam, s),
+                        job.material.clone(),
+                        job.criteria.clone(),
+                    )
+                    .ok()?;
+                    let (lf, lw) = job
+                        .material
+                        .fy
+                        .map(|fy| optimise::default_slenderness(fam, job.material.e, fy))
+                        .unwrap_or((None, None));
+                    let prob = Problem {
+                        family: fam,
+                        bounds: super::optimise::default_bounds_for(fam),
+                        max_depth: None,
+                        min_depth: None,
+                        aspect: None,
+                        lambda_f: lf,
+                        lambda_w: lw,
+                        objective: Objective::Area,
+                        plate_prices: vec![],
+                    };
+                    let o = optimise::continuous(&prob, &prep, 3).ok()?;
+                    Some((o.area, o.shape.describe(sys)))
+                })
+                .collect()
+        }
+        None => vec![None; spans.len()],
+    };
+    let out_rows: Vec<LightestOut> = found
+        .iter()
+        .zip(optima)
+        .map(|(f, o)| LightestOut {
+            span: f.span,
+            section: f.row.map(|j| rows[j].name.clone()),
+            mass: f.row.map(|j| rows[j].mass),
+            utilisation: f.utilisation,
+            governing: f.governing,
+            optimum: o,
+        })
+        .collect();
+    let svg = a.chart.as_ref().map(|_| {
+        let pts: Vec<(f64, Option<f64>, String)> = out_rows
+            .iter()
+            .map(|r| {
+                (
+                    Show::Span.value(r.span, sys),
+                    r.mass.map(|m| Show::Mass.value(m, sys)),
+                    r.section.clone().unwrap_or_default(),
+                )
+            })
+            .collect();
+        chart::lightest_chart(
+            &format!("Lightest passing section — {}", job.title),
+            &format!("Span [{}]", Show::Span.label(sys)),
+            &format!("Mass per length [{}]", Show::Mass.label(sys)),
+            &pts,
+        )
+    });
+    if let (Some(p), Some(s)) = (&a.chart, &svg) {
+        write_atomic(p, s.as_bytes())?;
+    }
+    let result = LightestResult {
+        title: job.title.clone(),
+        rows: out_rows,
+        chart: a.chart.as_ref().map(|p| p.display().to_string()),
+        caution: report::CAUTION,
+    };
+    let mut doc = Document::new(format!("Lightest section by span — {}", job.title));
+    let mut hs = vec![
+        (format!("Span [{}]", Show::Span.label(sys)), Align::Right),
+        ("Lightest passing".to_string(), Align::Left),
+        (format!("Mass [{}]", Show::Mass.label(sys)), Align::Right),
+        ("Utilisation".to_string(), Align::Right),
+        ("Governed by".to_string(), Align::Left),
+    ];
+    if a.optimise.is_some() {
+        hs.push((
+            format!("Optimum area [{}]", Show::Area.label(sys)),
+            Align::Right,
+        ));
+        hs.push(("Optimum".to_string(), Align::Left));
+    }
+    let refs: Vec<(&str, Align)> = hs.iter().map(|(h, a)| (h.as_str(), *a)).collect();
+    let mut t = Table::new("", &refs);
+    for r in &result.rows {
+        let mut row = vec![
+            Show::Span.fixed(r.span, sys, 2),
+            r.section.clone().unwrap_or_else(|| "none passes".into()),
+            r.mass
+                .map(|m| Show::Mass.fixed(m, sys, 1))
+                .unwrap_or_else(|| "—".into()),
+            r.utilisation
+                .map(|u| format!("{u:.3}"))
+                .unwrap_or_else(|| "—".into()),
+            r.governing
+                .map(|g| g.short().to_string())
+                .unwrap_or_default(),
+        ];
+        if a.optimise.is_some() {
+            row.push(
+                r.optimum
+                    .as_ref()
+                    .map(|o| Show::Area.num(o.0, sys))
+                    .unwrap_or_else(|| "—".into()),
+            );
+            row.push(r.optimum.as_ref().map(|o| o.1.clone()).unwrap_or_default());
+        }
+        t.row(row);
+    }
+    doc.table(t);
+    if let Some(p) = &a.chart {
+        doc.para(format!("Chart written to {}.", p.display()));
+    }
+    doc.para("Each span scales the job's geometry (spans and load positions) so the longest span equals it; load intensities are as given.");
+    let nc = rows.first().map(|r| {
+        Prepared::new(&job.beam, job.material.clone(), job.criteria.clone())
+            .map(|p| p.not_checked(&r.properties))
+            .unwrap_or_default()
+    });
+    doc.caution(nc.unwrap_or_default());
+    emit(out, &report::render(out.format, &result, &doc))?;
+    Ok(0)
+}
+
+#[derive(Serialize)]
+struct TableRow {
+    section: String,
+    /// kg/m.
+    mass: f64,
+    cells: Vec<Cell>,
+}
+
+#[derive(Serialize)]
+struct TableResult {
+    title: String,
+    /// Column labels.
+    columns: Vec<String>,
+    rows: Vec<TableRow>,
+    rounded_to: Option<f64>,
+    chart: Option<String>,
+    caution: &'static str,
+}
+
+fn run_table(a: TableArgs, out: &Out) -> Result<i32> {
+    let mut inputs = a.cat.catalog.clone();
+    inputs.extend(a.job.job.clone());
+    check_output(&a.chart, &inputs)?;
+    let job = a.job.load()?;
+    let sys = out.units;
+    let mut columns = Vec::new();
+    let mut labels = Vec::new();
+    match (&a.spacings, &a.live_levels) {
+        (Some(_), Some(_)) => return Err(Error::msg("give --spacings or --live-levels, not both")),
+        (Some(s), None) => {
+            for w in parse_list(s, "--spacings")? {
+                let b = job.beam.with_spacing(w).ok_or_else(|| {
+                    Error::msg(
+                        "--spacings needs area loads in the job (a [[load]] with area and width)",
+                    )
+                })?;
+                columns.push(b);
+                labels.push(format!("{} centres", Show::Dimension.fmt(w, sys)));
+            }
+        }
+        (None, Some(s)) => {
+            for part in s.split(',') {
+                let unit: String = s
+                    .rsplit(|c: char| c.is_ascii_digit() || c == '.')
+                    .next()
+                    .unwrap_or("")
+                    .to_string();
+                let t = if part
+                    .trim()
+                    .chars()
+                    .last()
+                    .is_some_and(|c| c.is_ascii_digit())
+                {
+                    format!("{}{unit}", part.trim())
+                } else {
+                    part.trim().to_string()
+                };
+                let p = units::parse(&t, Dim::AreaLoad).map_err(|e| e.in_field("--live-levels"))?;
+                let b = job.beam.with_live_pressure(p).ok_or_else(|| {
+                    Error::msg("--live-levels needs live area loads in the job (a [[load]] of a live case with area and width)")
+                })?;
+                columns.push(b);
+                labels.push(format!("live {}", Show::AreaLoad.fmt(p, sys)));
+            }
+        }
+        (None, None) => {
+            columns.push(job.beam.clone());
+            labels.push("as in the job".into());
+        }
+    }
+    let round = a
+        .round
+        .as_deref()
+        .map(|t| units::parse(t, Dim::Length).map_err(|e| e.in_field("--round")))
+        .transpose()?;
+    let tolerance =
+        units::parse(&a.tolerance, Dim::Length).map_err(|e| e.in_field("--tolerance"))?;
+    let opts = TableOptions {
+        tolerance,
+        round,
+        ..TableOptions::default()
+    };
+    let rows = load(&job, &a.cat)?;
+    let mats = Materials {
+        base: &job.material,
+        grades: &job.grades,
+    };
+    let pb = super::progress::count_bar(rows.len() as u64, a.cat.quiet, "sections");
+    let cells = sweep::span_table(
+        &columns,
+        &job.material,
+        &job.criteria,
+        &rows,
+        &mats,
+        &opts,
+        &|| pb.inc(1),
+    )?;
+    pb.finish_and_clear();
+    let result_rows: Vec<TableRow> = rows
+        .iter()
+        .zip(cells)
+        .map(|(r, c)| TableRow {
+            section: r.name.clone(),
+            mass: r.mass,
+            cells: c,
+        })
+        .collect();
+    let svg = a.chart.as_ref().map(|_| {
+        let names: Vec<String> = result_rows.iter().map(|r| r.section.clone()).collect();
+        let spans: Vec<Vec<Option<f64>>> = (0..labels.len())
+            .map(|c| {
+                result_rows
+                    .iter()
+                    .map(|r| r.cells[c].span.map(|s| Show::Span.value(s, sys)))
+                    .collect()
+            })
+            .collect();
+        chart::span_chart(
+            &format!("Maximum span — {}", job.title),
+            &format!("Maximum span [{}]", Show::Span.label(sys)),
+            &names,
+            &labels,
+            &spans,
+        )
+    });
+    if let (Some(p), Some(s)) = (&a.chart, &svg) {
+        write_atomic(p, s.as_bytes())?;
+    }
+    let result = TableResult {
+        title: job.title.clone(),
+        columns: labels.clone(),
+        rows: result_rows,
+        rounded_to: round,
+        chart: a.chart.as_ref().map(|p| p.display().to_string()),
+        caution: report::CAUTION,
+    };
+    let mut doc = Document::new(format!("Span table — {}", job.title));
+    let mut hs: Vec<(String, Align)> = vec![
+        ("Section".into(), Align::Left),
+        (format!("Mass [{}]", Show::Mass.label(sys)), Align::Right),
+    ];
+    for l in &labels {
+        hs.push((format!("{l} [{}]", Show::Span.label(sys)), Align::Right));
+    }
+    let refs: Vec<(&str, Align)> = hs.iter().map(|(h, a)| (h.as_str(), *a)).collect();
+    let mut t = Table::new("", &refs);
+    for r in &result.rows {
+        let mut row = vec![r.section.clone(), Show::Mass.fixed(r.mass, sys, 1)];
+        for c in &r.cells {
+            row.push(match c.span {
+                Some(s) => format!("{} {}", Show::Span.fixed(s, sys, 2), short(c.governing)),
+                None => "—".into(),
+            });
+        }
+        t.row(row);
+    }
+    doc.table(t);
+    let methods: Vec<Method> = result
+        .rows
+        .iter()
+        .flat_map(|r| r.cells.iter().map(|c| c.method))
+        .collect();
+    doc.para(format!(
+        "Each cell: the longest span that passes every check, and what governs just beyond it (M bending, V shear, δ deflection, LTB lateral-torsional buckling). {}{}",
+        if methods.contains(&Method::ClosedForm) {
+            "Found in closed form (uniform loads: utilisation ∝ L² for bending, L for shear, L³ for deflection/limit, self-weight included). "
+        } else {
+            ""
+        },
+        if methods.contains(&Method::Bisection) { format!("Found by bisection to {}. ", Show::Dimension.fmt(tolerance, sys)) } else { String::new() }
+    ));
+    if let Some(r) = round {
+        doc.para(format!(
+            "Spans are rounded down to a multiple of {}.",
+            Show::Dimension.fmt(r, sys)
+        ));
+    }
+    if let Some(p) = &a.chart {
+        doc.para(format!("Chart written to {}.", p.display()));
+    }
+    let nc = rows.first().map(|r| {
+        Prepared::new(&job.beam, job.material.clone(), job.criteria.clone())
+            .map(|p| p.not_checked(&r.properties))
+            .unwrap_or_default()
+    });
+    doc.caution(nc.unwrap_or_default());
+    emit(out, &report::render(out.format, &result, &doc))?;
+    Ok(0)
+}

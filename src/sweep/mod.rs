@@ -1,0 +1,305 @@
+//! Span sweeps and span tables.
+//!
+//! * Lightest per span: over a list of spans, the lightest passing
+//!   catalogue section at each (the demand is analysed once per span,
+//!   never per section; rows are sorted lightest first, so the scan stops
+//!   at the first that passes).
+//! * Maximum span per section (a span table): for each section and each
+//!   column (a joist spacing, or a live-load level), the longest span that
+//!   passes every check, with the governing check.
+//!
+//! A sweep scales the job's geometry: every span and load position is
+//! multiplied so that the longest span equals the swept value; load
+//! intensities stay as given.
+//!
+//! Exactness. When every load is uniform over the whole beam (self-weight
+//! included), the supports are rigid, the deflection limits are ratios L/n
+//! and lateral buckling is either not checked or the flange is continuously
+//! braced, each utilisation scales with a known power of the span: bending
+//! with L² (M ∝ wL²), shear with L, deflection/limit with L³ (δ ∝ wL⁴/EI,
+//! limit ∝ L). The maximum span is then L0·u^(−1/p), minimised over every
+//! check line (closed form). Otherwise it is found by bisection to
+//! `tolerance`.
+
+use crate::beam::model::{Beam, LoadKind, Support};
+use crate::catalog::Materials;
+use crate::check::{Bracing, CheckKind, Criteria, Material, Prepared, SectionInput};
+use crate::error::{Error, Result};
+use crate::search::Candidate;
+use rayon::prelude::*;
+use serde::Serialize;
+
+/// The span a sweep sets: the longest segment of the beam.
+pub fn reference_span(beam: &Beam) -> f64 {
+    beam.spans.iter().copied().fold(0.0, f64::max)
+}
+
+/// The beam scaled so its longest segment is `span`.
+pub fn at_span(beam: &Beam, span: f64) -> Beam {
+    beam.scaled(span / reference_span(beam))
+}
+
+/// Spans from start to end (inclusive) by step.
+pub fn span_range(start: f64, end: f64, step: f64) -> Result<Vec<f64>> {
+    if !(start > 0.0 && end >= start && step > 0.0) {
+        return Err(Error::msg(
+            "a span range needs 0 < start ≤ end and a step greater than zero",
+        ));
+    }
+    let n = ((end - start) / step + 1e-9).floor() as usize;
+    if n > 100_000 {
+        return Err(Error::msg(
+            "the span range has more than 100 000 spans: use a larger step",
+        ));
+    }
+    Ok((0..=n).map(|k| start + k as f64 * step).collect())
+}
+
+/// The lightest passing section at one span.
+#[derive(Clone, Debug, Serialize)]
+pub struct Lightest {
+    /// mm.
+    pub span: f64,
+    /// Row index of the lightest passing section.
+    pub row: Option<usize>,
+    pub utilisation: Option<f64>,
+    pub governing: Option<CheckKind>,
+}
+
+/// The lightest passing row at each span (parallel over spans).
+pub fn lightest(
+    beam: &Beam,
+    material: &Material,
+    criteria: &Criteria,
+    rows: &[Candidate],
+    mats: &Materials<'_>,
+    spans: &[f64],
+    progress: &(dyn Fn() + Sync),
+) -> Result<Vec<Lightest>> {
+    spans
+        .par_iter()
+        .map(|&span| {
+            let prep = Prepared::new(&at_span(beam, span), material.clone(), criteria.clone())?;
+            let mut out = Lightest {
+                span,
+                row: None,
+                utilisation: None,
+                governing: None,
+            };
+            for (j, r) in rows.iter().enumerate() {
+                let s = prep.check(
+                    SectionInput::new(&r.properties, r.mass).with_material(mats.get(&r.material)),
+                );
+                if s.passes {
+                    out.row = Some(j);
+                    out.utilisation = Some(s.utilisation);
+                    out.governing = s.governing.map(|g| g.kind);
+                    break;
+                }
+            }
+            progress();
+            Ok(out)
+        })
+        .collect()
+}
+
+/// How a cell was found.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Method {
+    ClosedForm,
+    Bisection,
+}
+
+/// One cell of a span table.
+#[derive(Clone, Debug, Serialize)]
+pub struct Cell {
+    /// Longest passing span, mm (None: fails even at the shortest span tried).
+    pub span: Option<f64>,
+    /// The exact value before rounding down.
+    pub exact: Option<f64>,
+    pub governing: Option<CheckKind>,
+    pub method: Method,
+    pub rounded: bool,
+}
+
+/// Options for span tables.
+#[derive(Clone, Debug)]
+pub struct TableOptions {
+    /// Bisection tolerance, mm.
+    pub tolerance: f64,
+    /// Round spans down to a multiple of this (mm), as publishers do.
+    pub round: Option<f64>,
+    /// Search range for bisection (mm).
+    pub min_span: f64,
+    pub max_span: f64,
+}
+
+impl Default for TableOptions {
+    fn default() -> Self {
+        TableOptions {
+            tolerance: 1.0,
+            round: None,
+            min_span: 100.0,
+            max_span: 50_000.0,
+        }
+    }
+}
+
+/// Whether the closed form applies to this beam and criteria.
+pub fn closed_form_applies(beam: &Beam, criteria: &Criteria) -> bool {
+    let l = beam.length();
+    let loads_scale = beam.loads.iter().all(|ld| match ld.kind {
+        LoadKind::Distributed { x1, x2, w1, w2 } => {
+            x1.abs() <= 1e-9 * l && (x2 - l).abs() <= 1e-9 * l && w1 == w2
+        }
+        _ => false,
+    });
+    let limits_ratio = beam
+        .combinations
+        .iter()
+        .all(|c| c.limit.is_none_or(|lim| lim.absolute.is_none()));
+    let rigid = !beam
+        .supports
+        .iter()
+        .any(|s| matches!(s, Support::Spring(_)));
+    let ltb_ok = matches!(criteria.bracing, Bracing::NotGiven | Bracing::Continuous);
+    loads_scale && limits_ratio && rigid && ltb_ok
+}
+
+fn power(kind: CheckKind) -> f64 {
+    match kind {
+        CheckKind::Shear => 1.0,
+        CheckKind::Deflection => 3.0,
+        _ => 2.0,
+    }
+}
+
+fn passes_at(
+    beam: &Beam,
+    m: &Material,
+    c: &Criteria,
+    row: &Candidate,
+    mats: &Materials<'_>,
+    span: f64,
+) -> Result<(bool, Option<CheckKind>)> {
+    let prep = Prepared::new(&at_span(beam, span), m.clone(), c.clone())?;
+    let s = prep
+        .check(SectionInput::new(&row.properties, row.mass).with_material(mats.get(&row.material)));
+    Ok((s.passes, s.governing.map(|g| g.kind)))
+}
+
+/// The longest passing span of one section for one beam (a column).
+pub fn max_span(
+    beam: &Beam,
+    material: &Material,
+    criteria: &Criteria,
+    row: &Candidate,
+    mats: &Materials<'_>,
+    opts: &TableOptions,
+) -> Result<Cell> {
+    let finish = |exact: Option<f64>, gov: Option<CheckKind>, method: Method| -> Cell {
+        let span = match (exact, opts.round) {
+            (Some(e), Some(r)) => Some((e / r + 1e-9).floor() * r).filter(|s| *s > 0.0),
+            (e, None) => e,
+            (None, _) => None,
+        };
+        Cell {
+            span,
+            exact,
+            governing: gov,
+            method,
+            rounded: opts.round.is_some(),
+        }
+    };
+    if closed_form_applies(beam, criteria) {
+        let l0 = reference_span(beam);
+        let prep = Prepared::new(beam, material.clone(), criteria.clone())?;
+        let mut best: Option<(f64, CheckKind)> = None;
+        prep.visit(
+            SectionInput::new(&row.properties, row.mass).with_material(mats.get(&row.material)),
+            |it| {
+                if it.utilisation > 0.0 && it.utilisation.is_finite() {
+                    let l = l0 * it.utilisation.powf(-1.0 / power(it.kind));
+                    if best.is_none_or(|(b, _)| l < b) {
+                        best = Some((l, it.kind));
+                    }
+                }
+            },
+        );
+        return Ok(match best {
+            Some((mut l, k)) => {
+                // At the exact span one utilisation is 1 to round-off: step
+                // below it until the real check passes, so a table never
+                // lists a span that fails.
+                for _ in 0..20 {
+                    if passes_at(beam, material, criteria, row, mats, l)?.0 {
+                        break;
+                    }
+                    l *= 1.0 - 1e-10;
+                }
+                finish(Some(l), Some(k), Method::ClosedForm)
+            }
+            None => finish(None, None, Method::ClosedForm),
+        });
+    }
+    // Bisection on [lo, hi] with passes(lo), fails(hi).
+    let mut lo = opts.min_span;
+    let (ok, gov_lo) = passes_at(beam, material, criteria, row, mats, lo)?;
+    if !ok {
+        return Ok(Cell {
+            span: None,
+            exact: None,
+            governing: gov_lo,
+            method: Method::Bisection,
+            rounded: false,
+        });
+    }
+    let mut hi = (2.0 * lo).max(reference_span(beam));
+    let mut gov: Option<CheckKind>;
+    loop {
+        let (ok, g) = passes_at(beam, material, criteria, row, mats, hi)?;
+        if !ok {
+            gov = g;
+            break;
+        }
+        lo = hi;
+        hi *= 2.0;
+        if hi > opts.max_span {
+            return Ok(finish(Some(opts.max_span), None, Method::Bisection));
+        }
+    }
+    while hi - lo > opts.tolerance {
+        let mid = 0.5 * (lo + hi);
+        let (ok, g) = passes_at(beam, material, criteria, row, mats, mid)?;
+        if ok {
+            lo = mid;
+        } else {
+            hi = mid;
+            gov = g;
+        }
+    }
+    Ok(finish(Some(lo), gov, Method::Bisection))
+}
+
+/// A whole span table: rows × columns (parallel over rows).
+pub fn span_table(
+    columns: &[Beam],
+    material: &Material,
+    criteria: &Criteria,
+    rows: &[Candidate],
+    mats: &Materials<'_>,
+    opts: &TableOptions,
+    progress: &(dyn Fn() + Sync),
+) -> Result<Vec<Vec<Cell>>> {
+    rows.par_iter()
+        .map(|r| {
+            let cells = columns
+                .iter()
+                .map(|b| max_span(b, material, criteria, r, mats, opts))
+                .collect::<Result<Vec<_>>>();
+            progress();
+            cells
+        })
+        .collect()
+}

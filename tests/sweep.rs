@@ -1,0 +1,256 @@
+//! Span tables against the standard formulas, against `check` at the
+//! found span, and for monotonicity.
+
+use beamsift::beam::*;
+use beamsift::catalog::{Materials, RowMaterial};
+use beamsift::check::*;
+use beamsift::search::Candidate;
+use beamsift::section::Shape;
+use beamsift::sweep::{self, Method, TableOptions};
+
+fn timber() -> Material {
+    Material {
+        name: "t".into(),
+        e: 10_000.0,
+        fb_tension: 10.0,
+        fb_compression: 10.0,
+        fv: None,
+        fy: None,
+        density: 450.0,
+    }
+}
+
+fn row(b: f64, d: f64, density: f64) -> Candidate {
+    let shape = Shape::Rect { b, d };
+    let p = shape.properties().unwrap();
+    Candidate {
+        name: format!("{b}x{d}"),
+        series: String::new(),
+        grade: String::new(),
+        shape: Some(shape),
+        file: 0,
+        line: 0,
+        mass: p.mass_per_length(density),
+        depth: d,
+        width: b,
+        cost: None,
+        stock: None,
+        utilisation: 0.0,
+        governing: None,
+        passes: false,
+        pareto: false,
+        properties: p,
+        material: RowMaterial::Job,
+    }
+}
+
+fn job(spans: Vec<f64>, w: f64, n: f64) -> Beam {
+    let k = spans.len();
+    let mut b = Beam::new(spans, vec![Support::Pinned; k + 1]);
+    let d = b.case("D", Category::Dead);
+    b.self_weight_case = Some(d);
+    b.udl(d, w);
+    b.combo("D", ComboKind::Strength, &[(d, 1.0)]);
+    b.service(
+        "D",
+        &[(d, 1.0)],
+        DeflectionLimit {
+            ratio: Some(n),
+            absolute: None,
+        },
+    );
+    b
+}
+
+fn cell(beam: &Beam, r: &Candidate, opts: &TableOptions) -> sweep::Cell {
+    let m = timber();
+    let mats = Materials {
+        base: &m,
+        grades: &[],
+    };
+    sweep::max_span(beam, &m, &Criteria::default(), r, &mats, opts).unwrap()
+}
+
+/// Simple span, uniform load w (self-weight ρ·g·A included): from M =
+/// wL²/8 and δ = 5wL⁴/(384EI) (AISC Manual Table 3-23 case 1):
+/// L_stress = √(8·Fb·S/w), L_deflection = (384·E·I/(5·n·w))^(1/3) for L/n.
+/// Closed form: round-off only (1e-9). Bisection: within its 1 mm tolerance.
+#[test]
+fn simple_span_max_spans_match_the_formulas() {
+    for (b, d, w, n) in [
+        (50.0, 200.0, 2.0, 360.0),
+        (75.0, 300.0, 6.0, 240.0),
+        (45.0, 95.0, 0.5, 180.0),
+    ] {
+        let r = row(b, d, 450.0);
+        let sw = 450.0 * 9.80665 * b * d * 1e-9;
+        let wt = w + sw;
+        let s = b * d * d / 6.0;
+        let i = b * d.powi(3) / 12.0;
+        let l_stress = (8.0 * 10.0 * s / wt).sqrt();
+        let l_defl = (384.0 * 10_000.0 * i / (5.0 * n * wt)).cbrt();
+        let want = l_stress.min(l_defl);
+        let beam = job(vec![4000.0], w, n);
+        let c = cell(&beam, &r, &TableOptions::default());
+        assert_eq!(c.method, Method::ClosedForm);
+        let got = c.span.unwrap();
+        assert!((got - want).abs() < 1e-9 * want, "{b}x{d}: {got} vs {want}");
+        let gov = c.governing.unwrap();
+        assert_eq!(gov == CheckKind::Deflection, l_defl < l_stress);
+        // A negligible point load forces bisection: same span within 1 mm.
+        let mut b2 = beam.clone();
+        b2.load(0, LoadKind::Point { x: 2000.0, p: 1e-9 });
+        let c2 = cell(&b2, &r, &TableOptions::default());
+        assert_eq!(c2.method, Method::Bisection);
+        assert!(
+            (c2.span.unwrap() - want).abs() <= 1.0,
+            "{} vs {want}",
+            c2.span.unwrap()
+        );
+    }
+}
+
+/// Two equal continuous spans under uniform load (AISC Table 3-23 case 29,
+/// from memory): support moment wL²/8, so L_stress = √(8·Fb·S/w) as for a
+/// simple span; Δmax = wL⁴/(185·E·I) (185 rounds 184.6), so
+/// L_deflection = (185·E·I/(n·w))^(1/3) within 0.1 %.
+#[test]
+fn two_span_max_spans_match_the_coefficients() {
+    let r = row(63.0, 225.0, 450.0);
+    let sw = 450.0 * 9.80665 * 63.0 * 225.0 * 1e-9;
+    for (w, n) in [(8.0, 360.0), (1.0, 360.0)] {
+        let wt = w + sw;
+        let p = &r.properties;
+        let l_stress = (8.0 * 10.0 * p.s_top / wt).sqrt();
+        let l_defl = (185.0 * 10_000.0 * p.ix / (n * wt)).cbrt();
+        let beam = job(vec![4000.0, 4000.0], w, n);
+        let c = cell(&beam, &r, &TableOptions::default());
+        let got = c.span.unwrap();
+        if l_stress < l_defl {
+            assert!(
+                (got - l_stress).abs() < 1e-9 * l_stress,
+                "{got} vs {l_stress}"
+            );
+        } else {
+            assert!((got - l_defl).abs() < 1e-3 * l_defl, "{got} vs {l_defl}");
+        }
+    }
+}
+
+/// Every cell agrees with `check` at that span: just under passes, just
+/// over fails; rounding down keeps it passing.
+#[test]
+fn cells_agree_with_check() {
+    let m = timber();
+    for beam in [job(vec![4000.0], 3.0, 360.0), {
+        let mut b = job(vec![4000.0, 3000.0], 3.0, 360.0);
+        b.load(
+            0,
+            LoadKind::Point {
+                x: 1500.0,
+                p: 2000.0,
+            },
+        );
+        b
+    }] {
+        for (b, d) in [(47.0, 150.0), (63.0, 250.0), (75.0, 300.0)] {
+            let r = row(b, d, 450.0);
+            for round in [None, Some(10.0)] {
+                let opts = TableOptions {
+                    round,
+                    ..TableOptions::default()
+                };
+                let c = cell(&beam, &r, &opts);
+                let l = c.span.unwrap();
+                let exact = c.exact.unwrap();
+                let check_at = |span: f64| {
+                    let p =
+                        Prepared::new(&sweep::at_span(&beam, span), m.clone(), Criteria::default())
+                            .unwrap();
+                    p.check(SectionInput::new(&r.properties, r.mass)).passes
+                };
+                assert!(check_at(l), "{b}x{d} passes at {l}");
+                let over = if c.method == Method::ClosedForm {
+                    exact * (1.0 + 1e-6)
+                } else {
+                    exact + opts.tolerance
+                };
+                assert!(!check_at(over), "{b}x{d} fails just over {exact}");
+                if round.is_some() {
+                    assert!((l / 10.0 - (l / 10.0).round()).abs() < 1e-9 && l <= exact);
+                }
+            }
+        }
+    }
+}
+
+/// Monotonicity: a heavier load or a wider spacing never gives a longer
+/// span; a deeper section of the same width never a shorter one when
+/// deflection governs.
+#[test]
+fn monotone_in_load_spacing_and_depth() {
+    let mut beam = job(vec![4000.0], 0.0, 360.0);
+    beam.loads.clear();
+    let l = beam.case("L", Category::Live);
+    beam.load(
+        l,
+        LoadKind::Distributed {
+            x1: 0.0,
+            x2: 4000.0,
+            w1: 0.0,
+            w2: 0.0,
+        },
+    );
+    beam.loads[0].tributary = Some((2.0e-3, 400.0));
+    beam.combinations.clear();
+    beam.combo("D+L", ComboKind::Strength, &[(0, 1.0), (l, 1.0)]);
+    beam.service(
+        "L",
+        &[(l, 1.0)],
+        DeflectionLimit {
+            ratio: Some(360.0),
+            absolute: None,
+        },
+    );
+    let r = row(63.0, 225.0, 450.0);
+    let mut last = f64::INFINITY;
+    for spacing in [300.0, 400.0, 450.0, 600.0, 800.0] {
+        let b = beam.with_spacing(spacing).unwrap();
+        let s = cell(&b, &r, &TableOptions::default()).span.unwrap();
+        assert!(s <= last + 1e-9, "spacing {spacing}: {s} > {last}");
+        last = s;
+    }
+    let mut last = f64::INFINITY;
+    for p in [1.0e-3, 2.0e-3, 3.0e-3, 5.0e-3] {
+        let b = beam.with_live_pressure(p).unwrap();
+        let s = cell(&b, &r, &TableOptions::default()).span.unwrap();
+        assert!(s <= last + 1e-9);
+        last = s;
+    }
+    let stiff = Material {
+        fb_tension: 1e3,
+        fb_compression: 1e3,
+        ..timber()
+    };
+    let mats = Materials {
+        base: &stiff,
+        grades: &[],
+    };
+    let b = beam.with_spacing(400.0).unwrap();
+    let mut last = 0.0;
+    for d in [150.0, 175.0, 200.0, 225.0, 250.0, 300.0] {
+        let c = sweep::max_span(
+            &b,
+            &stiff,
+            &Criteria::default(),
+            &row(47.0, d, 450.0),
+            &mats,
+            &TableOptions::default(),
+        )
+        .unwrap();
+        assert_eq!(c.governing, Some(CheckKind::Deflection));
+        let s = c.span.unwrap();
+        assert!(s >= last, "d {d}: {s} < {last}");
+        last = s;
+    }
+}
