@@ -461,3 +461,28 @@ impl Demand {
             .collect()
     }
 }
+
+impl Demand {
+    /// (min, max) of a quantity at local position `s` of element `e` over
+    /// the load patterns (equal when the combination has none).
+    pub fn envelope_at(
+        &self,
+        combo: &ComboDemand,
+        w_sw: f64,
+        q: Quantity,
+        e: usize,
+        s: f64,
+    ) -> (f64, f64) {
+        let b = eval(q, &self.base_coef(combo, w_sw, e), s);
+        let (mut lo, mut hi) = (b, b);
+        for p in &combo.patterns {
+            let v = eval(q, &p.elems[e], s);
+            if v > 0.0 {
+                hi += v;
+            } else {
+                lo += v;
+            }
+        }
+        (lo, hi)
+    }
+}

@@ -130,6 +130,22 @@ impl Capacity {
         ltb.min(self.m_flb)
     }
 
+    /// Which provision gives M_n (for the written calculation).
+    pub fn regime(&self, lb: f64, cb: f64) -> &'static str {
+        let n = self.nominal(lb, cb);
+        if (n - self.m_flb).abs() <= 1e-12 * n && self.m_flb < self.mp {
+            "flange local buckling, AISC 360-16 F3"
+        } else if lb <= self.lp {
+            "plastic moment, L_b ≤ L_p: M_n = M_p (F2-1)"
+        } else if (n - self.mp).abs() <= 1e-12 * n {
+            "C_b·(F2-2 or F2-3) exceeds M_p, so M_n = M_p"
+        } else if lb <= self.lr {
+            "inelastic lateral-torsional buckling, L_p < L_b ≤ L_r (F2-2)"
+        } else {
+            "elastic lateral-torsional buckling, L_b > L_r (F2-3, F2-4)"
+        }
+    }
+
     /// Allowable moment M_n/Ω_b.
     pub fn allowable(&self, lb: f64, cb: f64) -> f64 {
         self.nominal(lb, cb) / OMEGA_B

@@ -24,10 +24,19 @@ pub struct Args {
     /// Dimensions as key=value-with-unit.
     #[arg(value_name = "KEY=VALUE")]
     pub dims: Vec<String>,
+    /// Also write a calculation sheet: PREFIX.md and PREFIX.html.
+    #[arg(long, value_name = "PREFIX")]
+    pub report: Option<std::path::PathBuf>,
+    /// Overwrite existing report files.
+    #[arg(long)]
+    pub force: bool,
 }
 
 pub fn run(a: Args, out: &Out) -> beamsift::Result<i32> {
     let shape = shape_from_pairs(&a.shape, &split_pairs(&a.dims)?)?;
+    if let Some(p) = &a.report {
+        super::report::check_paths(p, a.force, &a.job.job.iter().cloned().collect::<Vec<_>>())?;
+    }
     let job = a.job.load()?;
     let props = shape.properties()?;
     let mass = props.mass_per_length(job.material.density);
@@ -35,5 +44,18 @@ pub fn run(a: Args, out: &Out) -> beamsift::Result<i32> {
     let result = member::member_check(&job, &prep, &shape.describe(out.units), &props, mass);
     let doc = member::document(&job, &result, out.units);
     emit(out, &report::render(out.format, &result, &doc))?;
+    if let Some(p) = &a.report {
+        super::report::write(
+            &job,
+            &prep,
+            &result.section,
+            &props,
+            mass,
+            "properties computed from the dimensions (section module)",
+            None,
+            out.units,
+            p,
+        )?;
+    }
     Ok(if result.passes { 0 } else { EXIT_FAILS })
 }

@@ -10,6 +10,7 @@ mod jobargs;
 mod optimise;
 mod output;
 mod progress;
+mod report;
 mod section;
 mod select;
 mod sweep;
@@ -66,6 +67,9 @@ pub enum Command {
     /// Proportion a rectangle, welded I, mono-symmetric I or hollow section for least area.
     #[command(after_help = optimise::EXAMPLES)]
     Optimise(optimise::Args),
+    /// Write a calculation sheet (Markdown and HTML) for one member.
+    #[command(after_help = report::EXAMPLES)]
+    Report(report::Args),
     /// Span sweeps: the lightest section per span, and span tables.
     #[command(subcommand, after_help = sweep::EXAMPLES)]
     Sweep(sweep::Cmd),
@@ -108,6 +112,7 @@ fn run(cli: Cli) -> beamsift::Result<i32> {
         Command::Catalog(c) => catalog::run(c, &out),
         Command::Optimise(a) => optimise::run(a, &out),
         Command::Sweep(c) => sweep::run(c, &out),
+        Command::Report(a) => report::run(a, &out),
     }
 }
 

@@ -42,6 +42,12 @@ pub struct Args {
     /// How many nearest misses to list.
     #[arg(long, default_value_t = 5)]
     pub near: usize,
+    /// Also write a calculation sheet for the best section: PREFIX.md and PREFIX.html.
+    #[arg(long, value_name = "PREFIX")]
+    pub report: Option<std::path::PathBuf>,
+    /// Overwrite existing report files.
+    #[arg(long)]
+    pub force: bool,
 }
 
 #[derive(clap::Args, Debug)]
@@ -226,6 +232,11 @@ fn counts_line(sel: &Selection) -> String {
 }
 
 pub fn run(a: Args, out: &Out) -> Result<i32> {
+    if let Some(p) = &a.report {
+        let mut inputs = a.cat.catalog.clone();
+        inputs.extend(a.job.job.clone());
+        super::report::check_paths(p, a.force, &inputs)?;
+    }
     let job = a.job.load()?;
     let prep = prepare(&job)?;
     let top = if a.all { usize::MAX } else { a.top.max(1) };

@@ -190,6 +190,86 @@ pub fn span_chart(
     svg
 }
 
+/// A diagram along the beam: one or two curves (an envelope), filled to
+/// the axis, with marked extremes. Values in display units.
+pub fn beam_diagram(
+    title: &str,
+    x_label: &str,
+    y_label: &str,
+    curves: &[Vec<(f64, f64)>],
+    marks: &[(f64, f64, String)],
+    supports: &[f64],
+) -> String {
+    let mut svg = String::new();
+    {
+        let root = SVGBackend::with_string(&mut svg, (820, 300)).into_drawing_area();
+        let _ = root.fill(&WHITE);
+        let xs = curves.iter().flatten().map(|p| p.0);
+        let (x0, x1) = xs.fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), x| {
+            (a.min(x), b.max(x))
+        });
+        let ys: Vec<f64> = curves.iter().flatten().map(|p| p.1).collect();
+        let (y0, y1) = ys
+            .iter()
+            .fold((0.0f64, 0.0f64), |(a, b), &y| (a.min(y), b.max(y)));
+        let pad = 0.18 * (y1 - y0).max(1e-9);
+        let (x0, x1) = if x0.is_finite() { (x0, x1) } else { (0.0, 1.0) };
+        let Ok(mut chart) = ChartBuilder::on(&root)
+            .caption(title, ("sans-serif", 18))
+            .margin(14)
+            .x_label_area_size(40)
+            .y_label_area_size(70)
+            .build_cartesian_2d(x0..x1, (y0 - pad)..(y1 + pad))
+        else {
+            return svg_fallback(title);
+        };
+        let _ = chart
+            .configure_mesh()
+            .x_desc(x_label)
+            .y_desc(y_label)
+            .axis_desc_style(("sans-serif", 14))
+            .label_style(("sans-serif", 12))
+            .light_line_style(RGBColor(238, 238, 238))
+            .draw();
+        let _ = chart.draw_series(LineSeries::new(
+            vec![(x0, 0.0), (x1, 0.0)],
+            BLACK.stroke_width(1),
+        ));
+        for (i, c) in curves.iter().enumerate() {
+            let color = PALETTE[i % 2];
+            let _ = chart.draw_series(AreaSeries::new(c.iter().copied(), 0.0, color.mix(0.15)));
+            let _ = chart.draw_series(LineSeries::new(c.iter().copied(), color.stroke_width(2)));
+        }
+        for &s in supports {
+            let _ = chart.draw_series(std::iter::once(TriangleMarker::new(
+                (s, 0.0),
+                7,
+                BLACK.filled(),
+            )));
+        }
+        for (x, y, text) in marks {
+            let above = *y >= 0.0;
+            // Near the right end, put the label to the left of the point.
+            let dx = if (*x - x0) > 0.7 * (x1 - x0) {
+                -8 - 7 * text.chars().count() as i32
+            } else {
+                6
+            };
+            let _ = chart.draw_series(std::iter::once(
+                EmptyElement::at((*x, *y))
+                    + Circle::new((0, 0), 4, PALETTE[1].filled())
+                    + Text::new(
+                        text.clone(),
+                        (dx, if above { -18 } else { 6 }),
+                        ("sans-serif", 13).into_font(),
+                    ),
+            ));
+        }
+        let _ = root.present();
+    }
+    svg
+}
+
 fn svg_fallback(title: &str) -> String {
     format!(
         "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"600\" height=\"80\"><text x=\"10\" y=\"40\">{title}: nothing to plot</text></svg>"

@@ -2,10 +2,12 @@
 //! CSV, and a result's `Serialize` into JSON. Renderers compute nothing;
 //! each command builds its result, then its document, once.
 
+pub mod calc;
 pub mod chart;
 pub mod csv_out;
 pub mod markdown;
 pub mod member;
+pub mod sheet;
 pub mod text;
 
 use serde::Serialize;

@@ -1,0 +1,230 @@
+//! `beamsift report`, and the `--report` option of check, select and optimise:
+//! a calculation sheet as Markdown and HTML.
+
+use super::Out;
+use super::catargs::CatalogArgs;
+use super::jobargs::JobArgs;
+use super::output::{emit, write_atomic};
+use super::select::{prepare, run_scan};
+use beamsift::check::Prepared;
+use beamsift::error::{Error, Result};
+use beamsift::job::Job;
+use beamsift::report::{Align, Table, member, sheet};
+use beamsift::search::{Candidate, Rank, ScanOptions};
+use beamsift::section::Properties;
+use beamsift::section::spec::{shape_from_pairs, split_pairs};
+use beamsift::units::{Show, System};
+use std::path::{Path, PathBuf};
+
+pub const EXAMPLES: &str = "Examples:
+  beamsift report --job catalogs/demo-job.toml -c catalogs/demo-steel.csv --to b1-calc
+  beamsift report --job catalogs/demo-job.toml -c catalogs/demo-steel.csv --section 'NB 360 L' --to b1-calc --force
+  beamsift report --job job.toml --to calc welded-i bf=180mm tf=14mm hw=420mm tw=8mm
+
+Writes PREFIX.md and PREFIX.html (self-contained: diagrams inline, no external files).";
+
+#[derive(clap::Args, Debug)]
+pub struct Args {
+    #[command(flatten)]
+    pub job: JobArgs,
+    /// Catalogue to take the section from (the lightest passing one unless --section names one).
+    #[arg(long, short = 'c', value_name = "FILE")]
+    pub catalog: Vec<PathBuf>,
+    /// Name of the catalogue section to report on.
+    #[arg(long)]
+    pub section: Option<String>,
+    /// Output prefix: writes PREFIX.md and PREFIX.html.
+    #[arg(long, default_value = "beamsift-report")]
+    pub to: PathBuf,
+    /// Overwrite existing report files.
+    #[arg(long)]
+    pub force: bool,
+    /// Or a shape: family then key=value dimensions.
+    #[arg(value_name = "SHAPE KEY=VALUE")]
+    pub shape: Vec<String>,
+}
+
+/// The two files a prefix names.
+pub fn report_paths(prefix: &Path) -> (PathBuf, PathBuf) {
+    let s = prefix.as_os_str().to_string_lossy();
+    let s = s
+        .strip_suffix(".md")
+        .or_else(|| s.strip_suffix(".html"))
+        .unwrap_or(&s)
+        .to_string();
+    (
+        PathBuf::from(format!("{s}.md")),
+        PathBuf::from(format!("{s}.html")),
+    )
+}
+
+/// Check report paths before any work starts.
+pub fn check_paths(prefix: &Path, force: bool, inputs: &[PathBuf]) -> Result<()> {
+    let (md, html) = report_paths(prefix);
+    for p in [&md, &html] {
+        let dir = p
+            .parent()
+            .filter(|d| !d.as_os_str().is_empty())
+            .unwrap_or(Path::new("."));
+        if !dir.is_dir() {
+            return Err(Error::msg(format!(
+                "{}: the folder {} does not exist",
+                p.display(),
+                dir.display()
+            )));
+        }
+        for i in inputs {
+            if let (Ok(a), Ok(b)) = (std::fs::canonicalize(i), std::fs::canonicalize(p))
+                && a == b
+            {
+                return Err(Error::msg(format!(
+                    "{}: refusing to overwrite an input file",
+                    p.display()
+                )));
+            }
+        }
+        if p.exists() && !force {
+            return Err(Error::msg(format!(
+                "{}: the file exists; use --force to overwrite it",
+                p.display()
+            )));
+        }
+    }
+    Ok(())
+}
+
+/// Write the sheet; returns the two paths.
+#[allow(clippy::too_many_arguments)]
+pub fn write(
+    job: &Job,
+    prep: &Prepared,
+    name: &str,
+    props: &Properties,
+    mass: f64,
+    source: &str,
+    alternatives: Option<Table>,
+    sys: System,
+    prefix: &Path,
+) -> Result<(PathBuf, PathBuf)> {
+    let r = member::member_check(job, prep, name, props, mass);
+    let s = sheet::build(job, prep, &r, source, alternatives, sys);
+    let (md, html) = report_paths(prefix);
+    write_atomic(&md, sheet::markdown(&s).as_bytes())?;
+    write_atomic(&html, sheet::html(&s).as_bytes())?;
+    Ok((md, html))
+}
+
+/// A table of alternatives from a scan.
+pub fn alternatives(list: &[Candidate], skip: &str, sys: System) -> Option<Table> {
+    let mut t = Table::new(
+        "Next lightest passing sections",
+        &[
+            ("Section", Align::Left),
+            ("Mass", Align::Right),
+            ("Depth", Align::Right),
+            ("Utilisation", Align::Right),
+            ("Governed by", Align::Left),
+        ],
+    );
+    for c in list.iter().filter(|c| c.name != skip).take(5) {
+        t.row(vec![
+            c.name.clone(),
+            Show::Mass.fmt(c.mass, sys),
+            Show::Dimension.fmt(c.depth, sys),
+            format!("{:.3}", c.utilisation),
+            c.governing
+                .map(|g| g.kind.label().to_string())
+                .unwrap_or_default(),
+        ]);
+    }
+    (!t.rows.is_empty()).then_some(t)
+}
+
+pub fn run(a: Args, out: &Out) -> Result<i32> {
+    let mut inputs = a.catalog.clone();
+    inputs.extend(a.job.job.clone());
+    check_paths(&a.to, a.force, &inputs)?;
+    let job = a.job.load()?;
+    let prep = prepare(&job)?;
+    let sys = out.units;
+    let (name, props, mass, source, alts) = if let Some((fam, dims)) = a.shape.split_first() {
+        if !a.catalog.is_empty() {
+            return Err(Error::msg("give either a shape or --catalog, not both"));
+        }
+        let shape = shape_from_pairs(fam, &split_pairs(dims)?)?;
+        let p = shape.properties()?;
+        let m = p.mass_per_length(job.material.density);
+        (
+            shape.describe(sys),
+            p,
+            m,
+            "properties computed from the dimensions (section module)".to_string(),
+            None,
+        )
+    } else {
+        if a.catalog.is_empty() {
+            return Err(Error::msg(
+                "give a shape (e.g. rect b=75mm d=300mm) or --catalog FILE",
+            ));
+        }
+        let cat = CatalogArgs {
+            catalog: a.catalog.clone(),
+            delimiter: ",".into(),
+            skip_bad_rows: false,
+            max_depth: None,
+            min_depth: None,
+            max_width: None,
+            grade: None,
+            in_stock: false,
+            name: a.section.clone(),
+            jobs: None,
+            quiet: true,
+        };
+        let opts = ScanOptions {
+            ranks: vec![(Rank::Mass, 6)],
+            near: 1,
+            filters: cat.filters()?,
+            ..ScanOptions::default()
+        };
+        let (sel, _) = run_scan(&job, &prep, &cat, &opts)?;
+        let pick = match &a.section {
+            Some(n) => sel.lists[0]
+                .items
+                .iter()
+                .chain(sel.near_misses.items.iter())
+                .find(|c| &c.name == n)
+                .cloned(),
+            None => sel.lists[0].items.first().cloned(),
+        };
+        let c = pick.ok_or_else(|| match &a.section {
+            Some(n) => Error::msg(format!("no section named '{n}' in the catalogue")),
+            None => Error::msg("no catalogue section passes: nothing to report (see `beamsift select` for the nearest misses)"),
+        })?;
+        let src = format!(
+            "catalogue {} line {}; {}",
+            sel.files.get(c.file).cloned().unwrap_or_default(),
+            c.line,
+            if c.shape.is_some() {
+                "properties computed from its dimensions (given values used where the row has them)"
+            } else {
+                "properties as given by the row"
+            }
+        );
+        let alts = if a.section.is_none() {
+            alternatives(&sel.lists[0].items, &c.name, sys)
+        } else {
+            None
+        };
+        (c.name.clone(), c.properties.clone(), c.mass, src, alts)
+    };
+    let (md, html) = write(&job, &prep, &name, &props, mass, &source, alts, sys, &a.to)?;
+    emit(
+        out,
+        &format!(
+            "Wrote {} and {} for {name}.\n",
+            md.display(),
+            html.display()
+        ),
+    )?;
+    Ok(0)
+}
