@@ -178,6 +178,21 @@ impl Source<'_> {
     }
 }
 
+/// Read a text file (a job file), reporting invalid UTF-8 as bad input at
+/// its line and column rather than as an I/O failure.
+pub fn read_text(path: &std::path::Path, shown: &str) -> Result<String> {
+    let bytes = std::fs::read(path).map_err(|e| Error::io(shown, e))?;
+    String::from_utf8(bytes).map_err(|e| {
+        let good = &e.as_bytes()[..e.utf8_error().valid_up_to()];
+        let line = good.iter().filter(|b| **b == b'\n').count() as u64 + 1;
+        let col = good.iter().rev().take_while(|b| **b != b'\n').count() as u64 + 1;
+        Error::input(
+            Location::in_file(shown).with_line(line).with_column(col),
+            "not valid UTF-8 text: save the file as UTF-8",
+        )
+    })
+}
+
 /// Parse a deflection limit like `L/360`.
 pub fn parse_ratio(s: &str) -> Result<f64> {
     let t = s.trim().replace(' ', "");

@@ -154,3 +154,59 @@ fn output_file_is_written_whole() {
     let leftovers: Vec<_> = std::fs::read_dir(dir.path()).unwrap().collect();
     assert_eq!(leftovers.len(), 1, "no temporary file left behind");
 }
+
+#[test]
+fn outputs_are_never_lost() {
+    let dir = tempfile::tempdir().unwrap();
+    let out = dir.path().join("result.json");
+    std::fs::write(&out, "precious").unwrap();
+    // An existing output is kept unless --force.
+    let o = run(&[
+        &["section"],
+        &IPE300[..],
+        &["--json", "-o", out.to_str().unwrap()],
+    ]
+    .concat());
+    assert_eq!(o.status.code(), Some(2));
+    assert!(text(&o).1.contains("--force"));
+    assert_eq!(std::fs::read_to_string(&out).unwrap(), "precious");
+    let o = run(&[
+        &["section"],
+        &IPE300[..],
+        &["--json", "--force", "-o", out.to_str().unwrap()],
+    ]
+    .concat());
+    assert!(o.status.success());
+    assert!(
+        std::fs::read_to_string(&out)
+            .unwrap()
+            .contains("properties")
+    );
+    // An output that is an input is refused, even with --force.
+    let cat = dir.path().join("cat.csv");
+    std::fs::copy(repo("catalogs/demo-steel.csv"), &cat).unwrap();
+    let before = std::fs::read(&cat).unwrap();
+    let job = repo("catalogs/demo-job.toml");
+    let o = run(&[
+        "select",
+        "--job",
+        job.to_str().unwrap(),
+        "-c",
+        cat.to_str().unwrap(),
+        "--force",
+        "-o",
+        cat.to_str().unwrap(),
+    ]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(text(&o).1.contains("input"));
+    assert_eq!(std::fs::read(&cat).unwrap(), before);
+    // A folder that does not exist is a clear error.
+    let o = run(&[
+        &["section"],
+        &IPE300[..],
+        &["-o", "/nonexistent-folder/x.txt"],
+    ]
+    .concat());
+    assert_eq!(o.status.code(), Some(2));
+    assert!(text(&o).1.contains("does not exist"));
+}

@@ -299,6 +299,21 @@ fn impossible_shapes_are_refused() {
     }
 }
 
+proptest! {
+    /// The closed-form welded I equals the exact integration of its plates.
+    #[test]
+    fn welded_i_closed_form_equals_integration(bf in 50.0..600.0f64, tf in 3.0..60.0f64, hw in 100.0..2000.0f64, tw in 3.0..30.0f64) {
+        prop_assume!(bf >= tw);
+        let a = Shape::WeldedI { bf, tf, hw, tw }.properties().unwrap();
+        let b = beamsift::section::ishape::properties_welded_integrated(bf, tf, hw, tw);
+        for (x, y) in [(a.area, b.area), (a.ix, b.ix), (a.iy.unwrap(), b.iy.unwrap()), (a.zx.unwrap(), b.zx.unwrap()),
+                       (a.q_na.unwrap(), b.q_na.unwrap()), (a.s_top, b.s_top), (a.j.unwrap(), b.j.unwrap()), (a.cw.unwrap(), b.cw.unwrap()),
+                       (a.t_na.unwrap(), b.t_na.unwrap()), (a.y_c, b.y_c)] {
+            prop_assert!(rel(x, y) < 1e-11, "{} vs {}", x, y);
+        }
+    }
+}
+
 fn shapes() -> impl Strategy<Value = Shape> {
     prop_oneof![
         (1.0..500.0f64, 1.0..1500.0f64).prop_map(|(b, d)| Shape::Rect { b, d }),

@@ -55,12 +55,12 @@ fn scan_text(
     opts: &ScanOptions,
 ) -> beamsift::Result<search::Selection> {
     let prep = Prepared::new(beam, mat.clone(), Criteria::default())?;
-    let cat = read::open(csv.as_bytes(), "test.csv", &ReadOptions::default())?;
     let mats = Materials {
         base: mat,
         grades: &[],
     };
-    search::scan(&prep, vec![cat], &mats, opts, &|_, _| {})
+    let open = || read::open(csv.as_bytes(), "test.csv", &ReadOptions::default()).map(|c| vec![c]);
+    search::scan_checked(&prep, &open, &mats, opts, &|_, _| {})
 }
 
 /// Worked example by hand (standard formulas, simple span, uniform load):

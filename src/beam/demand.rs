@@ -152,14 +152,53 @@ pub fn element_extremes(q: Quantity, c: &Coef, l: f64) -> Extremes {
             }
         }
         Quantity::Deflection => {
-            // Roots of the slope (a quartic): bracket on 8 sub-intervals,
-            // then Newton safeguarded by bisection.
-            const K: usize = 8;
-            let h = l / K as f64;
+            // Exact bracketing: the slope θ has θ' = −M, so θ is monotone
+            // between the roots of M, and M is monotone between the roots of
+            // V (a quadratic, solved in closed form). So each piece between
+            // consecutive roots of M holds at most one root of θ.
+            let mut cuts = [0.0f64; 8];
+            let mut n = 0;
+            let push_cut = |x: f64, cuts: &mut [f64; 8], n: &mut usize| {
+                if x > 0.0 && x < l && *n < 8 {
+                    cuts[*n] = x;
+                    *n += 1;
+                }
+            };
+            // Pieces where M is monotone.
+            let mut vcuts = [0.0f64, l, l, l];
+            let mut nv = 1;
+            for r in quadratic_roots(3.0 * c[3], 2.0 * c[2], c[1])
+                .into_iter()
+                .flatten()
+            {
+                if r > 0.0 && r < l {
+                    vcuts[nv] = r;
+                    nv += 1;
+                }
+            }
+            vcuts[..nv].sort_by(f64::total_cmp);
+            vcuts[nv] = l;
+            for w in 0..nv {
+                let (a, b) = (vcuts[w], vcuts[w + 1]);
+                let (ma, mb) = (solve::moment(c, a), solve::moment(c, b));
+                if ma * mb < 0.0 {
+                    let r = if c[3] == 0.0 {
+                        // M quadratic: closed form, the root inside [a, b].
+                        quadratic_roots(c[2], c[1], c[0])
+                            .into_iter()
+                            .flatten()
+                            .find(|r| *r >= a && *r <= b)
+                            .unwrap_or(0.5 * (a + b))
+                    } else {
+                        moment_root(c, a, b, ma)
+                    };
+                    push_cut(r, &mut cuts, &mut n);
+                }
+            }
+            cuts[..n].sort_by(f64::total_cmp);
             let mut s0 = 0.0;
             let mut t0 = solve::slope(c, 0.0);
-            for i in 1..=K {
-                let s1 = if i == K { l } else { i as f64 * h };
+            for &s1 in cuts[..n].iter().chain(std::iter::once(&l)) {
                 let t1 = solve::slope(c, s1);
                 if t0 == 0.0 {
                     e.push(solve::deflection(c, s0), s0);
@@ -175,9 +214,61 @@ pub fn element_extremes(q: Quantity, c: &Coef, l: f64) -> Extremes {
     e
 }
 
+/// Real roots of a·x² + b·x + c (numerically stable form); a linear
+/// equation when a is negligible.
+#[inline]
+fn quadratic_roots(a: f64, b: f64, c: f64) -> [Option<f64>; 2] {
+    let scale = a.abs().max(b.abs()).max(c.abs());
+    if scale == 0.0 {
+        return [None, None];
+    }
+    if a.abs() <= 1e-14 * scale {
+        return [if b != 0.0 { Some(-c / b) } else { None }, None];
+    }
+    let disc = b * b - 4.0 * a * c;
+    if disc < 0.0 {
+        return [None, None];
+    }
+    let q = -0.5 * (b + b.signum() * disc.sqrt());
+    if q == 0.0 {
+        return [Some(0.0), None];
+    }
+    [Some(q / a), Some(c / q)]
+}
+
+/// A root of M in [a, b] where M changes sign and is monotone.
+fn moment_root(c: &Coef, mut a: f64, mut b: f64, ma: f64) -> f64 {
+    let sa = ma.signum();
+    let mut x = 0.5 * (a + b);
+    let tol = 1e-12 * (b - a);
+    for _ in 0..80 {
+        let m = solve::moment(c, x);
+        if m == 0.0 {
+            return x;
+        }
+        if m.signum() == sa {
+            a = x;
+        } else {
+            b = x;
+        }
+        let v = solve::shear(c, x);
+        let xn = if v != 0.0 { x - m / v } else { f64::NAN };
+        let next = if xn > a && xn < b { xn } else { 0.5 * (a + b) };
+        if (next - x).abs() <= tol || b - a <= tol {
+            return next;
+        }
+        x = next;
+    }
+    x
+}
+
+/// A root of the slope in [a, b] (a sign change), by Newton's method
+/// safeguarded with bisection. The deflection is flat at its extreme, so a
+/// position good to 1e-10 of the interval gives the value to round-off.
 fn bracketed_root(c: &Coef, mut a: f64, mut b: f64, ta: f64) -> f64 {
     let mut x = 0.5 * (a + b);
     let sa = ta.signum();
+    let tol = 1e-10 * (b - a);
     for _ in 0..60 {
         let t = solve::slope(c, x);
         if t == 0.0 {
@@ -192,7 +283,7 @@ fn bracketed_root(c: &Coef, mut a: f64, mut b: f64, ta: f64) -> f64 {
         let d = -solve::moment(c, x);
         let xn = if d != 0.0 { x - t / d } else { f64::NAN };
         let next = if xn > a && xn < b { xn } else { 0.5 * (a + b) };
-        if (next - x).abs() <= 1e-14 * (1.0 + x.abs()) || (b - a) <= 1e-13 * (1.0 + b.abs()) {
+        if (next - x).abs() <= tol || (b - a) <= tol {
             return next;
         }
         x = next;
@@ -202,7 +293,7 @@ fn bracketed_root(c: &Coef, mut a: f64, mut b: f64, ta: f64) -> f64 {
 
 /// Interior stations per element used to locate envelope extremes under
 /// pattern loading (before exact refinement).
-const PATTERN_STATIONS: usize = 8;
+const PATTERN_STATIONS: usize = 5;
 
 impl Demand {
     /// Analyse every case, the unit self-weight, and every combination.

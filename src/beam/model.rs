@@ -294,6 +294,18 @@ impl Beam {
         let tol = 1e-9 * length;
         for l in &self.loads {
             let bad = |msg: String| Error::msg(msg).in_field(&l.label);
+            // Supported magnitudes: 10⁹ kN/m, 10⁹ kN, 10⁹ kN·m — far beyond
+            // any beam, but keeping every product finite.
+            let (mag, limit, what) = match l.kind {
+                LoadKind::Distributed { w1, w2, .. } => (w1.abs().max(w2.abs()), 1e9, "10⁹ kN/m"),
+                LoadKind::Point { p, .. } => (p.abs(), 1e12, "10⁹ kN"),
+                LoadKind::Moment { m, .. } => (m.abs(), 1e15, "10⁹ kN·m"),
+            };
+            if mag > limit {
+                return Err(bad(format!(
+                    "the load is outside the supported range (up to {what})"
+                )));
+            }
             if l.case >= self.cases.len() {
                 return Err(Error::Internal(format!("{} names a missing case", l.label)));
             }

@@ -12,13 +12,14 @@
 //! This module parses headers and rows; it does not open files (see
 //! `read`), and it does not check sections against loads.
 
+pub mod generate;
 pub mod read;
 
 use crate::check::Material;
 use crate::error::{Error, Location, Result};
 use crate::section::spec::normalise_family;
 use crate::section::{Given, Properties, Shape};
-use crate::units::{self, Dim};
+use crate::units::{self, Dim, fmt_num};
 
 /// What a column holds.
 #[derive(Clone, Debug, PartialEq)]
@@ -30,8 +31,8 @@ pub enum Col {
     Stock,
     /// Ignored (a column whose name starts with "note").
     Note,
-    /// A shape dimension (key, mm per unit).
-    Dim(&'static str, f64),
+    /// A shape dimension (index into `DIMS`, mm per unit).
+    Dim(usize, f64),
     /// A property (key, internal units per unit).
     Prop(Prop, f64),
     /// Cost per length (currency per mm, per unit).
@@ -67,6 +68,21 @@ const DIMS: &[&str] = &[
     "d", "b", "h", "bf", "tf", "tw", "hw", "r", "t", "r_out", "bf_top", "tf_top", "bf_bot",
     "tf_bot",
 ];
+// Indices into DIMS (the per-row path looks dimensions up by index).
+const D: usize = 0;
+const B: usize = 1;
+const H: usize = 2;
+const BF: usize = 3;
+const TF: usize = 4;
+const TW: usize = 5;
+const HW: usize = 6;
+const R: usize = 7;
+const T: usize = 8;
+const R_OUT: usize = 9;
+const BF_TOP: usize = 10;
+const TF_TOP: usize = 11;
+const BF_BOT: usize = 12;
+const TF_BOT: usize = 13;
 
 /// Known column names, for error messages.
 pub const KNOWN: &str = "name, shape, series, grade, stock, cost [CUR/m], dimensions (d, b, h, bf, tf, tw, hw, r, t, r_out, bf_top, tf_top, bf_bot, tf_bot), \
@@ -186,7 +202,7 @@ impl Schema {
                     )),
                 },
                 k => {
-                    let dim = DIMS.iter().find(|d| **d == k).copied();
+                    let dim = DIMS.iter().position(|d| *d == k);
                     let need_unit = |dim: Dim| -> Result<f64> {
                         match &unit {
                             Some(u) => units::unit_factor(u, dim),
@@ -326,10 +342,68 @@ fn cell_err(column: usize, schema: &Schema, message: String) -> CellError {
     }
 }
 
-/// Parse a number cell (fast path: plain decimal).
+const POW10: [f64; 23] = [
+    1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16,
+    1e17, 1e18, 1e19, 1e20, 1e21, 1e22,
+];
+
+/// Parse a number cell straight from its bytes. Fast path (Clinger 1990,
+/// "How to read floating point numbers accurately"): a plain decimal with
+/// at most 15 significant digits is an exact integer m and an exact power
+/// of ten, so m / 10^k is correctly rounded by one IEEE division. Anything
+/// else (exponents, long mantissas) goes to the standard library parser.
 #[inline]
-fn number(s: &str) -> Option<f64> {
-    let v: f64 = s.parse().ok()?;
+pub fn number(cell: &[u8]) -> Option<f64> {
+    let mut b = cell;
+    while let [first, rest @ ..] = b {
+        if first.is_ascii_whitespace() {
+            b = rest
+        } else {
+            break;
+        }
+    }
+    while let [rest @ .., last] = b {
+        if last.is_ascii_whitespace() {
+            b = rest
+        } else {
+            break;
+        }
+    }
+    let (neg, digits) = match b {
+        [b'-', rest @ ..] => (true, rest),
+        [b'+', rest @ ..] => (false, rest),
+        _ => (false, b),
+    };
+    let mut m: u64 = 0;
+    let mut n_digits = 0;
+    let mut frac: Option<usize> = None;
+    let mut ok = !digits.is_empty();
+    for &c in digits {
+        match c {
+            b'0'..=b'9' => {
+                if m == 0 && c == b'0' && frac.is_none() {
+                    // leading zeros do not count
+                } else {
+                    n_digits += 1;
+                }
+                m = m.wrapping_mul(10).wrapping_add((c - b'0') as u64);
+                if let Some(f) = frac.as_mut() {
+                    *f += 1;
+                }
+            }
+            b'.' if frac.is_none() => frac = Some(0),
+            _ => {
+                ok = false;
+                break;
+            }
+        }
+    }
+    let k = frac.unwrap_or(0);
+    if ok && n_digits <= 15 && k <= 22 && digits != b"." {
+        let v = m as f64 / POW10[k];
+        return Some(if neg { -v } else { v });
+    }
+    let v: f64 = std::str::from_utf8(b).ok()?.parse().ok()?;
     v.is_finite().then_some(v)
 }
 
@@ -351,6 +425,36 @@ pub fn parse_row<'r>(
     let (mut name, mut series, mut grade, mut family) = ("", "", "", "");
     let mut own: [Option<f64>; 8] = [None; 8]; // E Fb Fbt Fbc Fv Fy density
     for (i, col) in schema.cols.iter().enumerate() {
+        if let Col::Dim(..) | Col::Prop(..) | Col::Cost(_) = col {
+            let bytes = rec.get(i).unwrap_or(b"");
+            if bytes.iter().all(u8::is_ascii_whitespace) {
+                continue;
+            }
+            let v = match number(bytes) {
+                Some(v) => v,
+                None => {
+                    let shown = String::from_utf8_lossy(bytes).trim().to_string();
+                    return Err(cell_err(
+                        i,
+                        schema,
+                        format!("'{shown}' is not a finite number"),
+                    ));
+                }
+            };
+            numeric(
+                col,
+                i,
+                v,
+                schema,
+                &mut given,
+                &mut dims,
+                &mut s_both,
+                &mut mass,
+                &mut cost,
+                &mut own,
+            )?;
+            continue;
+        }
         let raw =
             cell_str(rec, i).map_err(|_| cell_err(i, schema, "not valid UTF-8 text".into()))?;
         match col {
@@ -368,55 +472,7 @@ pub fn parse_row<'r>(
                     });
                 }
             }
-            Col::Dim(..) | Col::Prop(..) | Col::Cost(_) => {
-                if raw.is_empty() {
-                    continue;
-                }
-                let v = number(raw).ok_or_else(|| {
-                    cell_err(i, schema, format!("'{raw}' is not a finite number"))
-                })?;
-                let zero_ok = matches!(col, Col::Dim("r", _) | Col::Dim("r_out", _) | Col::Cost(_));
-                if v < 0.0 || (v == 0.0 && !zero_ok) {
-                    return Err(cell_err(
-                        i,
-                        schema,
-                        format!("{raw} is not valid: expected a value greater than zero"),
-                    ));
-                }
-                match *col {
-                    Col::Dim(k, f) => {
-                        let idx = DIMS.iter().position(|d| *d == k).unwrap_or(0);
-                        dims[idx] = (v * f, true);
-                    }
-                    Col::Cost(f) => cost = Some(v * f),
-                    Col::Prop(p, f) => {
-                        let v = v * f;
-                        match p {
-                            Prop::Area => given.area = Some(v),
-                            Prop::Ix => given.ix = Some(v),
-                            Prop::Iy => given.iy = Some(v),
-                            Prop::J => given.j = Some(v),
-                            Prop::Cw => given.cw = Some(v),
-                            Prop::S => s_both = Some(v),
-                            Prop::STop => given.s_top = Some(v),
-                            Prop::SBot => given.s_bot = Some(v),
-                            Prop::Zx => given.zx = Some(v),
-                            Prop::CTop => given.c_top = Some(v),
-                            Prop::CBot => given.c_bot = Some(v),
-                            Prop::Q => given.q_na = Some(v),
-                            Prop::Mass => mass = Some(v),
-                            Prop::E => own[0] = Some(v),
-                            Prop::Fb => own[1] = Some(v),
-                            Prop::Fbt => own[2] = Some(v),
-                            Prop::Fbc => own[3] = Some(v),
-                            Prop::Fv => own[4] = Some(v),
-                            Prop::Fy => own[5] = Some(v),
-                            Prop::Density => own[6] = Some(v),
-                        }
-                    }
-                    _ => {}
-                }
-            }
+            Col::Dim(..) | Col::Prop(..) | Col::Cost(_) => {}
         }
     }
     let name_col = schema.name.unwrap_or(0);
@@ -431,10 +487,7 @@ pub fn parse_row<'r>(
         given.s_top = given.s_top.or(Some(s));
         given.s_bot = given.s_bot.or(Some(s));
     }
-    let dim = |k: &str| {
-        let i = DIMS.iter().position(|d| *d == k).unwrap_or(0);
-        dims[i].1.then_some(dims[i].0)
-    };
+    let dim = |i: usize| dims[i].1.then_some(dims[i].0);
     let shape_col = schema.shape.unwrap_or(0);
     let shape = if family.is_empty() {
         None
@@ -519,11 +572,11 @@ pub fn parse_row<'r>(
                     "dimensions are given but no shape family".into(),
                 ));
             }
-            given.depth = dim("d").or(dim("h"));
-            given.width = dim("b").or(dim("bf"));
-            given.tw = dim("tw");
-            given.bf = dim("bf");
-            given.tf = dim("tf");
+            given.depth = dim(D).or(dim(H));
+            given.width = dim(B).or(dim(BF));
+            given.tw = dim(TW);
+            given.bf = dim(BF);
+            given.tf = dim(TF);
             given
                 .properties()
                 .map_err(|e| cell_err(name_col, schema, e.to_string()))?
@@ -634,14 +687,14 @@ fn prop_label(p: Prop) -> &'static str {
 /// not use are ignored, so one file can mix families.
 fn shape_direct(
     family: &str,
-    dim: &dyn Fn(&str) -> Option<f64>,
+    dim: &dyn Fn(usize) -> Option<f64>,
 ) -> std::result::Result<Shape, String> {
     let fam = normalise_family(family);
-    let need = |k: &str| -> std::result::Result<f64, String> {
-        dim(k).ok_or_else(|| format!("a {fam} needs the dimension '{k}'"))
+    let need = |k: usize| -> std::result::Result<f64, String> {
+        dim(k).ok_or_else(|| format!("a {fam} needs the dimension '{}'", DIMS[k]))
     };
     let web = |tf_top: f64, tf_bot: f64| -> std::result::Result<f64, String> {
-        match (dim("hw"), dim("d")) {
+        match (dim(HW), dim(D)) {
             (Some(hw), _) => Ok(hw),
             (None, Some(d)) if d > tf_top + tf_bot => Ok(d - tf_top - tf_bot),
             (None, Some(_)) => Err("the flanges fill the whole depth d".into()),
@@ -650,11 +703,11 @@ fn shape_direct(
     };
     let shape = match fam.as_str() {
         "rect" => Shape::Rect {
-            b: need("b")?,
-            d: need("d")?,
+            b: need(B)?,
+            d: need(D)?,
         },
         "welded-i" => {
-            let (bf, tf, tw) = (need("bf")?, need("tf")?, need("tw")?);
+            let (bf, tf, tw) = (need(BF)?, need(TF)?, need(TW)?);
             Shape::WeldedI {
                 bf,
                 tf,
@@ -663,19 +716,19 @@ fn shape_direct(
             }
         }
         "rolled-i" => Shape::RolledI {
-            d: need("d")?,
-            bf: need("bf")?,
-            tf: need("tf")?,
-            tw: need("tw")?,
-            r: dim("r").unwrap_or(0.0),
+            d: need(D)?,
+            bf: need(BF)?,
+            tf: need(TF)?,
+            tw: need(TW)?,
+            r: dim(R).unwrap_or(0.0),
         },
         "mono-i" => {
             let (bf_top, tf_top, bf_bot, tf_bot, tw) = (
-                need("bf_top")?,
-                need("tf_top")?,
-                need("bf_bot")?,
-                need("tf_bot")?,
-                need("tw")?,
+                need(BF_TOP)?,
+                need(TF_TOP)?,
+                need(BF_BOT)?,
+                need(TF_BOT)?,
+                need(TW)?,
             );
             Shape::MonoI {
                 bf_top,
@@ -687,16 +740,16 @@ fn shape_direct(
             }
         }
         "rhs" => Shape::Rhs {
-            b: need("b")?,
-            h: need("h")?,
-            t: need("t")?,
-            r_out: dim("r_out").or(dim("r")).unwrap_or(0.0),
+            b: need(B)?,
+            h: need(H)?,
+            t: need(T)?,
+            r_out: dim(R_OUT).or(dim(R)).unwrap_or(0.0),
         },
         "chs" => Shape::Chs {
-            d: need("d")?,
-            t: need("t")?,
+            d: need(D)?,
+            t: need(T)?,
         },
-        "round" => Shape::Round { d: need("d")? },
+        "round" => Shape::Round { d: need(D)? },
         _ => {
             return Err(format!(
                 "unknown shape '{family}': expected rect, welded-i, rolled-i, mono-i, rhs, chs or round"
@@ -705,4 +758,63 @@ fn shape_direct(
     };
     shape.validate().map_err(|e| e.to_string())?;
     Ok(shape)
+}
+
+/// Store one numeric cell's value (in its header unit) in the row being built.
+#[allow(clippy::too_many_arguments)]
+#[inline]
+fn numeric(
+    col: &Col,
+    i: usize,
+    v: f64,
+    schema: &Schema,
+    given: &mut Given,
+    dims: &mut [(f64, bool); 14],
+    s_both: &mut Option<f64>,
+    mass: &mut Option<f64>,
+    cost: &mut Option<f64>,
+    own: &mut [Option<f64>; 8],
+) -> std::result::Result<(), CellError> {
+    let zero_ok = matches!(col, Col::Dim(R | R_OUT, _) | Col::Cost(_));
+    if v < 0.0 || (v == 0.0 && !zero_ok) {
+        return Err(cell_err(
+            i,
+            schema,
+            format!(
+                "{} is not valid: expected a value greater than zero",
+                fmt_num(v)
+            ),
+        ));
+    }
+    match *col {
+        Col::Dim(idx, f) => dims[idx] = (v * f, true),
+        Col::Cost(f) => *cost = Some(v * f),
+        Col::Prop(p, f) => {
+            let v = v * f;
+            match p {
+                Prop::Area => given.area = Some(v),
+                Prop::Ix => given.ix = Some(v),
+                Prop::Iy => given.iy = Some(v),
+                Prop::J => given.j = Some(v),
+                Prop::Cw => given.cw = Some(v),
+                Prop::S => *s_both = Some(v),
+                Prop::STop => given.s_top = Some(v),
+                Prop::SBot => given.s_bot = Some(v),
+                Prop::Zx => given.zx = Some(v),
+                Prop::CTop => given.c_top = Some(v),
+                Prop::CBot => given.c_bot = Some(v),
+                Prop::Q => given.q_na = Some(v),
+                Prop::Mass => *mass = Some(v),
+                Prop::E => own[0] = Some(v),
+                Prop::Fb => own[1] = Some(v),
+                Prop::Fbt => own[2] = Some(v),
+                Prop::Fbc => own[3] = Some(v),
+                Prop::Fv => own[4] = Some(v),
+                Prop::Fy => own[5] = Some(v),
+                Prop::Density => own[6] = Some(v),
+            }
+        }
+        _ => {}
+    }
+    Ok(())
 }

@@ -132,7 +132,7 @@ fn bill_table(title: &str, bill: &[BoqLine], sys: System, cur: &str) -> Table {
 pub fn run(a: Args, out: &Out) -> Result<i32> {
     let sys = out.units;
     let shown = a.job.display().to_string();
-    let text = std::fs::read_to_string(&a.job).map_err(|e| Error::io(&shown, e))?;
+    let text = beamsift::job::read_text(&a.job, &shown)?;
     let template = job::from_toml(&text, &shown)?;
     let n_live = job::parse_ratio(&a.limit_live).map_err(|e| e.in_field("--limit-live"))?;
     let n_total = job::parse_ratio(&a.limit_total).map_err(|e| e.in_field("--limit-total"))?;

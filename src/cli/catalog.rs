@@ -8,7 +8,7 @@ use beamsift::check::Material;
 use beamsift::error::{Error, Result};
 use beamsift::job;
 use beamsift::report::{self, Align, Document, Table};
-use beamsift::units::Show;
+use beamsift::units::{self, Dim, Show};
 use serde::Serialize;
 use std::path::PathBuf;
 
@@ -18,6 +18,91 @@ pub enum Cmd {
     Validate(FileArgs),
     /// List a catalogue with its computed properties.
     Show(FileArgs),
+    /// Write a catalogue of every combination of given plates or timber sizes.
+    #[command(after_help = GENERATE_EXAMPLES)]
+    Generate(Box<GenerateArgs>),
+}
+
+pub const GENERATE_EXAMPLES: &str = "Examples:
+  beamsift catalog generate welded-i --bf 150..400:10mm --tf 8,10,12,15,20,25mm --hw 300..900:10mm \\
+      --tw 6,8,10,12mm --Fy 345MPa --price-per-kg 1.25 -o plates.csv
+  beamsift catalog generate rect --b 38,47,63,75mm --d 100..300:25mm --grades T1=650,T2=780 --max-aspect 5 -o timber.csv
+
+Ranges are START..END:STEP with a unit; lists are comma-separated with a unit at the end.
+Rules for welded I: tw <= tf and bf <= hw (common practice), plus the slenderness limits
+(--lambda-f/--lambda-w, or AISC 360-16 Table B4.1b compact limits from --Fy and --E).";
+
+#[derive(clap::Args, Debug)]
+pub struct GenerateArgs {
+    /// welded-i or rect.
+    pub family: String,
+    #[arg(long)]
+    pub bf: Option<String>,
+    #[arg(long)]
+    pub tf: Option<String>,
+    #[arg(long)]
+    pub hw: Option<String>,
+    #[arg(long)]
+    pub tw: Option<String>,
+    /// Rectangle widths.
+    #[arg(long)]
+    pub b: Option<String>,
+    /// Rectangle depths.
+    #[arg(long)]
+    pub d: Option<String>,
+    /// Timber grades with an optional price per m³: T1=650,T2=780.
+    #[arg(long)]
+    pub grades: Option<String>,
+    #[arg(long = "max-aspect")]
+    pub max_aspect: Option<f64>,
+    #[arg(long = "lambda-f")]
+    pub lambda_f: Option<f64>,
+    #[arg(long = "lambda-w")]
+    pub lambda_w: Option<f64>,
+    /// Yield stress, for default compact slenderness limits.
+    #[arg(long = "Fy")]
+    pub fy: Option<String>,
+    /// Modulus of elasticity for the slenderness limits.
+    #[arg(long = "E", default_value = "200GPa")]
+    pub e: String,
+    #[arg(long, default_value = "7850kg/m3")]
+    pub density: String,
+    #[arg(long = "price-per-kg")]
+    pub price_per_kg: Option<f64>,
+    #[arg(long, default_value = "EUR")]
+    pub currency: String,
+}
+
+/// A list "6,8,10mm" or a range "150..400:10mm".
+fn sizes(text: &Option<String>, name: &str) -> Result<Vec<f64>> {
+    let t = text
+        .as_deref()
+        .ok_or_else(|| Error::msg(format!("--{name} is required for this family")))?;
+    if let Some((range, step)) = t.split_once(':')
+        && let Some((a, b)) = range.split_once("..")
+    {
+        let unit: String = step
+            .trim_start_matches(|c: char| c.is_ascii_digit() || c == '.')
+            .to_string();
+        let p = |v: &str| {
+            let v = v.trim();
+            let v = if v.chars().last().is_some_and(|c| c.is_ascii_digit()) {
+                format!("{v}{unit}")
+            } else {
+                v.to_string()
+            };
+            units::parse(&v, Dim::Length).map_err(|e| e.in_field(&format!("--{name}")))
+        };
+        let (lo, hi, st) = (p(a)?, p(b)?, p(step)?);
+        if !(st > 0.0 && hi >= lo) {
+            return Err(Error::msg(format!(
+                "--{name}: expected START..END:STEP with END ≥ START and STEP > 0"
+            )));
+        }
+        let n = ((hi - lo) / st + 1e-9).floor() as usize;
+        return Ok((0..=n).map(|k| lo + k as f64 * st).collect());
+    }
+    super::optimise::parse_list(t, &format!("--{name}"))
 }
 
 #[derive(clap::Args, Debug)]
@@ -40,7 +125,7 @@ fn materials(a: &FileArgs) -> Result<MaterialsFound> {
     match &a.job {
         Some(p) => {
             let shown = p.display().to_string();
-            let text = std::fs::read_to_string(p).map_err(|e| Error::io(&shown, e))?;
+            let text = beamsift::job::read_text(p, &shown)?;
             let j = job::from_toml(&text, &shown)?;
             Ok((j.material, j.grades, true))
         }
@@ -121,6 +206,7 @@ pub fn run(cmd: Cmd, out: &Out) -> Result<i32> {
                 Ok(2)
             }
         }
+        Cmd::Generate(a) => generate(*a, out),
         Cmd::Show(a) => {
             let (base, grades, _) = materials(&a)?;
             let mut cat = open(&a)?;
@@ -210,4 +296,81 @@ pub fn run(cmd: Cmd, out: &Out) -> Result<i32> {
             Ok(if errors.is_empty() { 0 } else { 2 })
         }
     }
+}
+
+fn generate(a: GenerateArgs, out: &Out) -> Result<i32> {
+    use beamsift::catalog::generate::{self, Spec};
+    let spec = match beamsift::section::spec::normalise_family(&a.family).as_str() {
+        "welded-i" => {
+            let e = units::parse(&a.e, Dim::Stress).map_err(|e| e.in_field("--E"))?;
+            let fy =
+                a.fy.as_deref()
+                    .map(|t| units::parse(t, Dim::Stress).map_err(|e| e.in_field("--Fy")))
+                    .transpose()?;
+            let (df, dw) = fy
+                .map(|fy| {
+                    beamsift::optimise::default_slenderness(
+                        beamsift::optimise::Family::WeldedI,
+                        e,
+                        fy,
+                    )
+                })
+                .unwrap_or((None, None));
+            Spec::WeldedI {
+                bf: sizes(&a.bf, "bf")?,
+                tf: sizes(&a.tf, "tf")?,
+                hw: sizes(&a.hw, "hw")?,
+                tw: sizes(&a.tw, "tw")?,
+                lambda_f: a.lambda_f.or(df),
+                lambda_w: a.lambda_w.or(dw),
+                density: units::parse(&a.density, Dim::Density)
+                    .map_err(|e| e.in_field("--density"))?,
+                price_per_kg: a.price_per_kg,
+            }
+        }
+        "rect" => {
+            let grades = match &a.grades {
+                Some(g) => g
+                    .split(',')
+                    .map(|p| match p.split_once('=') {
+                        Some((n, r)) => {
+                            units::parse_number(r).map(|r| (n.trim().to_string(), Some(r)))
+                        }
+                        None => Ok((p.trim().to_string(), None)),
+                    })
+                    .collect::<Result<Vec<_>>>()
+                    .map_err(|e| e.in_field("--grades"))?,
+                None => vec![(String::new(), None)],
+            };
+            Spec::Rect {
+                b: sizes(&a.b, "b")?,
+                d: sizes(&a.d, "d")?,
+                grades,
+                max_aspect: a.max_aspect,
+            }
+        }
+        other => {
+            return Err(Error::msg(format!(
+                "catalog generate: '{other}' is not supported: expected welded-i or rect"
+            )));
+        }
+    };
+    let n = match &out.path {
+        Some(p) => {
+            let mut f = super::output::AtomicFile::create(p)?;
+            let n = generate::generate(&spec, &a.currency, f.writer())?;
+            f.commit()?;
+            eprintln!("beamsift: wrote {n} rows to {}", p.display());
+            n
+        }
+        None => {
+            let stdout = std::io::stdout();
+            let mut lock = std::io::BufWriter::new(stdout.lock());
+            generate::generate(&spec, &a.currency, &mut lock)?
+        }
+    };
+    if n == 0 {
+        eprintln!("beamsift: warning: no combination satisfied the rules");
+    }
+    Ok(0)
 }

@@ -27,15 +27,12 @@ pub struct Args {
     /// Also write a calculation sheet: PREFIX.md and PREFIX.html.
     #[arg(long, value_name = "PREFIX")]
     pub report: Option<std::path::PathBuf>,
-    /// Overwrite existing report files.
-    #[arg(long)]
-    pub force: bool,
 }
 
 pub fn run(a: Args, out: &Out) -> beamsift::Result<i32> {
     let shape = shape_from_pairs(&a.shape, &split_pairs(&a.dims)?)?;
     if let Some(p) = &a.report {
-        super::report::check_paths(p, a.force, &a.job.job.iter().cloned().collect::<Vec<_>>())?;
+        super::report::check_paths(p, out.force, &a.job.job.iter().cloned().collect::<Vec<_>>())?;
     }
     let job = a.job.load()?;
     let props = shape.properties()?;

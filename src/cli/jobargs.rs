@@ -91,7 +91,7 @@ impl JobArgs {
                 ));
             }
             let shown = path.display().to_string();
-            let text = std::fs::read_to_string(path).map_err(|e| Error::io(&shown, e))?;
+            let text = beamsift::job::read_text(path, &shown)?;
             let mut job = job::from_toml(&text, &shown)?;
             if let Some(b) = &self.bracing {
                 job.criteria.bracing = flag(job::parse_bracing(b), "--bracing")?;

@@ -78,10 +78,20 @@ pub enum Command {
     Catalog(catalog::Cmd),
 }
 
-/// Run and map the outcome to an exit code.
+/// Run and map the outcome to an exit code. A panic is a bug: it is
+/// reported as an internal error with exit code 4, never as a result.
 pub fn main() -> i32 {
+    std::panic::set_hook(Box::new(|info| {
+        eprintln!(
+            "beamsift: internal error (please report it, with the command and input): {info}"
+        );
+    }));
     let cli = Cli::parse();
-    match run(cli) {
+    let outcome = std::panic::catch_unwind(std::panic::AssertUnwindSafe(|| run(cli)));
+    let Ok(outcome) = outcome else {
+        return 4;
+    };
+    match outcome {
         Ok(code) => code,
         Err(e) => {
             if let Error::Io { source, .. } = &e
@@ -122,6 +132,8 @@ pub struct Out {
     pub units: System,
     pub format: Format,
     pub path: Option<std::path::PathBuf>,
+    /// Overwrite existing output files.
+    pub force: bool,
 }
 
 #[cfg(test)]

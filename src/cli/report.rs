@@ -36,9 +36,6 @@ pub struct Args {
     /// Output prefix: writes PREFIX.md and PREFIX.html.
     #[arg(long, default_value = "beamsift-report")]
     pub to: PathBuf,
-    /// Overwrite existing report files.
-    #[arg(long)]
-    pub force: bool,
     /// Or a shape: family then key=value dimensions.
     #[arg(value_name = "SHAPE KEY=VALUE")]
     pub shape: Vec<String>,
@@ -143,7 +140,7 @@ pub fn alternatives(list: &[Candidate], skip: &str, sys: System) -> Option<Table
 pub fn run(a: Args, out: &Out) -> Result<i32> {
     let mut inputs = a.catalog.clone();
     inputs.extend(a.job.job.clone());
-    check_paths(&a.to, a.force, &inputs)?;
+    check_paths(&a.to, out.force, &inputs)?;
     let job = a.job.load()?;
     let prep = prepare(&job)?;
     let sys = out.units;

@@ -45,9 +45,6 @@ pub struct Args {
     /// Also write a calculation sheet for the best section: PREFIX.md and PREFIX.html.
     #[arg(long, value_name = "PREFIX")]
     pub report: Option<std::path::PathBuf>,
-    /// Overwrite existing report files.
-    #[arg(long)]
-    pub force: bool,
 }
 
 #[derive(clap::Args, Debug)]
@@ -147,8 +144,11 @@ pub(crate) fn run_scan(
         base: &job.material,
         grades: &job.grades,
     };
+    drop(cats);
     let pb = progress::bytes_bar(bytes, cat.quiet);
-    let sel = search::scan(prep, cats, &mats, opts, &|_, b| pb.set_position(b))?;
+    // The files are opened again for the exact duplicate confirmation.
+    let open = || cat.open().map(|(c, _)| c);
+    let sel = search::scan_checked(prep, &open, &mats, opts, &|_, b| pb.set_position(b))?;
     pb.finish_and_clear();
     Ok((sel, currency(job, &currencies)))
 }
@@ -235,7 +235,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     if let Some(p) = &a.report {
         let mut inputs = a.cat.catalog.clone();
         inputs.extend(a.job.job.clone());
-        super::report::check_paths(p, a.force, &inputs)?;
+        super::report::check_paths(p, out.force, &inputs)?;
     }
     let job = a.job.load()?;
     let prep = prepare(&job)?;

@@ -20,7 +20,6 @@ use rayon::prelude::*;
 use serde::{Deserialize, Serialize};
 use std::cmp::Ordering;
 use std::collections::HashSet;
-use std::hash::{Hash, Hasher};
 use std::io::Read;
 
 /// Ranking criterion.
@@ -242,12 +241,26 @@ pub struct Selection {
     /// Problems in skipped rows (the first 100).
     pub skipped: Vec<String>,
     pub files: Vec<String>,
+    /// Names that may be duplicates (confirmed by `scan_checked`).
+    pub suspects: Vec<Suspect>,
 }
 
+/// What the parallel phase hands to the merge: small, so moving a chunk
+/// of them is cheap. A row that enters a list is parsed again to build
+/// its candidate (rare after the first chunks).
 enum Outcome<'r> {
     Bad(u64, usize, String),
     Filtered,
-    Checked(Box<Row<'r>>, crate::check::Summary),
+    Excluded,
+    Checked {
+        name: &'r str,
+        /// The duplicate filter had seen this name.
+        suspect: bool,
+        mass: f64,
+        depth: f64,
+        cost: Option<f64>,
+        summary: crate::check::Summary,
+    },
 }
 
 fn to_candidate(row: &Row<'_>, s: &crate::check::Summary, file: usize, line: u64) -> Candidate {
@@ -272,10 +285,118 @@ fn to_candidate(row: &Row<'_>, s: &crate::check::Summary, file: usize, line: u64
     }
 }
 
+/// The ranking key of a row that has not been materialised yet.
+struct KeyRef<'a> {
+    mass: f64,
+    depth: f64,
+    cost: Option<f64>,
+    utilisation: f64,
+    name: &'a str,
+    file: usize,
+    line: u64,
+}
+
+impl KeyRef<'_> {
+    fn key(&self, rank: Rank) -> f64 {
+        match rank {
+            Rank::Mass => self.mass,
+            Rank::Cost => self.cost.unwrap_or(f64::INFINITY),
+            Rank::Depth => self.depth,
+            Rank::Utilisation => -self.utilisation,
+        }
+    }
+    /// Same order as `compare`, against a materialised candidate.
+    fn cmp(&self, rank: Rank, b: &Candidate) -> Ordering {
+        self.key(rank)
+            .total_cmp(&key(rank, b))
+            .then(self.mass.total_cmp(&b.mass))
+            .then(self.depth.total_cmp(&b.depth))
+            .then_with(|| self.name.cmp(b.name.as_str()))
+            .then(self.file.cmp(&b.file))
+            .then(self.line.cmp(&b.line))
+    }
+}
+
+impl TopList {
+    fn wants_key(&self, k: &KeyRef<'_>) -> bool {
+        self.items.len() < self.limit
+            || self
+                .items
+                .last()
+                .is_some_and(|l| k.cmp(self.rank, l) == Ordering::Less)
+    }
+}
+
+/// A fixed-size Bloom filter over section names: 2^27 bits (16 MiB) in
+/// 64-bit words, 8 probes inside one word chosen by the name's hash. One
+/// word per name means one memory access and an atomic `fetch_or`, so the
+/// worker threads insert in parallel, and of two equal names the later
+/// insert always sees the earlier's bits (no duplicate is missed). A hit
+/// only makes a name a suspect; suspects are confirmed exactly by a second
+/// reading of the file (`confirm_duplicates`). Memory is constant; false
+/// hits stay rare (well under one per million rows) up to a few million rows.
+struct Bloom {
+    words: Vec<std::sync::atomic::AtomicU64>,
+}
+
+const BLOOM_WORDS: u64 = (1 << 27) / 64;
+
+/// A fast 64-bit hash of a name, eight bytes at a time (multiply–xorshift
+/// rounds, splitmix64 finish). Not for adversarial input: a collision only
+/// costs a confirmation read.
 fn name_hash(s: &str) -> u64 {
-    let mut h = std::collections::hash_map::DefaultHasher::new();
-    s.hash(&mut h);
-    h.finish()
+    let b = s.as_bytes();
+    let mut h = 0x243f_6a88_85a3_08d3u64 ^ (b.len() as u64);
+    let mut chunks = b.chunks_exact(8);
+    for c in chunks.by_ref() {
+        let w = u64::from_le_bytes([c[0], c[1], c[2], c[3], c[4], c[5], c[6], c[7]]);
+        h = (h ^ w).wrapping_mul(0x9e37_79b9_7f4a_7c15);
+        h ^= h >> 29;
+    }
+    let rest = chunks.remainder();
+    if !rest.is_empty() {
+        let mut w = [0u8; 8];
+        w[..rest.len()].copy_from_slice(rest);
+        h = (h ^ u64::from_le_bytes(w)).wrapping_mul(0x9e37_79b9_7f4a_7c15);
+        h ^= h >> 29;
+    }
+    h ^= h >> 30;
+    h = h.wrapping_mul(0xbf58_476d_1ce4_e5b9);
+    h ^= h >> 27;
+    h = h.wrapping_mul(0x94d0_49bb_1331_11eb);
+    h ^ (h >> 31)
+}
+
+impl Bloom {
+    fn new() -> Self {
+        let mut words = Vec::with_capacity(BLOOM_WORDS as usize);
+        words.resize_with(BLOOM_WORDS as usize, || {
+            std::sync::atomic::AtomicU64::new(0)
+        });
+        Bloom { words }
+    }
+    /// Insert; true if the name may have been seen before.
+    fn insert(&self, name: &str) -> bool {
+        let h = name_hash(name);
+        // Low 21 bits choose the word; the other 43 give the probes.
+        let word = &self.words[(h % BLOOM_WORDS) as usize];
+        let mut g = (h >> 21).wrapping_mul(0xff51_afd7_ed55_8ccd) ^ h;
+        let mut mask = 0u64;
+        for _ in 0..8 {
+            mask |= 1u64 << (g & 63);
+            g >>= 6;
+        }
+        let old = word.fetch_or(mask, std::sync::atomic::Ordering::Relaxed);
+        old & mask == mask
+    }
+}
+
+/// A name the Bloom filter flagged: (file index, name, line).
+#[derive(Clone, Debug, Serialize)]
+pub struct Suspect {
+    pub file: usize,
+    pub name: String,
+    pub line: u64,
 }
 
 /// Is `a` dominated by `b` on (mass, depth)?
@@ -283,13 +404,44 @@ fn dominated(a: &Candidate, b: &Candidate) -> bool {
     b.mass <= a.mass && b.depth <= a.depth && (b.mass < a.mass || b.depth < a.depth)
 }
 
+fn dominated_by(mass: f64, depth: f64, b: &Candidate) -> bool {
+    b.mass <= mass && b.depth <= depth && (b.mass < mass || b.depth < depth)
+}
+
 /// Scan catalogues against a prepared job. `progress` is called after
-/// each chunk with the rows and bytes read so far (over all files).
+/// each chunk with the rows and bytes read so far (over all files). Rows in
+/// `exclude` ((file, line)) are skipped as bad. Names the duplicate filter
+/// flags are returned as suspects for `confirm_duplicates`.
 pub fn scan<R: Read + Send>(
     prep: &Prepared,
     catalogs: Vec<Catalog<R>>,
     mats: &Materials<'_>,
     opts: &ScanOptions,
+    progress: &(dyn Fn(u64, u64) + Sync),
+) -> Result<Selection> {
+    scan_excluding(prep, catalogs, mats, opts, &HashSet::new(), progress)
+}
+
+fn near_insert(near: &mut TopList, cand: Candidate) {
+    near.items.push(cand);
+    near.items.sort_by(|a, b| {
+        a.utilisation
+            .total_cmp(&b.utilisation)
+            .then(a.mass.total_cmp(&b.mass))
+            .then_with(|| a.name.cmp(&b.name))
+            .then(a.file.cmp(&b.file))
+            .then(a.line.cmp(&b.line))
+    });
+    near.items.truncate(near.limit);
+}
+
+/// `scan` with rows to leave out.
+pub fn scan_excluding<R: Read + Send>(
+    prep: &Prepared,
+    catalogs: Vec<Catalog<R>>,
+    mats: &Materials<'_>,
+    opts: &ScanOptions,
+    exclude: &HashSet<(usize, u64)>,
     progress: &(dyn Fn(u64, u64) + Sync),
 ) -> Result<Selection> {
     let mut done_bytes = 0u64;
@@ -299,122 +451,173 @@ pub fn scan<R: Read + Send>(
         .map(|&(r, n)| TopList::new(r, n))
         .collect();
     let mut near = TopList::new(Rank::Utilisation, opts.near);
-    // Near misses: lowest utilisation first.
     let mut pareto: Vec<Candidate> = Vec::new();
     let mut counts = Counts::default();
     let mut errors: Vec<Error> = Vec::new();
     let mut skipped = Vec::new();
     let mut files = Vec::new();
-    let mut buf: Vec<csv::ByteRecord> = Vec::new();
-    for (fi, mut cat) in catalogs.into_iter().enumerate() {
+    let mut suspects = Vec::new();
+    for (fi, cat) in catalogs.into_iter().enumerate() {
         files.push(cat.file.clone());
-        let mut names: HashSet<u64> = HashSet::new();
-        let name_col = cat
-            .schema
-            .cols
-            .iter()
-            .position(|c| *c == crate::catalog::Col::Name)
-            .unwrap_or(0);
-        loop {
-            let n = cat.next_chunk(&mut buf, opts.chunk)?;
-            if n == 0 {
-                break;
-            }
-            let schema = &cat.schema;
-            let outcomes: Vec<Outcome<'_>> = buf[..n]
-                .par_iter()
-                .map(|rec| match parse_row(schema, rec, mats) {
-                    Err(e) => Outcome::Bad(line_of(rec), e.column, e.message),
-                    Ok(row) => {
-                        if !opts.filters.admits(&row) {
-                            return Outcome::Filtered;
+        let bloom = Bloom::new();
+        let schema = cat.schema.clone();
+        let file = cat.file.clone();
+        let chunk = opts.chunk;
+        let rows_before = counts.rows;
+        // A reader thread fills the next chunk while this one is checked.
+        let read_bytes = std::thread::scope(|sc| -> Result<u64> {
+            let (tx, rx) =
+                std::sync::mpsc::sync_channel::<Result<(Vec<csv::ByteRecord>, usize, u64)>>(2);
+            let (back_tx, back_rx) = std::sync::mpsc::channel::<Vec<csv::ByteRecord>>();
+            let mut cat = cat;
+            let reader = sc.spawn(move || -> u64 {
+                loop {
+                    let mut buf = back_rx.try_recv().unwrap_or_default();
+                    match cat.next_chunk(&mut buf, chunk) {
+                        Ok(0) => return cat.reader.position().byte(),
+                        Ok(n) => {
+                            let pos = buf[n - 1].position().map(|p| p.byte()).unwrap_or(0);
+                            if tx.send(Ok((buf, n, pos))).is_err() {
+                                return 0;
+                            }
                         }
-                        let mat = mats.get(&row.material);
-                        let s =
-                            prep.check(SectionInput::new(&row.props, row.mass).with_material(mat));
-                        Outcome::Checked(Box::new(row), s)
-                    }
-                })
-                .collect();
-            for (rec, out) in buf[..n].iter().zip(outcomes) {
-                counts.rows += 1;
-                let line = line_of(rec);
-                match out {
-                    Outcome::Bad(line, col, msg) => {
-                        counts.bad += 1;
-                        let e = Error::input(
-                            Location::in_file(&cat.file)
-                                .with_line(line)
-                                .with_column(col as u64),
-                            msg,
-                        );
-                        if skipped.len() < 100 {
-                            skipped.push(e.to_string());
-                        }
-                        if errors.len() < 1000 {
-                            errors.push(e);
+                        Err(e) => {
+                            let _ = tx.send(Err(e));
+                            return 0;
                         }
                     }
-                    Outcome::Filtered => counts.filtered += 1,
-                    Outcome::Checked(row, s) => {
-                        if !names.insert(name_hash(row.name)) {
+                }
+            });
+            for msg in rx {
+                let (buf, n, pos) = msg?;
+                let schema = &schema;
+                let outcomes: Vec<Outcome<'_>> = buf[..n]
+                    .par_iter()
+                    .map(|rec| {
+                        if !exclude.is_empty() && exclude.contains(&(fi, line_of(rec))) {
+                            return Outcome::Excluded;
+                        }
+                        match parse_row(schema, rec, mats) {
+                            Err(e) => Outcome::Bad(line_of(rec), e.column, e.message),
+                            Ok(row) => {
+                                if !opts.filters.admits(&row) {
+                                    return Outcome::Filtered;
+                                }
+                                let mat = mats.get(&row.material);
+                                let s = prep.check(
+                                    SectionInput::new(&row.props, row.mass).with_material(mat),
+                                );
+                                Outcome::Checked {
+                                    name: row.name,
+                                    suspect: bloom.insert(row.name),
+                                    mass: row.mass,
+                                    depth: row.props.depth,
+                                    cost: row.cost,
+                                    summary: s,
+                                }
+                            }
+                        }
+                    })
+                    .collect();
+                for (rec, out) in buf[..n].iter().zip(outcomes) {
+                    counts.rows += 1;
+                    let line = line_of(rec);
+                    match out {
+                        Outcome::Bad(line, col, msg) => {
                             counts.bad += 1;
                             let e = Error::input(
-                                Location::in_file(&cat.file)
+                                Location::in_file(&file)
                                     .with_line(line)
-                                    .with_column(name_col as u64 + 1),
-                                format!("duplicate section name '{}'", row.name),
+                                    .with_column(col as u64),
+                                msg,
                             );
                             if skipped.len() < 100 {
                                 skipped.push(e.to_string());
                             }
-                            errors.push(e);
-                            continue;
+                            if errors.len() < 1000 {
+                                errors.push(e);
+                            }
                         }
-                        counts.checked += 1;
-                        if s.passes {
-                            counts.passing += 1;
-                            let cand = to_candidate(&row, &s, fi, line);
-                            if opts.pareto && !pareto.iter().any(|p| dominated(&cand, p)) {
-                                pareto.retain(|p| !dominated(p, &cand));
-                                pareto.push(cand.clone());
-                            }
-                            for l in lists.iter_mut() {
-                                if l.wants(&cand) {
-                                    l.insert(cand.clone());
-                                }
-                            }
-                        } else {
-                            counts.failing += 1;
-                            let cand = to_candidate(&row, &s, fi, line);
-                            // Lowest utilisation first among failures.
-                            let key_ok = near.items.len() < near.limit
-                                || near
-                                    .items
-                                    .last()
-                                    .is_some_and(|l| cand.utilisation < l.utilisation);
-                            if key_ok {
-                                near.items.push(cand);
-                                near.items.sort_by(|a, b| {
-                                    a.utilisation
-                                        .total_cmp(&b.utilisation)
-                                        .then(a.mass.total_cmp(&b.mass))
-                                        .then_with(|| a.name.cmp(&b.name))
-                                        .then(a.file.cmp(&b.file))
-                                        .then(a.line.cmp(&b.line))
+                        Outcome::Excluded => counts.bad += 1,
+                        Outcome::Filtered => counts.filtered += 1,
+                        Outcome::Checked {
+                            name,
+                            suspect,
+                            mass,
+                            depth,
+                            cost,
+                            summary: s,
+                        } => {
+                            if suspect {
+                                suspects.push(Suspect {
+                                    file: fi,
+                                    name: name.to_string(),
+                                    line,
                                 });
-                                near.items.truncate(near.limit);
+                            }
+                            counts.checked += 1;
+                            let k = KeyRef {
+                                mass,
+                                depth,
+                                cost,
+                                utilisation: s.utilisation,
+                                name,
+                                file: fi,
+                                line,
+                            };
+                            let materialise = || -> Result<Candidate> {
+                                let row = parse_row(schema, rec, mats)
+                                    .map_err(|e| Error::Internal(e.message))?;
+                                Ok(to_candidate(&row, &s, fi, line))
+                            };
+                            if s.passes {
+                                counts.passing += 1;
+                                let front = opts.pareto
+                                    && !pareto.iter().any(|p| dominated_by(k.mass, k.depth, p));
+                                let wanted: Vec<bool> =
+                                    lists.iter().map(|l| l.wants_key(&k)).collect();
+                                if front || wanted.iter().any(|w| *w) {
+                                    let cand = materialise()?;
+                                    if front {
+                                        pareto.retain(|p| !dominated(p, &cand));
+                                        pareto.push(cand.clone());
+                                    }
+                                    for (l, w) in lists.iter_mut().zip(wanted) {
+                                        if w {
+                                            l.insert(cand.clone());
+                                        }
+                                    }
+                                }
+                            } else {
+                                counts.failing += 1;
+                                let wanted = near.items.len() < near.limit
+                                    || near
+                                        .items
+                                        .last()
+                                        .is_some_and(|l| s.utilisation < l.utilisation);
+                                if wanted {
+                                    near_insert(&mut near, materialise()?);
+                                }
                             }
                         }
                     }
                 }
+                progress(counts.rows, done_bytes + pos);
+                let _ = back_tx.send(buf);
             }
-            let pos = buf[n - 1].position().map(|p| p.byte()).unwrap_or(0);
-            progress(counts.rows, done_bytes + pos);
+            Ok(reader.join().unwrap_or(0))
+        })?;
+        done_bytes += read_bytes;
+        if counts.rows == rows_before {
+            return Err(Error::input(
+                Location::in_file(&file).with_line(2),
+                "the catalogue has a header but no rows: expected one section per row after the header",
+            ));
         }
-        done_bytes += cat.reader.position().byte();
     }
-    if counts.bad > 0 && !opts.skip_bad_rows {
+    if counts.bad > 0 && !opts.skip_bad_rows && errors.is_empty() {
+        // Only excluded rows: the caller asked for them to be skipped.
+    } else if counts.bad > 0 && !opts.skip_bad_rows {
         let total = counts.bad;
         let mut errs = errors;
         if total as usize > errs.len() {
@@ -445,7 +648,108 @@ pub fn scan<R: Read + Send>(
         counts,
         skipped,
         files,
+        suspects,
     })
+}
+
+/// Second reading of one catalogue: the lines of every occurrence of the
+/// suspect names after the first (true duplicates), exactly.
+pub fn confirm_duplicates<R: Read>(
+    mut cat: Catalog<R>,
+    names: &HashSet<String>,
+) -> Result<Vec<(String, u64, u64)>> {
+    let name_col = cat
+        .schema
+        .cols
+        .iter()
+        .position(|c| *c == crate::catalog::Col::Name)
+        .unwrap_or(0);
+    let mut first: std::collections::HashMap<String, u64> = std::collections::HashMap::new();
+    let mut dups = Vec::new();
+    let mut buf = Vec::new();
+    loop {
+        let n = cat.next_chunk(&mut buf, 8192)?;
+        if n == 0 {
+            break;
+        }
+        for rec in &buf[..n] {
+            let name = std::str::from_utf8(rec.get(name_col).unwrap_or(b""))
+                .unwrap_or("")
+                .trim();
+            if names.contains(name) {
+                let line = line_of(rec);
+                match first.get(name) {
+                    Some(&f) => dups.push((name.to_string(), line, f)),
+                    None => {
+                        first.insert(name.to_string(), line);
+                    }
+                }
+            }
+        }
+    }
+    Ok(dups)
+}
+
+/// Scan with exact duplicate detection: `open` (re)opens the catalogues;
+/// a second reading confirms the names the Bloom filter flagged, and a
+/// re-scan without the duplicates follows only when some are real and
+/// bad rows are to be skipped.
+pub fn scan_checked<R: Read + Send>(
+    prep: &Prepared,
+    open: &dyn Fn() -> Result<Vec<Catalog<R>>>,
+    mats: &Materials<'_>,
+    opts: &ScanOptions,
+    progress: &(dyn Fn(u64, u64) + Sync),
+) -> Result<Selection> {
+    let mut sel = scan(prep, open()?, mats, opts, progress)?;
+    if sel.suspects.is_empty() {
+        return Ok(sel);
+    }
+    let mut exclude = HashSet::new();
+    let mut errors = Vec::new();
+    for (fi, cat) in open()?.into_iter().enumerate() {
+        let names: HashSet<String> = sel
+            .suspects
+            .iter()
+            .filter(|s| s.file == fi)
+            .map(|s| s.name.clone())
+            .collect();
+        if names.is_empty() {
+            continue;
+        }
+        let file = cat.file.clone();
+        let name_col = cat
+            .schema
+            .cols
+            .iter()
+            .position(|c| *c == crate::catalog::Col::Name)
+            .unwrap_or(0);
+        for (name, line, firstl) in confirm_duplicates(cat, &names)? {
+            exclude.insert((fi, line));
+            errors.push(Error::input(
+                Location::in_file(&file)
+                    .with_line(line)
+                    .with_column(name_col as u64 + 1),
+                format!("duplicate section name '{name}' (first on line {firstl})"),
+            ));
+        }
+    }
+    if errors.is_empty() {
+        sel.suspects.clear();
+        return Ok(sel);
+    }
+    if !opts.skip_bad_rows {
+        let n = errors.len();
+        errors.push(Error::msg(format!(
+            "{n} duplicate name(s): the catalogue is refused (fix them, or use --skip-bad-rows to keep only the first of each)"
+        )));
+        return Err(Error::Many(errors));
+    }
+    let mut again = scan_excluding(prep, open()?, mats, opts, &exclude, progress)?;
+    again.skipped.extend(errors.iter().map(|e| e.to_string()));
+    again.skipped.truncate(100);
+    again.suspects.clear();
+    Ok(again)
 }
 
 /// Read every row of the catalogues into memory (for schedules, which

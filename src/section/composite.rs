@@ -157,10 +157,16 @@ impl Part {
     }
 }
 
-/// Integrated properties of a composite section.
+/// Most parts any shape needs (an RHS: 2 rectangles + 8 spandrels).
+const MAX_PARTS: usize = 12;
+
+/// Integrated properties of a composite section. Parts are kept in a fixed
+/// array: section properties are computed per catalogue row, so this path
+/// must not allocate.
 #[derive(Clone, Debug)]
 pub(crate) struct Composite {
-    pub parts: Vec<Signed>,
+    store: [Signed; MAX_PARTS],
+    n: usize,
 }
 
 pub(crate) struct Integrated {
@@ -171,13 +177,35 @@ pub(crate) struct Integrated {
 }
 
 impl Composite {
-    pub fn new(parts: Vec<Signed>) -> Self {
-        Composite { parts }
+    pub fn new() -> Self {
+        Composite {
+            store: [add(Part::Rect {
+                xc: 0.0,
+                yb: 0.0,
+                b: 0.0,
+                h: 0.0,
+            }); MAX_PARTS],
+            n: 0,
+        }
+    }
+
+    pub fn push(&mut self, p: Signed) {
+        // Shapes push at most MAX_PARTS parts (checked by the tests of every
+        // family); an extra part would be a programming error.
+        debug_assert!(self.n < MAX_PARTS);
+        if self.n < MAX_PARTS {
+            self.store[self.n] = p;
+            self.n += 1;
+        }
+    }
+
+    fn parts(&self) -> &[Signed] {
+        &self.store[..self.n]
     }
 
     pub fn integrate(&self) -> Integrated {
         let (mut a, mut ay, mut iy0, mut iyy) = (0.0, 0.0, 0.0, 0.0);
-        for p in &self.parts {
+        for p in self.parts() {
             let (pa, py, px, pix, piy) = p.part.props();
             a += p.sign * pa;
             ay += p.sign * pa * py;
@@ -194,7 +222,7 @@ impl Composite {
     }
 
     pub fn width_at(&self, y: f64) -> f64 {
-        self.parts
+        self.parts()
             .iter()
             .map(|p| p.sign * p.part.width_at(y))
             .sum::<f64>()
@@ -205,7 +233,7 @@ impl Composite {
     pub fn below(&self, y: f64) -> (f64, f64) {
         let mut a = 0.0;
         let mut m = 0.0;
-        for p in &self.parts {
+        for p in self.parts() {
             let (pa, pm) = p.part.below(y);
             a += p.sign * pa;
             m += p.sign * pm;

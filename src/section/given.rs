@@ -8,7 +8,7 @@
 //! (d, tw) enables the average web shear check; flanges (bf, tf) with Iy, J
 //! and Cw enable lateral-torsional buckling.
 
-use super::{IGeometry, Properties, positive};
+use super::{IGeometry, Properties, positive_value};
 use crate::error::{Error, Result};
 use serde::{Deserialize, Serialize};
 
@@ -36,7 +36,7 @@ pub struct Given {
 
 fn opt_positive(name: &str, v: Option<f64>) -> Result<()> {
     match v {
-        Some(v) => positive(name, v),
+        Some(v) => positive_value(name, v),
         None => Ok(()),
     }
 }

@@ -59,14 +59,7 @@ pub(crate) fn validate_chs(d: f64, t: f64) -> Result<()> {
 
 /// Rounded rectangle of width b, height h, bottom at yb, corner radius r,
 /// added with sign `s` (+1) or removed (−1).
-fn rounded_rect(
-    parts: &mut Vec<super::composite::Signed>,
-    b: f64,
-    h: f64,
-    yb: f64,
-    r: f64,
-    s: f64,
-) {
+fn rounded_rect(parts: &mut Composite, b: f64, h: f64, yb: f64, r: f64, s: f64) {
     let rect = Part::Rect { xc: 0.0, yb, b, h };
     parts.push(if s > 0.0 { add(rect) } else { sub(rect) });
     if r > 0.0 {
@@ -87,10 +80,10 @@ fn rounded_rect(
 
 pub(crate) fn composite_rhs(b: f64, h: f64, t: f64, r_out: f64) -> Composite {
     let r_in = (r_out - t).max(0.0);
-    let mut parts = Vec::new();
+    let mut parts = Composite::new();
     rounded_rect(&mut parts, b, h, 0.0, r_out, 1.0);
     rounded_rect(&mut parts, b - 2.0 * t, h - 2.0 * t, t, r_in, -1.0);
-    Composite::new(parts)
+    parts
 }
 
 /// EN 10219-2 Annex B torsion constant of a rectangular hollow section.

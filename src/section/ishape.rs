@@ -32,23 +32,25 @@ fn check_web(hw: f64, tw: f64) -> Result<()> {
     Ok(())
 }
 
-fn check_flange(which: &str, bf: f64, tf: f64, tw: f64) -> Result<()> {
-    positive(&format!("bf{which}"), bf)?;
-    positive(&format!("tf{which}"), tf)?;
+/// `names` = (flange width name, flange thickness name), e.g. ("bf_top", "tf_top").
+fn check_flange(names: (&str, &str), bf: f64, tf: f64, tw: f64) -> Result<()> {
+    positive(names.0, bf)?;
+    positive(names.1, tf)?;
     if bf < tw {
         return Err(Error::msg(format!(
-            "flange width bf{which} = {} is narrower than the web thickness tw = {}: expected bf ≥ tw",
+            "flange width {} = {} is narrower than the web thickness tw = {}: expected bf ≥ tw",
+            names.0,
             mm(bf),
             mm(tw)
         ))
-        .in_field(&format!("bf{which}")));
+        .in_field(names.0));
     }
     Ok(())
 }
 
 pub(crate) fn validate_welded(bf: f64, tf: f64, hw: f64, tw: f64) -> Result<()> {
     check_web(hw, tw)?;
-    check_flange("", bf, tf, tw)
+    check_flange(("bf", "tf"), bf, tf, tw)
 }
 
 pub(crate) fn validate_mono(
@@ -60,8 +62,8 @@ pub(crate) fn validate_mono(
     tw: f64,
 ) -> Result<()> {
     check_web(hw, tw)?;
-    check_flange("_top", bf_top, tf_top, tw)?;
-    check_flange("_bot", bf_bot, tf_bot, tw)
+    check_flange(("bf_top", "tf_top"), bf_top, tf_top, tw)?;
+    check_flange(("bf_bot", "tf_bot"), bf_bot, tf_bot, tw)
 }
 
 pub(crate) fn validate_rolled(d: f64, bf: f64, tf: f64, tw: f64, r: f64) -> Result<()> {
@@ -78,7 +80,7 @@ pub(crate) fn validate_rolled(d: f64, bf: f64, tf: f64, tw: f64, r: f64) -> Resu
     }
     let hw = d - 2.0 * tf;
     check_web(hw, tw)?;
-    check_flange("", bf, tf, tw)?;
+    check_flange(("bf", "tf"), bf, tf, tw)?;
     if tw + 2.0 * r > bf {
         return Err(Error::msg(format!(
             "root fillets r = {} do not fit on the flange: expected tw + 2·r ≤ bf (here {} > {})",
@@ -108,26 +110,25 @@ pub(crate) fn composite(
     tw: f64,
     r: f64,
 ) -> Composite {
-    let mut parts = vec![
-        add(Part::Rect {
-            xc: 0.0,
-            yb: 0.0,
-            b: bf_bot,
-            h: tf_bot,
-        }),
-        add(Part::Rect {
-            xc: 0.0,
-            yb: tf_bot,
-            b: tw,
-            h: hw,
-        }),
-        add(Part::Rect {
-            xc: 0.0,
-            yb: tf_bot + hw,
-            b: bf_top,
-            h: tf_top,
-        }),
-    ];
+    let mut parts = Composite::new();
+    parts.push(add(Part::Rect {
+        xc: 0.0,
+        yb: 0.0,
+        b: bf_bot,
+        h: tf_bot,
+    }));
+    parts.push(add(Part::Rect {
+        xc: 0.0,
+        yb: tf_bot,
+        b: tw,
+        h: hw,
+    }));
+    parts.push(add(Part::Rect {
+        xc: 0.0,
+        yb: tf_bot + hw,
+        b: bf_top,
+        h: tf_top,
+    }));
     if r > 0.0 {
         for sx in [-1.0, 1.0] {
             let x = sx * tw / 2.0;
@@ -147,7 +148,7 @@ pub(crate) fn composite(
             }));
         }
     }
-    Composite::new(parts)
+    parts
 }
 
 pub(crate) fn properties_mono(
@@ -178,4 +179,58 @@ pub(crate) fn properties_mono(
         r,
     };
     from_composite(&c, depth, bf_top.max(bf_bot), Some(j), Some(cw), Some(geom))
+}
+
+/// Doubly symmetric welded I in closed form (the hot path of generated
+/// plate catalogues): with d = hw + 2tf,
+/// A = 2·bf·tf + hw·tw, Ix = (bf·d³ − (bf − tw)·hw³)/12,
+/// Iy = 2·tf·bf³/12 + hw·tw³/12, Zx = bf·tf·(d − tf) + tw·hw²/4,
+/// Q = Zx/2, t_NA = tw (standard results for an I of three plates; the
+/// tests check them against the exact composite integration).
+pub(crate) fn properties_welded(bf: f64, tf: f64, hw: f64, tw: f64) -> Properties {
+    let d = hw + 2.0 * tf;
+    let area = 2.0 * bf * tf + hw * tw;
+    let ix = (bf * d.powi(3) - (bf - tw) * hw.powi(3)) / 12.0;
+    let iy = 2.0 * tf * bf.powi(3) / 12.0 + hw * tw.powi(3) / 12.0;
+    let zx = bf * tf * (d - tf) + tw * hw * hw / 4.0;
+    let c = d / 2.0;
+    let h0 = d - tf;
+    let iyf = tf * bf.powi(3) / 12.0;
+    Properties {
+        area,
+        depth: d,
+        width: bf,
+        y_c: c,
+        ix,
+        iy: Some(iy),
+        c_top: c,
+        c_bot: c,
+        s_top: ix / c,
+        s_bot: ix / c,
+        zx: Some(zx),
+        rx: (ix / area).sqrt(),
+        ry: Some((iy / area).sqrt()),
+        q_na: Some(zx / 2.0),
+        t_na: Some(tw),
+        j: Some((2.0 * bf * tf.powi(3) + hw * tw.powi(3)) / 3.0),
+        cw: Some(h0 * h0 * iyf / 2.0),
+        web_area: Some(d * tw),
+        i_geometry: Some(IGeometry {
+            d,
+            bf_top: bf,
+            tf_top: tf,
+            bf_bot: bf,
+            tf_bot: tf,
+            tw,
+            hw,
+            h0,
+            r: 0.0,
+        }),
+    }
+}
+
+/// The same properties by exact integration of the three plates (used by
+/// the tests to check the closed form).
+pub fn properties_welded_integrated(bf: f64, tf: f64, hw: f64, tw: f64) -> Properties {
+    properties_mono(bf, tf, bf, tf, hw, tw, 0.0)
 }

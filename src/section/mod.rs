@@ -170,10 +170,32 @@ pub enum Shape {
     Round { d: f64 },
 }
 
+/// Supported range of a section dimension: 1 µm to 100 m.
+const DIM_RANGE: (f64, f64) = (1e-3, 1e5);
+
 pub(crate) fn positive(name: &str, v: f64) -> Result<()> {
+    if v.is_finite() && v > 0.0 && !(DIM_RANGE.0..=DIM_RANGE.1).contains(&v) {
+        return Err(Error::msg(format!(
+            "{name} = {} mm is outside the supported range of section dimensions (0.001 mm to 100 m)",
+            crate::units::fmt_num(v)
+        ))
+        .in_field(name));
+    }
     if !v.is_finite() || v <= 0.0 {
         return Err(Error::msg(format!(
             "{name} = {} is not valid: expected a finite dimension greater than zero",
+            crate::units::fmt_num(v)
+        ))
+        .in_field(name));
+    }
+    Ok(())
+}
+
+/// A property value (area, second moment, ...): finite and above zero.
+pub(crate) fn positive_value(name: &str, v: f64) -> Result<()> {
+    if !v.is_finite() || v <= 0.0 {
+        return Err(Error::msg(format!(
+            "{name} = {} is not valid: expected a finite value greater than zero",
             crate::units::fmt_num(v)
         ))
         .in_field(name));
@@ -236,9 +258,7 @@ impl Shape {
         self.validate()?;
         Ok(match *self {
             Shape::Rect { b, d } => rect::properties(b, d),
-            Shape::WeldedI { bf, tf, hw, tw } => {
-                ishape::properties_mono(bf, tf, bf, tf, hw, tw, 0.0)
-            }
+            Shape::WeldedI { bf, tf, hw, tw } => ishape::properties_welded(bf, tf, hw, tw),
             Shape::RolledI { d, bf, tf, tw, r } => {
                 ishape::properties_mono(bf, tf, bf, tf, d - 2.0 * tf, tw, r)
             }

@@ -16,12 +16,14 @@ pub(crate) fn validate(b: f64, d: f64) -> Result<()> {
 }
 
 pub(crate) fn composite(b: f64, d: f64) -> Composite {
-    Composite::new(vec![add(Part::Rect {
+    let mut c = Composite::new();
+    c.push(add(Part::Rect {
         xc: 0.0,
         yb: 0.0,
         b,
         h: d,
-    })])
+    }));
+    c
 }
 
 /// Roark's torsion constant of a solid rectangle.
