@@ -395,7 +395,7 @@ fn parse_feet_inches(s: &str) -> Option<f64> {
         }
         total
     };
-    if feet < 0.0 || inches < 0.0 {
+    if !(feet.is_finite() && inches.is_finite()) || feet < 0.0 || inches < 0.0 {
         return None;
     }
     Some(feet * MM_PER_FT + inches * MM_PER_IN)
@@ -412,6 +412,14 @@ pub fn parse(text: &str, dim: Dim) -> Result<f64> {
             dim.accepted()
         )));
     }
+    let lower = t.to_ascii_lowercase();
+    if lower.contains("nan") || lower.contains("inf") {
+        return Err(Error::msg(format!(
+            "'{t}' is not a finite number: expected a {} such as 12.5 followed by a unit ({})",
+            dim.name(),
+            dim.accepted()
+        )));
+    }
     if dim == Dim::Length
         && (t.contains('\'') || t.contains('"') || t.contains('′') || t.contains('″'))
     {
@@ -420,14 +428,6 @@ pub fn parse(text: &str, dim: Dim) -> Result<f64> {
                 "cannot read '{t}' as feet-inches: expected forms like 12'-6\", 12' 6 1/2\", 10' or 9\""
             ))
         });
-    }
-    let lower = t.to_ascii_lowercase();
-    if lower.contains("nan") || lower.contains("inf") {
-        return Err(Error::msg(format!(
-            "'{t}' is not a finite number: expected a {} such as 12.5 followed by a unit ({})",
-            dim.name(),
-            dim.accepted()
-        )));
     }
     let (value, unit) = split_number(t).ok_or_else(|| {
         Error::msg(format!(
