@@ -15,8 +15,14 @@ use std::path::PathBuf;
 #[derive(clap::Subcommand, Debug)]
 pub enum Cmd {
     /// Check every row of a catalogue and report every problem with its line and column.
+    #[command(
+        after_help = "Example:\n  beamsift catalog validate catalogs/demo-timber.csv --job catalogs/demo-joists.toml"
+    )]
     Validate(FileArgs),
     /// List a catalogue with its computed properties.
+    #[command(
+        after_help = "Example:\n  beamsift catalog show catalogs/ipe-en10365-from-memory.csv --job catalogs/demo-job.toml"
+    )]
     Show(FileArgs),
     /// Write a catalogue of every combination of given plates or timber sizes.
     #[command(after_help = GENERATE_EXAMPLES)]

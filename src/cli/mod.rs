@@ -73,9 +73,18 @@ pub enum Command {
     /// Span sweeps: the lightest section per span, and span tables.
     #[command(subcommand, after_help = sweep::EXAMPLES)]
     Sweep(sweep::Cmd),
-    /// Validate or list a catalogue file.
+    /// Validate, list or generate catalogue files.
     #[command(subcommand)]
     Catalog(catalog::Cmd),
+    /// Print a shell completion script (bash, zsh, fish, elvish, powershell).
+    #[command(
+        after_help = "Example:\n  beamsift completions bash > ~/.local/share/bash-completion/completions/beamsift"
+    )]
+    Completions {
+        /// The shell.
+        #[arg(value_enum)]
+        shell: clap_complete::Shell,
+    },
 }
 
 /// Run and map the outcome to an exit code. A panic is a bug: it is
@@ -123,6 +132,14 @@ fn run(cli: Cli) -> beamsift::Result<i32> {
         Command::Optimise(a) => optimise::run(a, &out),
         Command::Sweep(c) => sweep::run(c, &out),
         Command::Report(a) => report::run(a, &out),
+        Command::Completions { shell } => {
+            use clap::CommandFactory;
+            let mut cmd = Cli::command();
+            let mut buf = Vec::new();
+            clap_complete::generate(shell, &mut cmd, "beamsift", &mut buf);
+            output::emit(&out, &String::from_utf8_lossy(&buf))?;
+            Ok(0)
+        }
     }
 }
 

@@ -26,8 +26,14 @@ load intensities stay as given (area loads follow --spacings).";
 #[derive(clap::Subcommand, Debug)]
 pub enum Cmd {
     /// The lightest passing section at each span of a range.
+    #[command(
+        after_help = "Example:\n  beamsift sweep lightest --job catalogs/demo-job.toml -c catalogs/demo-steel.csv --spans 3m..9m:0.5m --chart lightest.svg"
+    )]
     Lightest(LightestArgs),
     /// The longest span of each section, per joist spacing or live-load level.
+    #[command(
+        after_help = "Example:\n  beamsift sweep table --job catalogs/demo-joists.toml -c catalogs/demo-timber.csv --spacings 300,400,600mm --round 10mm"
+    )]
     Table(TableArgs),
 }
 
