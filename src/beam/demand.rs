@@ -31,6 +31,71 @@ pub struct ComboDemand {
     pub patterns: Vec<Response>,
     /// Label of each pattern part, e.g. "live on span 2".
     pub pattern_labels: Vec<String>,
+    /// The section-independent part of the pattern envelope, per quantity
+    /// (moment, shear, deflection); empty without patterns.
+    pub env: Vec<PatternEnv>,
+}
+
+/// Stations per element, ends included, for pattern envelopes.
+const NST: usize = PATTERN_STATIONS + 2;
+
+/// The pattern parts do not depend on the section, so at every station the
+/// sum of their positive parts, of their negative parts, and which parts
+/// are positive (the pattern) are computed once. Per element, each distinct
+/// pattern seen at a station is stored as its summed coefficients, to be
+/// maximised exactly with the section's base polynomial.
+#[derive(Clone, Debug, Default)]
+pub struct PatternEnv {
+    pub hi: Vec<[f64; NST]>,
+    pub lo: Vec<[f64; NST]>,
+    pub plus: Vec<Vec<Coef>>,
+    pub minus: Vec<Vec<Coef>>,
+}
+
+fn pattern_env(patterns: &[Response], q: Quantity, len: &[f64]) -> PatternEnv {
+    let mut env = PatternEnv::default();
+    for (e, &l) in len.iter().enumerate() {
+        let (mut hi, mut lo) = ([0.0; NST], [0.0; NST]);
+        let (mut mh, mut ml) = ([0u64; NST], [0u64; NST]);
+        for k in 0..NST {
+            let s = l * (k as f64 / (NST - 1) as f64);
+            for (j, p) in patterns.iter().enumerate() {
+                let v = eval(q, &p.elems[e], s);
+                if v > 0.0 {
+                    hi[k] += v;
+                    mh[k] |= 1u64 << j;
+                } else {
+                    lo[k] += v;
+                    ml[k] |= 1u64 << j;
+                }
+            }
+        }
+        let sums = |masks: &[u64; NST]| -> Vec<Coef> {
+            let mut seen: Vec<u64> = Vec::new();
+            let mut out = Vec::new();
+            for &m in masks {
+                if seen.contains(&m) {
+                    continue;
+                }
+                seen.push(m);
+                let mut c = [0.0; 6];
+                for (j, p) in patterns.iter().enumerate() {
+                    if m & (1u64 << j) != 0 {
+                        for (ck, pk) in c.iter_mut().zip(p.elems[e].iter()) {
+                            *ck += pk;
+                        }
+                    }
+                }
+                out.push(c);
+            }
+            out
+        };
+        env.plus.push(sums(&mh));
+        env.minus.push(sums(&ml));
+        env.hi.push(hi);
+        env.lo.push(lo);
+    }
+    env
 }
 
 /// The beam analysed once.
@@ -291,6 +356,18 @@ fn bracketed_root(c: &Coef, mut a: f64, mut b: f64, ta: f64) -> f64 {
     x
 }
 
+#[inline]
+fn add_coef(a: &Coef, b: &Coef) -> Coef {
+    [
+        a[0] + b[0],
+        a[1] + b[1],
+        a[2] + b[2],
+        a[3] + b[3],
+        a[4] + b[4],
+        a[5] + b[5],
+    ]
+}
+
 /// Interior stations per element used to locate envelope extremes under
 /// pattern loading (before exact refinement).
 const PATTERN_STATIONS: usize = 5;
@@ -373,6 +450,14 @@ impl Demand {
                         fixed.add_scaled(f, &cases[ci]);
                     }
                 }
+                let env = if patterns.is_empty() || patterns.len() > 64 {
+                    Vec::new()
+                } else {
+                    [Quantity::Moment, Quantity::Shear, Quantity::Deflection]
+                        .iter()
+                        .map(|&q| pattern_env(&patterns, q, &len))
+                        .collect()
+                };
                 ComboDemand {
                     name: c.name.clone(),
                     kind: c.kind,
@@ -381,6 +466,7 @@ impl Demand {
                     sw_factor,
                     patterns,
                     pattern_labels,
+                    env,
                 }
             })
             .collect();
@@ -435,56 +521,92 @@ impl Demand {
         }
         // Envelope on stations; in each element, every distinct pattern seen
         // at a station is then maximised exactly on the element polynomial.
-        let np = combo.patterns.len();
+        let qi = match q {
+            Quantity::Moment => 0,
+            Quantity::Shear => 1,
+            Quantity::Deflection => 2,
+        };
+        let Some(env) = combo.env.get(qi) else {
+            return self.extremes_slow(combo, w_sw, q, elems);
+        };
+        // Pass 1: the envelope on the stations of every element.
+        for e in elems.clone() {
+            let base = self.base_coef(combo, w_sw, e);
+            let x0 = self.mesh.x[e];
+            let l = self.len[e];
+            for k in 0..NST {
+                let s = l * (k as f64 / (NST - 1) as f64);
+                let b = eval(q, &base, s);
+                ex.push(b + env.hi[e][k], x0 + s);
+                ex.push(b + env.lo[e][k], x0 + s);
+            }
+        }
+        // Pass 2: exact maxima of each element's patterns, skipping those
+        // that provably cannot beat the best so far. Between stations h
+        // apart a function with |f''| ≤ K exceeds its larger end value by
+        // at most K·h²/8, and at a station no pattern exceeds the envelope.
         for e in elems {
             let base = self.base_coef(combo, w_sw, e);
             let x0 = self.mesh.x[e];
-            let mut masks_hi: [u64; PATTERN_STATIONS + 2] = [0; PATTERN_STATIONS + 2];
-            let mut masks_lo: [u64; PATTERN_STATIONS + 2] = [0; PATTERN_STATIONS + 2];
-            for k in 0..=PATTERN_STATIONS + 1 {
-                let s = self.len[e] * (k as f64 / (PATTERN_STATIONS + 1) as f64);
-                let b = eval(q, &base, s);
-                let (mut hi, mut lo) = (b, b);
-                for (j, p) in combo.patterns.iter().enumerate() {
-                    let v = eval(q, &p.elems[e], s);
-                    if v > 0.0 {
-                        hi += v;
-                        masks_hi[k] |= 1u64 << (j % 64);
-                    } else {
-                        lo += v;
-                        masks_lo[k] |= 1u64 << (j % 64);
+            let l = self.len[e];
+            let h = l / (NST - 1) as f64;
+            let (mut s_hi, mut s_lo) = (f64::NEG_INFINITY, f64::INFINITY);
+            for k in 0..NST {
+                let b = eval(q, &base, h * k as f64);
+                s_hi = s_hi.max(b + env.hi[e][k]);
+                s_lo = s_lo.min(b + env.lo[e][k]);
+            }
+            let curvature_bound = |c: &Coef| -> f64 {
+                match q {
+                    Quantity::Moment => 2.0 * c[2].abs() + 6.0 * c[3].abs() * l,
+                    Quantity::Shear => 6.0 * c[3].abs(),
+                    Quantity::Deflection => {
+                        c[0].abs() + l * (c[1].abs() + l * (c[2].abs() + l * c[3].abs()))
                     }
                 }
-                ex.push(hi, x0 + s);
-                ex.push(lo, x0 + s);
-            }
-            if np > 64 {
-                continue;
-            }
-            for (sign, masks) in [(1.0, &masks_hi), (-1.0, &masks_lo)] {
-                for k in 0..masks.len() {
-                    let mask = masks[k];
-                    if masks[..k].contains(&mask) {
-                        continue;
-                    }
-                    let mut c = base;
-                    for (j, p) in combo.patterns.iter().enumerate() {
-                        if mask & (1u64 << j) != 0 {
-                            for (ck, pk) in c.iter_mut().zip(p.elems[e].iter()) {
-                                *ck += pk;
-                            }
-                        }
-                    }
-                    let el = element_extremes(q, &c, self.len[e]);
-                    if sign > 0.0 && el.max > ex.max {
-                        ex.max = el.max;
-                        ex.x_max = x0 + el.x_max;
-                    }
-                    if sign < 0.0 && el.min < ex.min {
-                        ex.min = el.min;
-                        ex.x_min = x0 + el.x_min;
-                    }
+            };
+            for p in &env.plus[e] {
+                let c = add_coef(&base, p);
+                if s_hi + curvature_bound(&c) * h * h / 8.0 <= ex.max {
+                    continue;
                 }
+                let el = element_extremes(q, &c, l);
+                if el.max > ex.max {
+                    ex.max = el.max;
+                    ex.x_max = x0 + el.x_max;
+                }
+            }
+            for p in &env.minus[e] {
+                let c = add_coef(&base, p);
+                if s_lo - curvature_bound(&c) * h * h / 8.0 >= ex.min {
+                    continue;
+                }
+                let el = element_extremes(q, &c, l);
+                if el.min < ex.min {
+                    ex.min = el.min;
+                    ex.x_min = x0 + el.x_min;
+                }
+            }
+        }
+        ex
+    }
+
+    /// Envelope on stations without refinement, for more than 64 pattern
+    /// parts (no pattern masks): conservative to the station spacing only.
+    fn extremes_slow(
+        &self,
+        combo: &ComboDemand,
+        w_sw: f64,
+        q: Quantity,
+        elems: std::ops::Range<usize>,
+    ) -> Extremes {
+        let mut ex = Extremes::EMPTY;
+        for e in elems {
+            for k in 0..NST {
+                let s = self.len[e] * (k as f64 / (NST - 1) as f64);
+                let (lo, hi) = self.envelope_at(combo, w_sw, q, e, s);
+                ex.push(hi, self.mesh.x[e] + s);
+                ex.push(lo, self.mesh.x[e] + s);
             }
         }
         ex
