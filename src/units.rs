@@ -398,7 +398,8 @@ fn parse_feet_inches(s: &str) -> Option<f64> {
     if !(feet.is_finite() && inches.is_finite()) || feet < 0.0 || inches < 0.0 {
         return None;
     }
-    Some(feet * MM_PER_FT + inches * MM_PER_IN)
+    let total = feet * MM_PER_FT + inches * MM_PER_IN;
+    total.is_finite().then_some(total)
 }
 
 /// Parse a quantity such as `"6.5 m"`, `"12 kN/m"`, `"8356 cm^4"` into

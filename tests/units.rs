@@ -118,6 +118,9 @@ fn rejections_name_what_is_accepted() {
         ("5 kg/m", Dim::LineLoad),
         ("1e400 mm", Dim::Length),
         ("12'-x\"", Dim::Length),
+        // Found by tests/robust.rs (regressions): non-finite feet.
+        ("inf'", Dim::Length),
+        ("1.6401843562914612e308'", Dim::Length),
     ] {
         let e = parse(text, dim).expect_err(text).to_string();
         assert!(
