@@ -58,6 +58,44 @@ fn input_files() -> Vec<PathBuf> {
     out
 }
 
+/// Check an output path before any work starts: its folder exists, it is
+/// not a folder, it is not one of the inputs (those named in `inputs` and
+/// every existing file on the command line), and it is overwritten only
+/// with `force`.
+pub fn guard(p: &std::path::Path, force: bool, inputs: &[PathBuf]) -> Result<()> {
+    let shown = p.display().to_string();
+    let dir = p
+        .parent()
+        .filter(|d| !d.as_os_str().is_empty())
+        .unwrap_or(std::path::Path::new("."));
+    if !dir.is_dir() {
+        return Err(Error::msg(format!(
+            "{shown}: the folder {} does not exist",
+            dir.display()
+        )));
+    }
+    if p.is_dir() {
+        return Err(Error::msg(format!(
+            "{shown}: is a folder, expected a file name"
+        )));
+    }
+    if let Ok(target) = std::fs::canonicalize(p) {
+        for i in inputs.iter().cloned().chain(input_files()) {
+            if std::fs::canonicalize(&i).ok().as_ref() == Some(&target) {
+                return Err(Error::msg(format!(
+                    "{shown}: refusing to overwrite an input file"
+                )));
+            }
+        }
+        if !force {
+            return Err(Error::msg(format!(
+                "{shown}: the file exists; use --force to overwrite it"
+            )));
+        }
+    }
+    Ok(())
+}
+
 impl OutputArgs {
     /// Resolve and check the output before any work starts: its folder
     /// exists, it is not one of the inputs, and it is overwritten only with
@@ -70,36 +108,7 @@ impl OutputArgs {
             None => None,
         };
         if let Some(p) = &path {
-            let shown = p.display().to_string();
-            let dir = p
-                .parent()
-                .filter(|d| !d.as_os_str().is_empty())
-                .unwrap_or(std::path::Path::new("."));
-            if !dir.is_dir() {
-                return Err(Error::msg(format!(
-                    "{shown}: the folder {} does not exist",
-                    dir.display()
-                )));
-            }
-            if p.is_dir() {
-                return Err(Error::msg(format!(
-                    "{shown}: is a folder, expected a file name"
-                )));
-            }
-            if let Ok(target) = std::fs::canonicalize(p) {
-                for i in input_files() {
-                    if std::fs::canonicalize(&i).ok().as_ref() == Some(&target) {
-                        return Err(Error::msg(format!(
-                            "{shown}: refusing to overwrite an input file"
-                        )));
-                    }
-                }
-                if !self.force {
-                    return Err(Error::msg(format!(
-                        "{shown}: the file exists; use --force to overwrite it"
-                    )));
-                }
-            }
+            guard(p, self.force, &[])?;
         }
         Ok(Out {
             units: self.units,

@@ -58,36 +58,8 @@ pub fn report_paths(prefix: &Path) -> (PathBuf, PathBuf) {
 /// Check report paths before any work starts.
 pub fn check_paths(prefix: &Path, force: bool, inputs: &[PathBuf]) -> Result<()> {
     let (md, html) = report_paths(prefix);
-    for p in [&md, &html] {
-        let dir = p
-            .parent()
-            .filter(|d| !d.as_os_str().is_empty())
-            .unwrap_or(Path::new("."));
-        if !dir.is_dir() {
-            return Err(Error::msg(format!(
-                "{}: the folder {} does not exist",
-                p.display(),
-                dir.display()
-            )));
-        }
-        for i in inputs {
-            if let (Ok(a), Ok(b)) = (std::fs::canonicalize(i), std::fs::canonicalize(p))
-                && a == b
-            {
-                return Err(Error::msg(format!(
-                    "{}: refusing to overwrite an input file",
-                    p.display()
-                )));
-            }
-        }
-        if p.exists() && !force {
-            return Err(Error::msg(format!(
-                "{}: the file exists; use --force to overwrite it",
-                p.display()
-            )));
-        }
-    }
-    Ok(())
+    super::output::guard(&md, force, inputs)?;
+    super::output::guard(&html, force, inputs)
 }
 
 /// Write the sheet; returns the two paths.

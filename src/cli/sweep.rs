@@ -87,34 +87,6 @@ fn parse_spans(text: &str) -> Result<Vec<f64>> {
     parse_list(text, "--spans")
 }
 
-/// Check an output path before any work: its folder exists and it is not an input.
-fn check_output(path: &Option<PathBuf>, inputs: &[PathBuf]) -> Result<()> {
-    if let Some(p) = path {
-        let dir = p
-            .parent()
-            .filter(|d| !d.as_os_str().is_empty())
-            .unwrap_or(std::path::Path::new("."));
-        if !dir.is_dir() {
-            return Err(Error::msg(format!(
-                "{}: the folder {} does not exist",
-                p.display(),
-                dir.display()
-            )));
-        }
-        for i in inputs {
-            if let (Ok(a), Ok(b)) = (std::fs::canonicalize(i), std::fs::canonicalize(p))
-                && a == b
-            {
-                return Err(Error::msg(format!(
-                    "{}: refusing to overwrite an input file",
-                    p.display()
-                )));
-            }
-        }
-    }
-    Ok(())
-}
-
 fn short(kind: Option<beamsift::check::CheckKind>) -> &'static str {
     use beamsift::check::CheckKind::*;
     match kind {
@@ -170,7 +142,9 @@ pub fn run(cmd: Cmd, out: &Out) -> Result<i32> {
 fn run_lightest(a: LightestArgs, out: &Out) -> Result<i32> {
     let mut inputs = a.cat.catalog.clone();
     inputs.extend(a.job.job.clone());
-    check_output(&a.chart, &inputs)?;
+    if let Some(p) = &a.chart {
+        super::output::guard(p, out.force, &inputs)?;
+    }
     let job = a.job.load()?;
     let spans = parse_spans(&a.spans)?;
     let rows = load(&job, &a.cat)?;
@@ -343,7 +317,9 @@ struct TableResult {
 fn run_table(a: TableArgs, out: &Out) -> Result<i32> {
     let mut inputs = a.cat.catalog.clone();
     inputs.extend(a.job.job.clone());
-    check_output(&a.chart, &inputs)?;
+    if let Some(p) = &a.chart {
+        super::output::guard(p, out.force, &inputs)?;
+    }
     let job = a.job.load()?;
     let sys = out.units;
     let mut columns = Vec::new();
