@@ -497,9 +497,7 @@ pub fn parse_row<'r>(
     // Properties: computed, given, or both (cross-checked).
     let props = match &shape {
         Some(s) => {
-            let mut p = s
-                .properties()
-                .map_err(|e| cell_err(shape_col, schema, e.to_string()))?;
+            let mut p = s.properties_of_valid();
             let checks = [
                 ("A", given.area, p.area),
                 ("Ix", given.ix, p.ix),

@@ -34,7 +34,8 @@ limits and, where asked, lateral-torsional buckling.\n\n\
 Every quantity carries its unit: 6m, 12.5kN/m, 250MPa, 8356cm4, 12'-6\".\n\n\
 beamsift is an aid for a competent person: verify its results against the \
 governing local code and licensed practice.",
-    after_help = "Exit codes: 0 done / passes, 1 fails or nothing passes, 2 bad input, \
+    after_help = "Start with the bundled (invented) demo:\n  beamsift select --job catalogs/demo-job.toml --catalog catalogs/demo-steel.csv\n\n\
+Exit codes: 0 done / passes, 1 fails or nothing passes, 2 bad input, \
 3 file error, 4 internal error."
 )]
 pub struct Cli {

@@ -256,7 +256,13 @@ impl Shape {
     /// validates too and returns the error).
     pub fn properties(&self) -> Result<Properties> {
         self.validate()?;
-        Ok(match *self {
+        Ok(self.properties_of_valid())
+    }
+
+    /// Properties of a shape already validated (the catalogue path
+    /// validates once, while building the shape).
+    pub(crate) fn properties_of_valid(&self) -> Properties {
+        match *self {
             Shape::Rect { b, d } => rect::properties(b, d),
             Shape::WeldedI { bf, tf, hw, tw } => ishape::properties_welded(bf, tf, hw, tw),
             Shape::RolledI { d, bf, tf, tw, r } => {
@@ -273,7 +279,7 @@ impl Shape {
             Shape::Rhs { b, h, t, r_out } => hollow::properties_rhs(b, h, t, r_out),
             Shape::Chs { d, t } => hollow::properties_chs(d, t),
             Shape::Round { d } => hollow::properties_chs(d, d / 2.0),
-        })
+        }
     }
 
     /// Width of material at height y above the bottom fibre (for checks that
