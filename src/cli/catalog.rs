@@ -296,6 +296,7 @@ pub fn run(cmd: Cmd, out: &Out) -> Result<i32> {
                 doc.list("Rows with problems (not shown):", errors.clone());
             }
             doc.para("Properties computed from the dimensions unless the row gives them; check them before trusting a run.");
+            doc.para(beamsift::report::CAUTION);
             let result =
                 serde_json::json!({ "file": cat.file, "rows": rows_json, "problems": errors });
             emit(out, &report::render(out.format, &result, &doc))?;

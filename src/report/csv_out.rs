@@ -41,5 +41,10 @@ pub fn render(doc: &Document) -> String {
             }
         }
     }
+    // The caution travels with the numbers, as a comment line (beamsift's
+    // own CSV reader skips lines starting with '#').
+    if !out.is_empty() {
+        out.push_str(&format!("# {}\n", super::CAUTION));
+    }
     out
 }
