@@ -27,7 +27,7 @@ pub struct OutputArgs {
 }
 
 /// Every argument of the command line that names an existing file, except
-/// the value of -o/--output itself: the inputs an output must not replace.
+/// the values of the output options: the inputs an output must not replace.
 fn input_files() -> Vec<PathBuf> {
     let args: Vec<std::ffi::OsString> = std::env::args_os().skip(1).collect();
     let mut out = Vec::new();
@@ -38,11 +38,13 @@ fn input_files() -> Vec<PathBuf> {
             continue;
         }
         let s = a.to_string_lossy();
-        if s == "-o" || s == "--output" {
+        // Values of the options that name outputs are not inputs.
+        const OUTPUTS: [&str; 5] = ["-o", "--output", "--chart", "--to", "--report"];
+        if OUTPUTS.contains(&s.as_ref()) {
             skip = true;
             continue;
         }
-        if s.starts_with("--output=") {
+        if OUTPUTS.iter().any(|o| o.starts_with("--") && s.starts_with(&format!("{o}="))) {
             continue;
         }
         let v = s
