@@ -44,7 +44,10 @@ fn input_files() -> Vec<PathBuf> {
             skip = true;
             continue;
         }
-        if OUTPUTS.iter().any(|o| o.starts_with("--") && s.starts_with(&format!("{o}="))) {
+        if OUTPUTS
+            .iter()
+            .any(|o| o.starts_with("--") && s.starts_with(&format!("{o}=")))
+        {
             continue;
         }
         let v = s
