@@ -61,7 +61,8 @@ impl fmt::Display for Location {
             parts.push(col.to_string());
         }
         let head = parts.join(":");
-        match (&self.field, head.is_empty()) {
+        let field = self.field.as_ref().filter(|f| !f.is_empty());
+        match (field, head.is_empty()) {
             (Some(field), true) => write!(f, "{field}"),
             (Some(field), false) => write!(f, "{head}: {field}"),
             (None, _) => write!(f, "{head}"),
@@ -140,10 +141,14 @@ impl Error {
                 if location.column.is_none() {
                     location.column = outer.column;
                 }
-                if location.field.is_none() {
-                    location.field = outer.field.clone();
-                } else if let (Some(o), Some(i)) = (&outer.field, &location.field) {
-                    location.field = Some(format!("{o}.{i}"));
+                match (&outer.field, &location.field) {
+                    (Some(o), _) if o.is_empty() => {}
+                    (Some(o), None) => location.field = Some(o.clone()),
+                    (Some(o), Some(i)) if !i.is_empty() => {
+                        location.field = Some(format!("{o}.{i}"))
+                    }
+                    (Some(o), Some(_)) => location.field = Some(o.clone()),
+                    (None, _) => {}
                 }
                 Error::Input { location, message }
             }
