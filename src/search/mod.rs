@@ -589,16 +589,16 @@ pub fn scan_excluding<R: Read + Send>(
                                 counts.passing += 1;
                                 let front = opts.pareto
                                     && !pareto.iter().any(|p| dominated_by(k.mass, k.depth, p));
-                                let wanted: Vec<bool> =
-                                    lists.iter().map(|l| l.wants_key(&k)).collect();
-                                if front || wanted.iter().any(|w| *w) {
+                                // No allocation unless the row is kept.
+                                let any = lists.iter().any(|l| l.wants_key(&k));
+                                if front || any {
                                     let cand = materialise()?;
                                     if front {
                                         pareto.retain(|p| !dominated(p, &cand));
                                         pareto.push(cand.clone());
                                     }
-                                    for (l, w) in lists.iter_mut().zip(wanted) {
-                                        if w {
+                                    for l in lists.iter_mut() {
+                                        if l.wants_key(&k) {
                                             l.insert(cand.clone());
                                         }
                                     }
