@@ -112,8 +112,8 @@ fn w14x22_limiting_lengths_aisc_table_3_2() {
     assert!(near(cap.lr / ft, 10.4, 0.03), "Lr {}", cap.lr / ft);
     assert!(near(cap.mp / 1.67 / kipft, 82.8, 0.03));
     assert!(near(cap.fy_sx_07 / 1.67 / kipft, 50.6, 0.03));
-    // The F2-2 line and the F2-3 curve meet at Lr (Cb = 1): a check on
-    // the transcription of F2-4 and F2-6.
+    // The F2-2 line and the F2-3 curve meet at Lr (Cb = 1): a check that
+    // F2-4 and F2-6 were typed in correctly.
     let below = cap.nominal(cap.lr * (1.0 - 1e-9), 1.0);
     let above = cap.nominal(cap.lr * (1.0 + 1e-9), 1.0);
     // F2-6 carries the rounded constants 1.95 and 6.76 (exact: 1.949 and

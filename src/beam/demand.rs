@@ -153,6 +153,21 @@ impl Extremes {
         self.push(o.max, o.x_max);
         self.push(o.min, o.x_min);
     }
+    /// Round-off is not a value: anything below 1e-9 of the largest
+    /// magnitude becomes zero (so an all-sagging beam has no hogging
+    /// moment of 1e-15).
+    #[inline]
+    pub fn cleaned(mut self) -> Extremes {
+        let tiny = 1e-9 * self.max.abs().max(self.min.abs());
+        if self.max.abs() <= tiny {
+            self.max = 0.0;
+        }
+        if self.min.abs() <= tiny {
+            self.min = 0.0;
+        }
+        self
+    }
+
     /// Largest magnitude, signed, and its position.
     pub fn abs_max(&self) -> (f64, f64) {
         if self.max.abs() >= self.min.abs() {
@@ -301,23 +316,32 @@ fn quadratic_roots(a: f64, b: f64, c: f64) -> [Option<f64>; 2] {
     [Some(q / a), Some(c / q)]
 }
 
-/// A root of M in [a, b] where M changes sign and is monotone.
-fn moment_root(c: &Coef, mut a: f64, mut b: f64, ma: f64) -> f64 {
-    let sa = ma.signum();
+/// A root of f in [a, b], where f changes sign (f(a) = `fa`), by Newton's
+/// method with derivative `df`, safeguarded by bisection; stops when the
+/// step or the bracket is below `tol`.
+#[inline]
+fn safeguarded_newton(
+    f: impl Fn(f64) -> f64,
+    df: impl Fn(f64) -> f64,
+    mut a: f64,
+    mut b: f64,
+    fa: f64,
+    tol: f64,
+) -> f64 {
+    let sa = fa.signum();
     let mut x = 0.5 * (a + b);
-    let tol = 1e-12 * (b - a);
     for _ in 0..80 {
-        let m = solve::moment(c, x);
-        if m == 0.0 {
+        let v = f(x);
+        if v == 0.0 {
             return x;
         }
-        if m.signum() == sa {
+        if v.signum() == sa {
             a = x;
         } else {
             b = x;
         }
-        let v = solve::shear(c, x);
-        let xn = if v != 0.0 { x - m / v } else { f64::NAN };
+        let d = df(x);
+        let xn = if d != 0.0 { x - v / d } else { f64::NAN };
         let next = if xn > a && xn < b { xn } else { 0.5 * (a + b) };
         if (next - x).abs() <= tol || b - a <= tol {
             return next;
@@ -327,33 +351,30 @@ fn moment_root(c: &Coef, mut a: f64, mut b: f64, ma: f64) -> f64 {
     x
 }
 
-/// A root of the slope in [a, b] (a sign change), by Newton's method
-/// safeguarded with bisection. The deflection is flat at its extreme, so a
-/// position good to 1e-10 of the interval gives the value to round-off.
-fn bracketed_root(c: &Coef, mut a: f64, mut b: f64, ta: f64) -> f64 {
-    let mut x = 0.5 * (a + b);
-    let sa = ta.signum();
-    let tol = 1e-10 * (b - a);
-    for _ in 0..60 {
-        let t = solve::slope(c, x);
-        if t == 0.0 {
-            return x;
-        }
-        if t.signum() == sa {
-            a = x;
-        } else {
-            b = x;
-        }
-        // Newton step: slope' = −M.
-        let d = -solve::moment(c, x);
-        let xn = if d != 0.0 { x - t / d } else { f64::NAN };
-        let next = if xn > a && xn < b { xn } else { 0.5 * (a + b) };
-        if (next - x).abs() <= tol || (b - a) <= tol {
-            return next;
-        }
-        x = next;
-    }
-    x
+/// A root of M in [a, b] where M changes sign and is monotone (dM/ds = V).
+fn moment_root(c: &Coef, a: f64, b: f64, ma: f64) -> f64 {
+    safeguarded_newton(
+        |x| solve::moment(c, x),
+        |x| solve::shear(c, x),
+        a,
+        b,
+        ma,
+        1e-12 * (b - a),
+    )
+}
+
+/// A root of the slope in [a, b] (dθ/ds = −M). The deflection is flat at
+/// its extreme, so a position good to 1e-10 of the interval gives the value
+/// to round-off.
+fn bracketed_root(c: &Coef, a: f64, b: f64, ta: f64) -> f64 {
+    safeguarded_newton(
+        |x| solve::slope(c, x),
+        |x| -solve::moment(c, x),
+        a,
+        b,
+        ta,
+        1e-10 * (b - a),
+    )
 }
 
 #[inline]
@@ -517,7 +538,7 @@ impl Demand {
                 el.x_min += self.mesh.x[e];
                 ex.merge(&el);
             }
-            return ex;
+            return ex.cleaned();
         }
         // Envelope on stations; in each element, every distinct pattern seen
         // at a station is then maximised exactly on the element polynomial.
@@ -527,24 +548,13 @@ impl Demand {
             Quantity::Deflection => 2,
         };
         let Some(env) = combo.env.get(qi) else {
-            return self.extremes_slow(combo, w_sw, q, elems);
+            return self.extremes_slow(combo, w_sw, q, elems).cleaned();
         };
-        // Pass 1: the envelope on the stations of every element.
-        for e in elems.clone() {
-            let base = self.base_coef(combo, w_sw, e);
-            let x0 = self.mesh.x[e];
-            let l = self.len[e];
-            for k in 0..NST {
-                let s = l * (k as f64 / (NST - 1) as f64);
-                let b = eval(q, &base, s);
-                ex.push(b + env.hi[e][k], x0 + s);
-                ex.push(b + env.lo[e][k], x0 + s);
-            }
-        }
-        // Pass 2: exact maxima of each element's patterns, skipping those
-        // that provably cannot beat the best so far. Between stations h
-        // apart a function with |f''| ≤ K exceeds its larger end value by
-        // at most K·h²/8, and at a station no pattern exceeds the envelope.
+        // Per element: the envelope on its stations, then the exact maxima of
+        // its patterns, skipping those that provably cannot beat the best so
+        // far. Between stations h apart a function with |f''| ≤ K exceeds its
+        // larger end value by at most K·h²/8, and at a station no pattern
+        // exceeds the envelope.
         for e in elems {
             let base = self.base_coef(combo, w_sw, e);
             let x0 = self.mesh.x[e];
@@ -552,9 +562,13 @@ impl Demand {
             let h = l / (NST - 1) as f64;
             let (mut s_hi, mut s_lo) = (f64::NEG_INFINITY, f64::INFINITY);
             for k in 0..NST {
-                let b = eval(q, &base, h * k as f64);
-                s_hi = s_hi.max(b + env.hi[e][k]);
-                s_lo = s_lo.min(b + env.lo[e][k]);
+                let s = h * k as f64;
+                let b = eval(q, &base, s);
+                let (hi, lo) = (b + env.hi[e][k], b + env.lo[e][k]);
+                ex.push(hi, x0 + s);
+                ex.push(lo, x0 + s);
+                s_hi = s_hi.max(hi);
+                s_lo = s_lo.min(lo);
             }
             let curvature_bound = |c: &Coef| -> f64 {
                 match q {
@@ -588,7 +602,7 @@ impl Demand {
                 }
             }
         }
-        ex
+        ex.cleaned()
     }
 
     /// Envelope on stations without refinement, for more than 64 pattern

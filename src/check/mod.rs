@@ -361,9 +361,7 @@ impl Prepared {
         for &ci in &self.strength {
             let combo = &d.combos[ci];
             let mx = d.extremes(combo, w, Quantity::Moment, 0..ne);
-            // Round-off below 1e-9 of the largest moment is not a moment.
-            let tiny = 1e-9 * mx.max.abs().max(mx.min.abs());
-            if mx.max > tiny {
+            if mx.max > 0.0 {
                 let ft = mx.max / p.s_top;
                 let fb = mx.max / p.s_bot;
                 f(item(
@@ -385,7 +383,7 @@ impl Prepared {
                     m.fb_tension,
                 ));
             }
-            if mx.min < -tiny {
+            if mx.min < 0.0 {
                 let ft = -mx.min / p.s_top;
                 let fb = -mx.min / p.s_bot;
                 f(item(

@@ -161,15 +161,12 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
             let y = d.extremes(c, w, Quantity::Deflection, r);
             let (vv, xv) = v.abs_max();
             let (yy, xy) = y.abs_max();
-            // Round-off below 1e-9 of the largest moment is not a moment.
-            let tiny = 1e-9 * m.max.abs().max(m.min.abs());
-            let clean = |v: f64| if v.abs() <= tiny { 0.0 } else { v };
             extremes.push(PartExtremes {
                 combination: c.name.clone(),
                 part: st.label.clone(),
-                m_max: clean(m.max),
+                m_max: m.max,
                 x_m_max: m.x_max,
-                m_min: clean(m.min),
+                m_min: m.min,
                 x_m_min: m.x_min,
                 v_abs_max: vv,
                 x_v: xv,

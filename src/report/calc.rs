@@ -339,9 +339,8 @@ pub fn figures(prep: &Prepared, r: &MemberCheck, sys: System) -> Vec<Figure> {
         let patterned = !c.patterns.is_empty();
         let ex = d.extremes(c, w, q, 0..d.len.len());
         let mut marks = Vec::new();
-        let tiny = 1e-9 * ex.max.abs().max(ex.min.abs());
         for (v, x) in [(ex.max, ex.x_max), (ex.min, ex.x_min)] {
-            if v.abs() > tiny {
+            if v != 0.0 {
                 marks.push((
                     Show::Span.value(x, sys),
                     sign * show.value(v * scale, sys),

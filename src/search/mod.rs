@@ -135,24 +135,10 @@ pub struct Candidate {
     pub material: RowMaterial,
 }
 
-fn key(rank: Rank, c: &Candidate) -> f64 {
-    match rank {
-        Rank::Mass => c.mass,
-        Rank::Cost => c.cost.unwrap_or(f64::INFINITY),
-        Rank::Depth => c.depth,
-        Rank::Utilisation => -c.utilisation,
-    }
-}
-
-/// The total order used for ranking.
+/// The total order used for ranking (criterion, then mass, depth, name,
+/// file, line).
 pub fn compare(rank: Rank, a: &Candidate, b: &Candidate) -> Ordering {
-    key(rank, a)
-        .total_cmp(&key(rank, b))
-        .then(a.mass.total_cmp(&b.mass))
-        .then(a.depth.total_cmp(&b.depth))
-        .then_with(|| a.name.cmp(&b.name))
-        .then(a.file.cmp(&b.file))
-        .then(a.line.cmp(&b.line))
+    KeyRef::of(a).cmp(rank, b)
 }
 
 /// A bounded, sorted list.
@@ -298,7 +284,19 @@ struct KeyRef<'a> {
     line: u64,
 }
 
-impl KeyRef<'_> {
+impl<'a> KeyRef<'a> {
+    fn of(c: &'a Candidate) -> KeyRef<'a> {
+        KeyRef {
+            mass: c.mass,
+            depth: c.depth,
+            cost: c.cost,
+            utilisation: c.utilisation,
+            name: &c.name,
+            file: c.file,
+            line: c.line,
+        }
+    }
+
     fn key(&self, rank: Rank) -> f64 {
         match rank {
             Rank::Mass => self.mass,
@@ -307,10 +305,10 @@ impl KeyRef<'_> {
             Rank::Utilisation => -self.utilisation,
         }
     }
-    /// Same order as `compare`, against a materialised candidate.
+    /// The ranking order, against a materialised candidate.
     fn cmp(&self, rank: Rank, b: &Candidate) -> Ordering {
         self.key(rank)
-            .total_cmp(&key(rank, b))
+            .total_cmp(&KeyRef::of(b).key(rank))
             .then(self.mass.total_cmp(&b.mass))
             .then(self.depth.total_cmp(&b.depth))
             .then_with(|| self.name.cmp(b.name.as_str()))
@@ -630,9 +628,8 @@ pub fn scan_excluding<R: Read + Send>(
             ));
         }
     }
-    if counts.bad > 0 && !opts.skip_bad_rows && errors.is_empty() {
-        // Only excluded rows: the caller asked for them to be skipped.
-    } else if counts.bad > 0 && !opts.skip_bad_rows {
+    // (Excluded rows count as bad, and only come with skip_bad_rows.)
+    if counts.bad > 0 && !opts.skip_bad_rows {
         let total = counts.bad;
         let mut errs = errors;
         if total as usize > errs.len() {
