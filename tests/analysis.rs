@@ -26,11 +26,10 @@ fn single(spans: Vec<f64>, supports: Vec<Support>) -> (Beam, usize) {
 
 fn moments(b: &Beam) -> (Demand, Extremes, Extremes, f64) {
     let dm = Demand::build(b, &[]).unwrap();
-    let c = &dm.combos[0];
     let n = dm.len.len();
-    let m = dm.extremes(c, 0.0, Quantity::Moment, 0..n);
-    let v = dm.extremes(c, 0.0, Quantity::Shear, 0..n);
-    let d = dm.extremes(c, 0.0, Quantity::Deflection, 0..n);
+    let m = dm.combo_extremes(0, 0.0, 1.0, Quantity::Moment, 0..n);
+    let v = dm.combo_extremes(0, 0.0, 1.0, Quantity::Shear, 0..n);
+    let d = dm.combo_extremes(0, 0.0, 1.0, Quantity::Deflection, 0..n);
     let vmax = v.max.abs().max(v.min.abs());
     (dm, m, d, vmax)
 }
@@ -409,17 +408,17 @@ proptest! {
         b2.combo("2D", ComboKind::Strength, &[(0, 1.0), (extra, 1.0)]);
         let dm2 = Demand::build(&b2, &[]).unwrap();
         let n = dm.len.len();
-        let a = dm.extremes(&dm.combos[0], 0.0, Quantity::Moment, 0..n);
-        let a2 = dm2.extremes(&dm2.combos[0], 0.0, Quantity::Moment, 0..n);
+        let a = dm.combo_extremes(0, 0.0, 1.0, Quantity::Moment, 0..n);
+        let a2 = dm2.combo_extremes(0, 0.0, 1.0, Quantity::Moment, 0..n);
         let s = a.max.abs().max(a.min.abs()).max(1.0);
         prop_assert!((a2.max - 2.0 * a.max).abs() < 1e-8 * s);
         prop_assert!((a2.min - 2.0 * a.min).abs() < 1e-8 * s);
         let mut z = b.clone();
         z.loads.clear();
         let dz = Demand::build(&z, &[]).unwrap();
-        let ez = dz.extremes(&dz.combos[0], 0.0, Quantity::Moment, 0..dz.len.len());
+        let ez = dz.combo_extremes(0, 0.0, 1.0, Quantity::Moment, 0..dz.len.len());
         prop_assert!(ez.max == 0.0 && ez.min == 0.0);
-        let dz = dz.extremes(&dz.combos[0], 0.0, Quantity::Deflection, 0..dz.len.len());
+        let dz = dz.combo_extremes(0, 0.0, 1.0, Quantity::Deflection, 0..dz.len.len());
         prop_assert!(dz.max == 0.0 && dz.min == 0.0);
     }
 
@@ -440,8 +439,8 @@ proptest! {
         m.combo("D", ComboKind::Strength, &[(d, 1.0)]);
         let da = Demand::build(&b, &[]).unwrap();
         let db = Demand::build(&m, &[]).unwrap();
-        let ea = da.extremes(&da.combos[0], 0.0, Quantity::Moment, 0..da.len.len());
-        let eb = db.extremes(&db.combos[0], 0.0, Quantity::Moment, 0..db.len.len());
+        let ea = da.combo_extremes(0, 0.0, 1.0, Quantity::Moment, 0..da.len.len());
+        let eb = db.combo_extremes(0, 0.0, 1.0, Quantity::Moment, 0..db.len.len());
         let s = ea.max.abs().max(ea.min.abs()).max(1.0);
         prop_assert!((ea.max - eb.max).abs() < 1e-7 * s, "{} vs {}", ea.max, eb.max);
         prop_assert!((ea.min - eb.min).abs() < 1e-7 * s);

@@ -258,17 +258,17 @@ proptest! {
                 }
             }
             let d2 = Demand::build(&b, &[]).unwrap();
-            let m = d2.extremes(&d2.combos[0], w_sw, Quantity::Moment, 0..d2.len.len());
-            let v = d2.extremes(&d2.combos[0], w_sw, Quantity::Shear, 0..d2.len.len());
+            let m = d2.combo_extremes(0, w_sw, 1.0, Quantity::Moment, 0..d2.len.len());
+            let v = d2.combo_extremes(0, w_sw, 1.0, Quantity::Shear, 0..d2.len.len());
             worst[0] = worst[0].max(m.max);
             worst[1] = worst[1].min(m.min);
             worst[2] = worst[2].max(v.max.abs().max(v.min.abs()));
-            let y = d2.extremes(&d2.combos[1], w_sw, Quantity::Deflection, d2.stretch_elements(0));
+            let y = d2.combo_extremes(1, w_sw, 1.0, Quantity::Deflection, d2.stretch_elements(0));
             worst[3] = worst[3].max(y.max.abs().max(y.min.abs()));
         }
-        let m = dm.extremes(&dm.combos[0], w_sw, Quantity::Moment, 0..ne);
-        let v = dm.extremes(&dm.combos[0], w_sw, Quantity::Shear, 0..ne);
-        let y = dm.extremes(&dm.combos[1], w_sw, Quantity::Deflection, dm.stretch_elements(0));
+        let m = dm.combo_extremes(0, w_sw, 1.0, Quantity::Moment, 0..ne);
+        let v = dm.combo_extremes(0, w_sw, 1.0, Quantity::Shear, 0..ne);
+        let y = dm.combo_extremes(1, w_sw, 1.0, Quantity::Deflection, dm.stretch_elements(0));
         let scale = m.max.abs().max(m.min.abs());
         prop_assert!((m.max - worst[0]).abs() <= 1e-9 * scale, "M+ {} vs {}", m.max, worst[0]);
         prop_assert!((m.min - worst[1]).abs() <= 1e-9 * scale, "M- {} vs {}", m.min, worst[1]);

@@ -143,8 +143,8 @@ fn scale_extremes_stay_finite_and_right() {
             b.udl(d, w);
             b.combo("D", ComboKind::Strength, &[(d, 1.0)]);
             let dm = Demand::build(&b, &[]).unwrap();
-            let m = dm.extremes(&dm.combos[0], 0.0, Quantity::Moment, 0..dm.len.len());
-            let y = dm.extremes(&dm.combos[0], 0.0, Quantity::Deflection, 0..dm.len.len());
+            let m = dm.combo_extremes(0, 0.0, 1.0, Quantity::Moment, 0..dm.len.len());
+            let y = dm.combo_extremes(0, 0.0, 1.0, Quantity::Deflection, 0..dm.len.len());
             assert!(m.max.is_finite() && y.max.is_finite());
             assert!(
                 (m.max - w * l * l / 8.0).abs() <= 1e-9 * w * l * l,

@@ -11,10 +11,77 @@
 //! the parts that make the value worse. The maximum of the envelope is
 //! located on stations (element ends and interior points) and then refined
 //! exactly on the element polynomials with the pattern found there.
+//!
+//! Spring supports. With springs, moment and shear depend on E·I, so the
+//! analysis holds every spring rigid and adds one basis response per spring:
+//! a unit downward settlement of that support (E·I = 1). For a section of
+//! stiffness E·I, the settlements Δ solve the compatibility of the spring
+//! forces with the reactions (with u = E·I·Δ):
+//!
+//!   (diag(k/(E·I)) − ρ)·u = R₀
+//!
+//! where R₀ are the rigid-support reactions at the springs and ρ_ij the
+//! reaction at spring i for a unit settlement of spring j (ρ is negative
+//! semi-definite, so the matrix is positive definite for k > 0). Every
+//! coefficient of the combined response is then c₀ + Σ_j u_j·c_j; the
+//! small inverse is formed once per section ([`Demand::section`]) and
+//! applied per combination ([`Demand::apply`]): no re-analysis and no
+//! allocation. k → ∞ gives u → 0 (rigid); k → 0 gives zero reaction at the
+//! spring (support removed). Deflections stay measured from the chord of
+//! each span's displaced supports; the settlements are reported apart.
 
-use super::model::{Beam, ComboKind, DeflectionLimit, Stretch};
+use super::model::{Beam, ComboKind, DeflectionLimit, Stretch, Support};
 use super::solve::{self, Coef, Mesh, MeshLoad, Response};
-use crate::error::Result;
+use crate::error::{Error, Result};
+
+/// Most spring supports in one beam (the per-section compatibility system
+/// lives on the stack).
+pub const MAX_SPRINGS: usize = 16;
+
+/// Most pattern parts (case × span with loads) in one combination: the
+/// envelope records which parts are active as bits of a u64.
+pub const MAX_PATTERN_PARTS: usize = 64;
+
+/// One spring support's basis response.
+#[derive(Clone, Debug)]
+pub struct SpringBasis {
+    /// Beam node of the spring.
+    pub node: usize,
+    /// Stiffness k, N/mm.
+    pub k: f64,
+    /// Response to a unit downward settlement of this support, E·I = 1,
+    /// every spring held rigid.
+    pub resp: Response,
+}
+
+/// What the demand needs to know of one section: its self-weight
+/// intensity and, with springs, the inverse of its compatibility matrix.
+/// Built once per section by [`Demand::section`].
+#[derive(Clone, Debug)]
+pub struct SectionLoad {
+    /// Self-weight intensity, N/mm.
+    pub w_sw: f64,
+    /// Bending stiffness E·I, N·mm² (only needed with springs and for
+    /// deflections).
+    pub ei: f64,
+    /// Number of springs (0: the fields below are unused).
+    ns: usize,
+    /// (diag(k/(E·I)) − ρ)⁻¹, row-major ns × ns; None without springs, so
+    /// the common case copies nothing.
+    ainv: Option<[f64; MAX_SPRINGS * MAX_SPRINGS]>,
+}
+
+/// One combination applied to one section: the self-weight scale and the
+/// spring correction of the non-patterned loads.
+#[derive(Clone, Copy, Debug)]
+pub struct Applied<'a> {
+    pub combo: &'a ComboDemand,
+    pub sect: &'a SectionLoad,
+    /// Self-weight intensity times the combination's self-weight factor.
+    s: f64,
+    /// E·I × settlement of each spring under the non-patterned loads.
+    u: [f64; MAX_SPRINGS],
+}
 
 /// A combination ready for checking.
 #[derive(Clone, Debug)]
@@ -112,6 +179,11 @@ pub struct Demand {
     pub unit_sw: Response,
     pub combos: Vec<ComboDemand>,
     pub cantilever_factor: f64,
+    /// Spring supports, in node order.
+    pub springs: Vec<SpringBasis>,
+    /// ρ[i·n + j]: upward reaction at spring i for a unit downward
+    /// settlement of spring j, E·I = 1 (n = number of springs).
+    pub rho: Vec<f64>,
 }
 
 /// Which response quantity.
@@ -377,6 +449,17 @@ fn bracketed_root(c: &Coef, a: f64, b: f64, ta: f64) -> f64 {
     )
 }
 
+/// A bound on |f''| over an element of length l, for the pruning of
+/// pattern refinements.
+#[inline]
+fn curvature_bound(q: Quantity, c: &Coef, l: f64) -> f64 {
+    match q {
+        Quantity::Moment => 2.0 * c[2].abs() + 6.0 * c[3].abs() * l,
+        Quantity::Shear => 6.0 * c[3].abs(),
+        Quantity::Deflection => c[0].abs() + l * (c[1].abs() + l * (c[2].abs() + l * c[3].abs())),
+    }
+}
+
 #[inline]
 fn add_coef(a: &Coef, b: &Coef) -> Coef {
     [
@@ -448,6 +531,30 @@ impl Demand {
         }
         let ne = mesh.elements();
         let nodes = beam.supports.len();
+        let mut springs = Vec::new();
+        for (node, sup) in beam.supports.iter().enumerate() {
+            if let Support::Spring(k) = *sup {
+                springs.push(SpringBasis {
+                    node,
+                    k,
+                    resp: solve::analyse_settlement(beam, &mesh, node)?,
+                });
+            }
+        }
+        if springs.len() > MAX_SPRINGS {
+            return Err(Error::msg(format!(
+                "the beam has {} spring supports: at most {MAX_SPRINGS} are supported",
+                springs.len()
+            ))
+            .in_field("supports"));
+        }
+        let ns = springs.len();
+        let mut rho = vec![0.0; ns * ns];
+        for i in 0..ns {
+            for j in 0..ns {
+                rho[i * ns + j] = springs[j].resp.reaction[springs[i].node];
+            }
+        }
         let combos = beam
             .combinations
             .iter()
@@ -471,7 +578,9 @@ impl Demand {
                         fixed.add_scaled(f, &cases[ci]);
                     }
                 }
-                let env = if patterns.is_empty() || patterns.len() > 64 {
+                let env = if patterns.is_empty() || !springs.is_empty() {
+                    // With springs every part's response depends on E·I:
+                    // the envelope is formed per section.
                     Vec::new()
                 } else {
                     [Quantity::Moment, Quantity::Shear, Quantity::Deflection]
@@ -479,7 +588,14 @@ impl Demand {
                         .map(|&q| pattern_env(&patterns, q, &len))
                         .collect()
                 };
-                ComboDemand {
+                if patterns.len() > MAX_PATTERN_PARTS {
+                    return Err(Error::msg(format!(
+                        "combination '{}' has {} patterned parts (load case × span): at most {MAX_PATTERN_PARTS} are supported; turn pattern loading off for some cases (pattern = false)",
+                        c.name,
+                        patterns.len()
+                    )));
+                }
+                Ok(ComboDemand {
                     name: c.name.clone(),
                     kind: c.kind,
                     limit: c.limit,
@@ -488,9 +604,9 @@ impl Demand {
                     patterns,
                     pattern_labels,
                     env,
-                }
+                })
             })
-            .collect();
+            .collect::<Result<Vec<_>>>()?;
         Ok(Demand {
             len,
             stretches,
@@ -500,39 +616,188 @@ impl Demand {
             combos,
             mesh,
             cantilever_factor: beam.cantilever_factor,
+            springs,
+            rho,
         })
     }
 
-    /// Combined coefficients of element `e` for a combination with
-    /// self-weight intensity `w_sw` (N/mm), patterns left out.
+    /// Prepare a section: self-weight intensity `w_sw` (N/mm) and bending
+    /// stiffness `ei` (N·mm²). With springs, forms the inverse of
+    /// diag(k/(E·I)) − ρ (Gauss–Jordan with partial pivoting on the stack).
+    pub fn section(&self, w_sw: f64, ei: f64) -> SectionLoad {
+        let ns = self.springs.len();
+        if ns == 0 {
+            return SectionLoad {
+                w_sw,
+                ei,
+                ns,
+                ainv: None,
+            };
+        }
+        let mut a = [0.0f64; MAX_SPRINGS * MAX_SPRINGS];
+        let mut inv = [0.0f64; MAX_SPRINGS * MAX_SPRINGS];
+        for i in 0..ns {
+            for j in 0..ns {
+                a[i * ns + j] = -self.rho[i * ns + j];
+            }
+            a[i * ns + i] += self.springs[i].k / ei;
+            inv[i * ns + i] = 1.0;
+        }
+        for c in 0..ns {
+            let p = (c..ns)
+                .max_by(|&x, &y| a[x * ns + c].abs().total_cmp(&a[y * ns + c].abs()))
+                .unwrap_or(c);
+            if p != c {
+                for j in 0..ns {
+                    a.swap(c * ns + j, p * ns + j);
+                    inv.swap(c * ns + j, p * ns + j);
+                }
+            }
+            let d = a[c * ns + c];
+            for j in 0..ns {
+                a[c * ns + j] /= d;
+                inv[c * ns + j] /= d;
+            }
+            for r in 0..ns {
+                if r != c {
+                    let f = a[r * ns + c];
+                    if f != 0.0 {
+                        for j in 0..ns {
+                            a[r * ns + j] -= f * a[c * ns + j];
+                            inv[r * ns + j] -= f * inv[c * ns + j];
+                        }
+                    }
+                }
+            }
+        }
+        SectionLoad {
+            w_sw,
+            ei,
+            ns,
+            ainv: Some(inv),
+        }
+    }
+
+    /// The spring correction u = A⁻¹·R₀ for a response (scaled by `f`).
     #[inline]
-    pub fn base_coef(&self, combo: &ComboDemand, w_sw: f64, e: usize) -> Coef {
-        let f = &combo.fixed.elems[e];
+    fn spring_u(&self, sect: &SectionLoad, r: &Response, f: f64) -> [f64; MAX_SPRINGS] {
+        let mut u = [0.0; MAX_SPRINGS];
+        let ns = sect.ns;
+        if let Some(ainv) = &sect.ainv {
+            for i in 0..ns {
+                let mut acc = 0.0;
+                for j in 0..ns {
+                    acc += ainv[i * ns + j] * r.reaction[self.springs[j].node];
+                }
+                u[i] = f * acc;
+            }
+        }
+        u
+    }
+
+    /// Apply combination `ci` to a prepared section.
+    #[inline]
+    pub fn apply<'a>(&'a self, ci: usize, sect: &'a SectionLoad) -> Applied<'a> {
+        let combo = &self.combos[ci];
+        let s = sect.w_sw * combo.sw_factor;
+        let mut u = [0.0; MAX_SPRINGS];
+        if sect.ns > 0 {
+            let a = self.spring_u(sect, &combo.fixed, 1.0);
+            let b = self.spring_u(sect, &self.unit_sw, s);
+            for i in 0..sect.ns {
+                u[i] = a[i] + b[i];
+            }
+        }
+        Applied { combo, sect, s, u }
+    }
+
+    /// Extremes of combination `ci` for one section (self-weight intensity
+    /// `w_sw`, stiffness `ei`): [`Demand::section`], [`Demand::apply`] and
+    /// [`Demand::extremes`] in one call, for one-off use.
+    pub fn combo_extremes(
+        &self,
+        ci: usize,
+        w_sw: f64,
+        ei: f64,
+        q: Quantity,
+        elems: std::ops::Range<usize>,
+    ) -> Extremes {
+        let sl = self.section(w_sw, ei);
+        self.extremes(&self.apply(ci, &sl), q, elems)
+    }
+
+    /// Coefficients of response `r` on element `e` with a spring
+    /// correction `u` added.
+    #[inline]
+    fn corrected(&self, r: &Coef, u: &[f64; MAX_SPRINGS], ns: usize, e: usize) -> Coef {
+        let mut c = *r;
+        for (j, sp) in self.springs.iter().enumerate().take(ns) {
+            let b = &sp.resp.elems[e];
+            for k in 0..6 {
+                c[k] += u[j] * b[k];
+            }
+        }
+        c
+    }
+
+    /// Coefficients of pattern part `j` on element `e`, spring-corrected.
+    pub fn part_coef(&self, a: &Applied<'_>, j: usize, e: usize) -> Coef {
+        let p = &a.combo.patterns[j];
+        if a.sect.ns == 0 {
+            return p.elems[e];
+        }
+        let u = self.spring_u(a.sect, p, 1.0);
+        self.corrected(&p.elems[e], &u, a.sect.ns, e)
+    }
+
+    /// Upward reaction of pattern part `j` at beam node `n`, spring-corrected.
+    fn part_reaction(&self, a: &Applied<'_>, j: usize, n: usize) -> f64 {
+        let p = &a.combo.patterns[j];
+        let mut r = p.reaction[n];
+        if a.sect.ns > 0 {
+            let u = self.spring_u(a.sect, p, 1.0);
+            for (i, sp) in self.springs.iter().enumerate() {
+                r += u[i] * sp.resp.reaction[n];
+            }
+        }
+        r
+    }
+
+    /// Combined coefficients of element `e` for an applied combination,
+    /// patterns left out.
+    #[inline]
+    pub fn base_coef(&self, a: &Applied<'_>, e: usize) -> Coef {
+        let f = &a.combo.fixed.elems[e];
         let u = &self.unit_sw.elems[e];
-        let s = w_sw * combo.sw_factor;
-        [
+        let s = a.s;
+        let c = [
             f[0] + s * u[0],
             f[1] + s * u[1],
             f[2] + s * u[2],
             f[3] + s * u[3],
             f[4] + s * u[4],
             f[5] + s * u[5],
-        ]
+        ];
+        if a.sect.ns == 0 {
+            c
+        } else {
+            self.corrected(&c, &a.u, a.sect.ns, e)
+        }
     }
 
-    /// Extremes of a quantity over the elements `elems` for a combination,
-    /// with pattern loading enveloped when the combination has patterns.
+    /// Extremes of a quantity over the elements `elems` for an applied
+    /// combination, with pattern loading enveloped when it has patterns.
     pub fn extremes(
         &self,
-        combo: &ComboDemand,
-        w_sw: f64,
+        a: &Applied<'_>,
         q: Quantity,
         elems: std::ops::Range<usize>,
     ) -> Extremes {
+        let combo = a.combo;
         let mut ex = Extremes::EMPTY;
         if combo.patterns.is_empty() {
             for e in elems {
-                let c = self.base_coef(combo, w_sw, e);
+                let c = self.base_coef(a, e);
                 let mut el = element_extremes(q, &c, self.len[e]);
                 el.x_max += self.mesh.x[e];
                 el.x_min += self.mesh.x[e];
@@ -540,23 +805,22 @@ impl Demand {
             }
             return ex.cleaned();
         }
-        // Envelope on stations; in each element, every distinct pattern seen
-        // at a station is then maximised exactly on the element polynomial.
         let qi = match q {
             Quantity::Moment => 0,
             Quantity::Shear => 1,
             Quantity::Deflection => 2,
         };
         let Some(env) = combo.env.get(qi) else {
-            return self.extremes_slow(combo, w_sw, q, elems).cleaned();
+            return self.extremes_per_section(a, q, elems).cleaned();
         };
-        // Per element: the envelope on its stations, then the exact maxima of
-        // its patterns, skipping those that provably cannot beat the best so
-        // far. Between stations h apart a function with |f''| ≤ K exceeds its
-        // larger end value by at most K·h²/8, and at a station no pattern
-        // exceeds the envelope.
+        // Envelope on stations; in each element, every distinct pattern seen
+        // at a station is then maximised exactly on the element polynomial,
+        // skipping those that provably cannot beat the best so far. Between
+        // stations h apart a function with |f''| ≤ K exceeds its larger end
+        // value by at most K·h²/8, and at a station no pattern exceeds the
+        // envelope.
         for e in elems {
-            let base = self.base_coef(combo, w_sw, e);
+            let base = self.base_coef(a, e);
             let x0 = self.mesh.x[e];
             let l = self.len[e];
             let h = l / (NST - 1) as f64;
@@ -570,18 +834,9 @@ impl Demand {
                 s_hi = s_hi.max(hi);
                 s_lo = s_lo.min(lo);
             }
-            let curvature_bound = |c: &Coef| -> f64 {
-                match q {
-                    Quantity::Moment => 2.0 * c[2].abs() + 6.0 * c[3].abs() * l,
-                    Quantity::Shear => 6.0 * c[3].abs(),
-                    Quantity::Deflection => {
-                        c[0].abs() + l * (c[1].abs() + l * (c[2].abs() + l * c[3].abs()))
-                    }
-                }
-            };
             for p in &env.plus[e] {
                 let c = add_coef(&base, p);
-                if s_hi + curvature_bound(&c) * h * h / 8.0 <= ex.max {
+                if s_hi + curvature_bound(q, &c, l) * h * h / 8.0 <= ex.max {
                     continue;
                 }
                 let el = element_extremes(q, &c, l);
@@ -592,7 +847,7 @@ impl Demand {
             }
             for p in &env.minus[e] {
                 let c = add_coef(&base, p);
-                if s_lo - curvature_bound(&c) * h * h / 8.0 >= ex.min {
+                if s_lo - curvature_bound(q, &c, l) * h * h / 8.0 >= ex.min {
                     continue;
                 }
                 let el = element_extremes(q, &c, l);
@@ -605,22 +860,69 @@ impl Demand {
         ex.cleaned()
     }
 
-    /// Envelope on stations without refinement, for more than 64 pattern
-    /// parts (no pattern masks): conservative to the station spacing only.
-    fn extremes_slow(
+    /// The pattern envelope formed for one section (springs make every
+    /// part depend on E·I): the same station masks and exact refinement as
+    /// the precomputed path, on the stack.
+    fn extremes_per_section(
         &self,
-        combo: &ComboDemand,
-        w_sw: f64,
+        a: &Applied<'_>,
         q: Quantity,
         elems: std::ops::Range<usize>,
     ) -> Extremes {
+        let np = a.combo.patterns.len();
+        let mut us = [[0.0f64; MAX_SPRINGS]; MAX_PATTERN_PARTS];
+        for (j, u) in us.iter_mut().enumerate().take(np) {
+            *u = self.spring_u(a.sect, &a.combo.patterns[j], 1.0);
+        }
         let mut ex = Extremes::EMPTY;
+        let mut parts = [[0.0f64; 6]; MAX_PATTERN_PARTS];
         for e in elems {
+            let base = self.base_coef(a, e);
+            let x0 = self.mesh.x[e];
+            let l = self.len[e];
+            let h = l / (NST - 1) as f64;
+            for j in 0..np {
+                parts[j] = self.corrected(&a.combo.patterns[j].elems[e], &us[j], a.sect.ns, e);
+            }
+            let (mut mh, mut ml) = ([0u64; NST], [0u64; NST]);
             for k in 0..NST {
-                let s = self.len[e] * (k as f64 / (NST - 1) as f64);
-                let (lo, hi) = self.envelope_at(combo, w_sw, q, e, s);
-                ex.push(hi, self.mesh.x[e] + s);
-                ex.push(lo, self.mesh.x[e] + s);
+                let s = h * k as f64;
+                let b = eval(q, &base, s);
+                let (mut hi, mut lo) = (b, b);
+                for (j, c) in parts.iter().enumerate().take(np) {
+                    let v = eval(q, c, s);
+                    if v > 0.0 {
+                        hi += v;
+                        mh[k] |= 1u64 << j;
+                    } else {
+                        lo += v;
+                        ml[k] |= 1u64 << j;
+                    }
+                }
+                ex.push(hi, x0 + s);
+                ex.push(lo, x0 + s);
+            }
+            for (masks, upper) in [(&mh, true), (&ml, false)] {
+                for k in 0..NST {
+                    if masks[..k].contains(&masks[k]) {
+                        continue;
+                    }
+                    let mut c = base;
+                    for (j, pc) in parts.iter().enumerate().take(np) {
+                        if masks[k] & (1u64 << j) != 0 {
+                            c = add_coef(&c, pc);
+                        }
+                    }
+                    let el = element_extremes(q, &c, l);
+                    if upper && el.max > ex.max {
+                        ex.max = el.max;
+                        ex.x_max = x0 + el.x_max;
+                    }
+                    if !upper && el.min < ex.min {
+                        ex.min = el.min;
+                        ex.x_min = x0 + el.x_min;
+                    }
+                }
             }
         }
         ex
@@ -646,37 +948,28 @@ impl Demand {
 
     /// Moment at a mesh node (the value just right of it, enveloped by
     /// magnitude under patterns) — used for Cb's quarter points.
-    pub fn abs_moment_at_node(&self, combo: &ComboDemand, w_sw: f64, node: usize) -> f64 {
+    pub fn abs_moment_at_node(&self, a: &Applied<'_>, node: usize) -> f64 {
         let (e, s) = if node < self.len.len() {
             (node, 0.0)
         } else {
             (node - 1, self.len[node - 1])
         };
-        let base = solve::moment(&self.base_coef(combo, w_sw, e), s);
-        if combo.patterns.is_empty() {
-            return base.abs();
-        }
-        let (mut hi, mut lo) = (base, base);
-        for p in &combo.patterns {
-            let v = solve::moment(&p.elems[e], s);
-            if v > 0.0 {
-                hi += v;
-            } else {
-                lo += v;
-            }
-        }
+        let (lo, hi) = self.envelope_at(a, Quantity::Moment, e, s);
         hi.abs().max(lo.abs())
     }
 
-    /// Reactions of a combination: (min, max) upward force at each beam
-    /// node over the patterns, for self-weight intensity `w_sw`.
-    pub fn reactions(&self, combo: &ComboDemand, w_sw: f64) -> Vec<(f64, f64)> {
+    /// Reactions of an applied combination: (min, max) upward force at
+    /// each beam node over the patterns.
+    pub fn reactions(&self, a: &Applied<'_>) -> Vec<(f64, f64)> {
         (0..self.node_x.len())
             .map(|n| {
-                let b = combo.fixed.reaction[n] + w_sw * combo.sw_factor * self.unit_sw.reaction[n];
+                let mut b = a.combo.fixed.reaction[n] + a.s * self.unit_sw.reaction[n];
+                for (i, sp) in self.springs.iter().enumerate() {
+                    b += a.u[i] * sp.resp.reaction[n];
+                }
                 let (mut lo, mut hi) = (b, b);
-                for p in &combo.patterns {
-                    let v = p.reaction[n];
+                for j in 0..a.combo.patterns.len() {
+                    let v = self.part_reaction(a, j, n);
                     if v > 0.0 {
                         hi += v;
                     } else {
@@ -687,23 +980,61 @@ impl Demand {
             })
             .collect()
     }
-}
 
-impl Demand {
+    /// Reactions (upward force N, clockwise moment N·mm) at each beam node
+    /// for load case `case` alone (unfactored, patterns off), plus `sw` ×
+    /// the unit self-weight, spring-corrected for the section.
+    pub fn case_reactions(&self, sect: &SectionLoad, case: usize, sw: f64) -> Vec<(f64, f64)> {
+        let r = &self.cases[case];
+        let mut u = [0.0; MAX_SPRINGS];
+        if sect.ns > 0 {
+            let a = self.spring_u(sect, r, 1.0);
+            let b = self.spring_u(sect, &self.unit_sw, sw);
+            for i in 0..sect.ns {
+                u[i] = a[i] + b[i];
+            }
+        }
+        (0..self.node_x.len())
+            .map(|n| {
+                let mut f = r.reaction[n] + sw * self.unit_sw.reaction[n];
+                let mut m = r.reaction_moment[n] + sw * self.unit_sw.reaction_moment[n];
+                for (i, sp) in self.springs.iter().enumerate() {
+                    f += u[i] * sp.resp.reaction[n];
+                    m += u[i] * sp.resp.reaction_moment[n];
+                }
+                (f, m)
+            })
+            .collect()
+    }
+
+    /// Settlement (mm, downward) of each spring support under an applied
+    /// combination: (node, min, max) over the patterns. Empty without
+    /// springs.
+    pub fn settlements(&self, a: &Applied<'_>) -> Vec<(usize, f64, f64)> {
+        let ns = a.sect.ns;
+        let mut out = Vec::with_capacity(ns);
+        for (i, sp) in self.springs.iter().enumerate().take(ns) {
+            let (mut lo, mut hi) = (a.u[i], a.u[i]);
+            for p in &a.combo.patterns {
+                let v = self.spring_u(a.sect, p, 1.0)[i];
+                if v > 0.0 {
+                    hi += v;
+                } else {
+                    lo += v;
+                }
+            }
+            out.push((sp.node, lo / a.sect.ei, hi / a.sect.ei));
+        }
+        out
+    }
+
     /// (min, max) of a quantity at local position `s` of element `e` over
     /// the load patterns (equal when the combination has none).
-    pub fn envelope_at(
-        &self,
-        combo: &ComboDemand,
-        w_sw: f64,
-        q: Quantity,
-        e: usize,
-        s: f64,
-    ) -> (f64, f64) {
-        let b = eval(q, &self.base_coef(combo, w_sw, e), s);
+    pub fn envelope_at(&self, a: &Applied<'_>, q: Quantity, e: usize, s: f64) -> (f64, f64) {
+        let b = eval(q, &self.base_coef(a, e), s);
         let (mut lo, mut hi) = (b, b);
-        for p in &combo.patterns {
-            let v = eval(q, &p.elems[e], s);
+        for j in 0..a.combo.patterns.len() {
+            let v = eval(q, &self.part_coef(a, j, e), s);
             if v > 0.0 {
                 hi += v;
             } else {

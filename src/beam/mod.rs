@@ -2,11 +2,12 @@
 //! the direct stiffness solution; and the demand (analysed once, checked
 //! many times). No I/O.
 
+pub mod analysis;
 pub mod demand;
 pub mod model;
 pub mod solve;
 
-pub use demand::{Demand, Extremes, Quantity};
+pub use demand::{Applied, Demand, Extremes, Quantity, SectionLoad};
 pub use model::{
     Beam, Category, Combination, ComboKind, DeflectionLimit, Load, LoadCase, LoadKind, Stretch,
     Support,

@@ -214,8 +214,62 @@ fn nearest(xs: &[f64], x: f64) -> usize {
     }
 }
 
-/// Analyse the beam for a set of loads on a mesh, E·I = 1.
+/// Analyse the beam for a set of loads on a mesh, E·I = 1. Spring
+/// supports are held rigid here: their flexibility enters per section
+/// through [`analyse_settlement`] (see `beam::demand`).
 pub fn analyse(beam: &Beam, mesh: &Mesh, loads: &[MeshLoad]) -> Result<Response> {
+    solve_case(beam, mesh, loads, None)
+}
+
+/// The response of the beam (springs held rigid, E·I = 1) to a unit
+/// downward settlement of the support at beam node `node`, with no load:
+/// one basis response of the spring compatibility system.
+pub fn analyse_settlement(beam: &Beam, mesh: &Mesh, node: usize) -> Result<Response> {
+    solve_case(beam, mesh, &[], Some(node))
+}
+
+/// Half-bandwidth of the beam stiffness matrix (two DOFs per node).
+const BW: usize = 3;
+
+/// A symmetric band matrix: row i holds columns i..=i+BW.
+#[derive(Clone)]
+struct Band {
+    n: usize,
+    a: Vec<[f64; BW + 1]>,
+}
+
+impl Band {
+    fn new(n: usize) -> Self {
+        Band {
+            n,
+            a: vec![[0.0; BW + 1]; n],
+        }
+    }
+    #[inline]
+    fn get(&self, i: usize, j: usize) -> f64 {
+        let (r, c) = if i <= j { (i, j) } else { (j, i) };
+        if c - r > BW { 0.0 } else { self.a[r][c - r] }
+    }
+    #[inline]
+    fn add(&mut self, i: usize, j: usize, v: f64) {
+        if i <= j {
+            self.a[i][j - i] += v;
+        }
+    }
+    /// y = A·x
+    fn row_dot(&self, i: usize, x: &[f64]) -> f64 {
+        let lo = i.saturating_sub(BW);
+        let hi = (i + BW + 1).min(self.n);
+        (lo..hi).map(|j| self.get(i, j) * x[j]).sum()
+    }
+}
+
+fn solve_case(
+    beam: &Beam,
+    mesh: &Mesh,
+    loads: &[MeshLoad],
+    settle: Option<usize>,
+) -> Result<Response> {
     let nn = mesh.x.len();
     let ne = nn - 1;
     // Mesh-element loads (qa, qb) and mesh-node loads (P downward, C
@@ -244,7 +298,7 @@ pub fn analyse(beam: &Beam, mesh: &Mesh, loads: &[MeshLoad]) -> Result<Response>
     let nb = beam.supports.len();
     let n = 2 * nb;
     let bx = beam.node_x();
-    let mut k = vec![0.0f64; n * n];
+    let mut k = Band::new(n);
     let mut f = vec![0.0f64; n];
     let span_of = |x: f64| -> usize {
         let mut j = 0;
@@ -295,55 +349,41 @@ pub fn analyse(beam: &Beam, mesh: &Mesh, loads: &[MeshLoad]) -> Result<Response>
         let ke = element_stiffness(l);
         for a in 0..4 {
             for b in 0..4 {
-                k[(2 * j + a) * n + 2 * j + b] += ke[a][b];
+                k.add(2 * j + a, 2 * j + b, ke[a][b]);
             }
         }
     }
-    let k_struct = k.clone();
-    let f_orig = f.clone();
-    let mut fixed_dof = vec![false; n];
+    // Prescribed displacements: zero at every vertical restraint (springs
+    // held rigid) and fixed rotation, one at a settling support.
+    let mut prescribed: Vec<Option<f64>> = vec![None; n];
     for (i, s) in beam.supports.iter().enumerate() {
         match s {
-            Support::Pinned | Support::Roller => fixed_dof[2 * i] = true,
-            Support::Fixed => {
-                fixed_dof[2 * i] = true;
-                fixed_dof[2 * i + 1] = true;
+            Support::Pinned | Support::Roller | Support::Spring(_) => {
+                prescribed[2 * i] = Some(if settle == Some(i) { 1.0 } else { 0.0 })
             }
-            Support::Spring(ks) => k[2 * i * n + 2 * i] += ks,
+            Support::Fixed => {
+                prescribed[2 * i] = Some(if settle == Some(i) { 1.0 } else { 0.0 });
+                prescribed[2 * i + 1] = Some(0.0);
+            }
             Support::Free => {}
         }
     }
-    for d in 0..n {
-        if fixed_dof[d] {
-            for j in 0..n {
-                k[d * n + j] = 0.0;
-                k[j * n + d] = 0.0;
-            }
-            k[d * n + d] = 1.0;
-            f[d] = 0.0;
-        }
-    }
-    let disp = solve_banded(&mut k, &mut f, n, 3).ok_or_else(|| {
+    let disp = solve_prescribed(&k, &f, &prescribed).ok_or_else(|| {
         Error::msg("the supports form a mechanism: the stiffness matrix is singular")
     })?;
-    // Reactions R = K·d − F at supported DOFs (DOF convention: downward, clockwise).
+    // Reactions R = K·d − F at restrained DOFs (DOF convention: downward, clockwise).
     let mut resp = Response::zero(ne, nb);
     let mut r_up_mesh = vec![0.0f64; nn];
     let mut r_m_mesh = vec![0.0f64; nn];
-    let row = |d: usize| -> f64 {
-        let lo = d.saturating_sub(3);
-        let hi = (d + 4).min(n);
-        (lo..hi).map(|j| k_struct[d * n + j] * disp[j]).sum::<f64>() - f_orig[d]
-    };
+    let row = |d: usize| -> f64 { k.row_dot(d, &disp) - f[d] };
     for (i, s) in beam.supports.iter().enumerate() {
         let mi = mesh.beam_node[i];
         match s {
-            Support::Pinned | Support::Roller => r_up_mesh[mi] = -row(2 * i),
+            Support::Pinned | Support::Roller | Support::Spring(_) => r_up_mesh[mi] = -row(2 * i),
             Support::Fixed => {
                 r_up_mesh[mi] = -row(2 * i);
                 r_m_mesh[mi] = row(2 * i + 1);
             }
-            Support::Spring(ks) => r_up_mesh[mi] = ks * disp[2 * i],
             Support::Free => {}
         }
         resp.reaction[i] = r_up_mesh[mi];
@@ -380,6 +420,85 @@ pub fn analyse(beam: &Beam, mesh: &Mesh, loads: &[MeshLoad]) -> Result<Response>
     }
     relative_to_supports(beam, mesh, &mut resp);
     Ok(resp)
+}
+
+/// Solve K·d = F with some displacements prescribed. The free DOFs are
+/// solved with the prescribed values moved to the right-hand side, after a
+/// symmetric diagonal scaling D^(-1/2)·K·D^(-1/2) (unit diagonal), so the
+/// test for a vanishing pivot does not depend on the spans' lengths or on
+/// the units (a 50 m cantilever and a 50 mm one are equally well posed).
+/// Returns None for a mechanism.
+fn solve_prescribed(k: &Band, f: &[f64], prescribed: &[Option<f64>]) -> Option<Vec<f64>> {
+    let n = k.n;
+    let mut a = Band::new(n);
+    let mut b = vec![0.0; n];
+    let mut scale = vec![1.0; n];
+    for i in 0..n {
+        if prescribed[i].is_none() {
+            let d = k.get(i, i);
+            if !(d.is_finite() && d > 0.0) {
+                return None;
+            }
+            scale[i] = 1.0 / d.sqrt();
+        }
+    }
+    for i in 0..n {
+        match prescribed[i] {
+            Some(v) => {
+                a.a[i][0] = 1.0;
+                b[i] = v;
+            }
+            None => {
+                let mut rhs = f[i];
+                let lo = i.saturating_sub(BW);
+                let hi = (i + BW + 1).min(n);
+                for j in lo..hi {
+                    if let Some(v) = prescribed[j] {
+                        rhs -= k.get(i, j) * v;
+                    } else if j >= i {
+                        a.a[i][j - i] = k.get(i, j) * scale[i] * scale[j];
+                    }
+                }
+                b[i] = rhs * scale[i];
+            }
+        }
+    }
+    // Banded LDLᵀ-style elimination (no pivoting: the scaled matrix is
+    // symmetric positive definite unless the supports form a mechanism).
+    for i in 0..n {
+        let piv = a.a[i][0];
+        if !(piv.is_finite() && piv > 1e-12) {
+            return None;
+        }
+        let hi = (i + BW + 1).min(n);
+        for r in i + 1..hi {
+            let factor = a.a[i][r - i] / piv;
+            if factor == 0.0 {
+                continue;
+            }
+            for c in r..hi {
+                a.a[r][c - r] -= factor * a.a[i][c - i];
+            }
+            b[r] -= factor * b[i];
+        }
+    }
+    let mut y = vec![0.0; n];
+    for i in (0..n).rev() {
+        let hi = (i + BW + 1).min(n);
+        let mut s = b[i];
+        for c in i + 1..hi {
+            s -= a.a[i][c - i] * y[c];
+        }
+        y[i] = s / a.a[i][0];
+    }
+    Some(
+        (0..n)
+            .map(|i| match prescribed[i] {
+                Some(v) => v,
+                None => y[i] * scale[i],
+            })
+            .collect(),
+    )
 }
 
 /// Refer deflections to the supports of each stretch: a span's chord
@@ -436,40 +555,6 @@ fn element_stiffness(l: f64) -> [[f64; 4]; 4] {
         [-12.0 / l3, -6.0 / l2, 12.0 / l3, -6.0 / l2],
         [6.0 / l2, 2.0 / l, -6.0 / l2, 4.0 / l],
     ]
-}
-
-/// Gaussian elimination on a symmetric positive definite band matrix of
-/// half-bandwidth `bw` (no pivoting needed for SPD). Returns None if a
-/// pivot vanishes (a mechanism).
-fn solve_banded(k: &mut [f64], f: &mut [f64], n: usize, bw: usize) -> Option<Vec<f64>> {
-    let scale = (0..n).map(|i| k[i * n + i].abs()).fold(0.0, f64::max);
-    for i in 0..n {
-        let piv = k[i * n + i];
-        if piv.abs() <= 1e-13 * scale || !piv.is_finite() {
-            return None;
-        }
-        let hi = (i + bw + 1).min(n);
-        for r in i + 1..hi {
-            let factor = k[r * n + i] / piv;
-            if factor == 0.0 {
-                continue;
-            }
-            for c in i..hi {
-                k[r * n + c] -= factor * k[i * n + c];
-            }
-            f[r] -= factor * f[i];
-        }
-    }
-    let mut x = vec![0.0; n];
-    for i in (0..n).rev() {
-        let hi = (i + bw + 1).min(n);
-        let mut s = f[i];
-        for c in i + 1..hi {
-            s -= k[i * n + c] * x[c];
-        }
-        x[i] = s / k[i * n + i];
-    }
-    Some(x)
 }
 
 /// Evaluate an element's moment at s.

@@ -358,9 +358,11 @@ impl Prepared {
         let d = &self.demand;
         let ne = d.len.len();
         let shear_stress = shear_factor(p, self.criteria.shear);
+        let ei = m.e * p.ix;
+        let sl = d.section(w, ei);
         for &ci in &self.strength {
-            let combo = &d.combos[ci];
-            let mx = d.extremes(combo, w, Quantity::Moment, 0..ne);
+            let combo = d.apply(ci, &sl);
+            let mx = d.extremes(&combo, Quantity::Moment, 0..ne);
             if mx.max > 0.0 {
                 let ft = mx.max / p.s_top;
                 let fb = mx.max / p.s_bot;
@@ -406,13 +408,13 @@ impl Prepared {
                 ));
             }
             if let (Some(fv), Some(k)) = (m.fv, shear_stress) {
-                let v = d.extremes(combo, w, Quantity::Shear, 0..ne);
+                let v = d.extremes(&combo, Quantity::Shear, 0..ne);
                 let (vv, x) = v.abs_max();
                 f(item(CheckKind::Shear, ci, 0, x, vv, vv.abs() * k, fv));
             }
             if let Some(cap) = ltb::Capacity::new(p, m, self.criteria.bracing) {
                 for (si, seg) in self.segments.iter().enumerate() {
-                    let ex = d.extremes(combo, w, Quantity::Moment, seg.elems.0..seg.elems.1);
+                    let ex = d.extremes(&combo, Quantity::Moment, seg.elems.0..seg.elems.1);
                     let (mmax, x) = ex.abs_max();
                     if mmax == 0.0 {
                         continue;
@@ -420,7 +422,7 @@ impl Prepared {
                     let cb = if seg.free_end {
                         1.0
                     } else {
-                        let q = |k: usize| d.abs_moment_at_node(combo, w, seg.nodes[k]);
+                        let q = |k: usize| d.abs_moment_at_node(&combo, seg.nodes[k]);
                         ltb::cb(mmax.abs(), q(1), q(2), q(3))
                     };
                     let ma = cap.allowable(seg.x2 - seg.x1, cb);
@@ -451,13 +453,14 @@ impl Prepared {
                 }
             }
         }
-        let ei = m.e * p.ix;
         for &ci in &self.service {
-            let combo = &d.combos[ci];
-            let Some(limit) = combo.limit else { continue };
+            let combo = d.apply(ci, &sl);
+            let Some(limit) = combo.combo.limit else {
+                continue;
+            };
             for (k, &(a, b)) in self.stretch_elems.iter().enumerate() {
                 let st = &d.stretches[k];
-                let ex = d.extremes(combo, w, Quantity::Deflection, a..b);
+                let ex = d.extremes(&combo, Quantity::Deflection, a..b);
                 let (y, x) = ex.abs_max();
                 let delta = y / ei;
                 let mut l_eff = st.x2 - st.x1;

@@ -4,8 +4,7 @@
 use super::Out;
 use super::jobargs::JobArgs;
 use super::output::emit;
-use beamsift::beam::demand::{Quantity, eval};
-use beamsift::beam::model::ComboKind;
+use beamsift::beam::analysis;
 use beamsift::check::Prepared;
 use beamsift::error::{Error, Result};
 use beamsift::report::{self, Align, Document, Table, member};
@@ -34,62 +33,10 @@ pub struct Args {
 }
 
 #[derive(Serialize)]
-struct NodeReaction {
-    /// mm from the left end.
-    x: f64,
-    support: String,
-    /// Upward force, N.
-    force: f64,
-    /// Clockwise moment, N·mm.
-    moment: f64,
-}
-
-#[derive(Serialize)]
-struct CaseReactions {
-    case: String,
-    reactions: Vec<NodeReaction>,
-}
-
-#[derive(Serialize)]
-struct ComboReactions {
-    combination: String,
-    /// (min, max) upward force at each node over the load patterns, N.
-    reactions: Vec<(f64, f64)>,
-}
-
-#[derive(Serialize)]
-struct PartExtremes {
-    combination: String,
-    part: String,
-    m_max: f64,
-    x_m_max: f64,
-    m_min: f64,
-    x_m_min: f64,
-    v_abs_max: f64,
-    x_v: f64,
-    /// mm, when E·I is known.
-    deflection: Option<f64>,
-    x_deflection: f64,
-}
-
-#[derive(Serialize)]
-struct Station {
-    x: f64,
-    /// Per combination: (V N, M N·mm, δ mm or null).
-    values: Vec<(f64, f64, Option<f64>)>,
-}
-
-#[derive(Serialize)]
-struct Analysis {
+struct Analysed {
     title: String,
-    /// N·mm², when known.
-    ei: Option<f64>,
-    /// N/mm added to the self-weight case.
-    self_weight: f64,
-    cases: Vec<CaseReactions>,
-    combinations: Vec<ComboReactions>,
-    extremes: Vec<PartExtremes>,
-    stations: Option<Vec<Station>>,
+    #[serde(flatten)]
+    analysis: analysis::Analysis,
     caution: &'static str,
 }
 
@@ -118,104 +65,20 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     let d = &prep.demand;
     let w = prep.self_weight(mass);
     let ei = ix.map(|i| i * job.material.e);
-    let beam = &job.beam;
-    let cases = beam
-        .cases
-        .iter()
-        .enumerate()
-        .map(|(ci, c)| {
-            let r = &d.cases[ci];
-            let sw = if Some(ci) == beam.self_weight_case {
-                w
-            } else {
-                0.0
-            };
-            CaseReactions {
-                case: c.name.clone(),
-                reactions: (0..d.node_x.len())
-                    .filter(|&n| beam.supports[n].restrains_vertical())
-                    .map(|n| NodeReaction {
-                        x: d.node_x[n],
-                        support: beam.supports[n].name(),
-                        force: r.reaction[n] + sw * d.unit_sw.reaction[n],
-                        moment: r.reaction_moment[n] + sw * d.unit_sw.reaction_moment[n],
-                    })
-                    .collect(),
-            }
-        })
-        .collect::<Vec<_>>();
-    let combinations = d
-        .combos
-        .iter()
-        .map(|c| ComboReactions {
-            combination: c.name.clone(),
-            reactions: d.reactions(c, w),
-        })
-        .collect::<Vec<_>>();
-    let mut extremes = Vec::new();
-    for c in &d.combos {
-        for (k, st) in d.stretches.iter().enumerate() {
-            let r = d.stretch_elements(k);
-            let m = d.extremes(c, w, Quantity::Moment, r.clone());
-            let v = d.extremes(c, w, Quantity::Shear, r.clone());
-            let y = d.extremes(c, w, Quantity::Deflection, r);
-            let (vv, xv) = v.abs_max();
-            let (yy, xy) = y.abs_max();
-            extremes.push(PartExtremes {
-                combination: c.name.clone(),
-                part: st.label.clone(),
-                m_max: m.max,
-                x_m_max: m.x_max,
-                m_min: m.min,
-                x_m_min: m.x_min,
-                v_abs_max: vv,
-                x_v: xv,
-                deflection: ei.map(|ei| yy / ei),
-                x_deflection: xy,
-            });
-        }
+    if ei.is_none() && !d.springs.is_empty() {
+        return Err(Error::msg(
+            "the beam rests on spring supports, whose forces depend on the section's E·I: give a section or --Ix",
+        ));
     }
-    let stations = a.stations.then(|| {
-        let mut v = Vec::new();
-        for e in 0..d.len.len() {
-            let last = e + 1 == d.len.len();
-            for k in 0..=(if last { 4 } else { 3 }) {
-                let s = d.len[e] * k as f64 / 4.0;
-                let values = d
-                    .combos
-                    .iter()
-                    .map(|c| {
-                        let mut coef = d.base_coef(c, w, e);
-                        for p in &c.patterns {
-                            for (a, b) in coef.iter_mut().zip(p.elems[e].iter()) {
-                                *a += b;
-                            }
-                        }
-                        (
-                            eval(Quantity::Shear, &coef, s),
-                            eval(Quantity::Moment, &coef, s),
-                            ei.map(|ei| eval(Quantity::Deflection, &coef, s) / ei),
-                        )
-                    })
-                    .collect();
-                v.push(Station {
-                    x: d.mesh.x[e] + s,
-                    values,
-                });
-            }
-        }
-        v
-    });
-    let result = Analysis {
+    let beam = &job.beam;
+    let sect = d.section(w, ei.unwrap_or(1.0));
+    let sw_case = beam.self_weight_case.filter(|_| job.criteria.self_weight);
+    let result = Analysed {
         title: job.title.clone(),
-        ei,
-        self_weight: w,
-        cases,
-        combinations,
-        extremes,
-        stations,
+        analysis: analysis::analyse(beam, d, &sect, sw_case, ei.is_some(), a.stations),
         caution: report::CAUTION,
     };
+    let r = &result.analysis;
     // Document.
     let mut doc = Document::new(format!("Analysis of {}", job.title));
     for t in member::job_tables(&job, sys) {
@@ -245,15 +108,15 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
             ("M", Align::Right),
         ],
     );
-    for c in &result.cases {
-        for r in &c.reactions {
+    for c in &r.cases {
+        for n in &c.reactions {
             rt.row(vec![
                 c.case.clone(),
-                r.support.clone(),
-                Show::Span.fmt(r.x, sys),
-                Show::Force.num(r.force, sys),
-                if r.moment != 0.0 {
-                    Show::Moment.num(r.moment, sys)
+                n.support.clone(),
+                Show::Span.fmt(n.x_mm, sys),
+                Show::Force.num(n.force_n, sys),
+                if n.moment_nmm != 0.0 {
+                    Show::Moment.num(n.moment_nmm, sys)
                 } else {
                     String::new()
                 },
@@ -271,21 +134,43 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
             ("R max", Align::Right),
         ],
     );
-    for c in &result.combinations {
-        for (n, (lo, hi)) in c.reactions.iter().enumerate() {
-            if !beam.supports[n].restrains_vertical() {
-                continue;
-            }
+    for c in &r.combinations {
+        for n in &c.reactions {
             ct.row(vec![
                 c.combination.clone(),
-                beam.supports[n].name(),
-                Show::Span.fmt(d.node_x[n], sys),
-                Show::Force.num(*lo, sys),
-                Show::Force.num(*hi, sys),
+                n.support.clone(),
+                Show::Span.fmt(n.x_mm, sys),
+                Show::Force.num(n.force_n.min, sys),
+                Show::Force.num(n.force_n.max, sys),
             ]);
         }
     }
     doc.table(ct);
+    if r.combinations.iter().any(|c| !c.settlements_mm.is_empty()) {
+        let dl = Show::Deflection.label(sys);
+        let mut st = Table::new(
+            format!(
+                "Spring settlements per combination, downward [{dl}] (range over load patterns)"
+            ),
+            &[
+                ("Combination", Align::Left),
+                ("x", Align::Right),
+                ("min", Align::Right),
+                ("max", Align::Right),
+            ],
+        );
+        for c in &r.combinations {
+            for (x, range) in &c.settlements_mm {
+                st.row(vec![
+                    c.combination.clone(),
+                    Show::Span.fmt(*x, sys),
+                    Show::Deflection.num(range.min, sys),
+                    Show::Deflection.num(range.max, sys),
+                ]);
+            }
+        }
+        doc.table(st);
+    }
     let (ml, dl, sl) = (
         Show::Moment.label(sys),
         Show::Deflection.label(sys),
@@ -302,43 +187,37 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
             (&format!("at [{sl}]"), Align::Right),
             (&format!("|V| [{f}]"), Align::Right),
             (&format!("at [{sl}]"), Align::Right),
-            (&format!("δ [{dl}]"), Align::Right),
+            (&format!("δ down [{dl}]"), Align::Right),
+            (&format!("at [{sl}]"), Align::Right),
+            (&format!("δ up [{dl}]"), Align::Right),
             (&format!("at [{sl}]"), Align::Right),
         ],
     );
-    for (i, e) in result.extremes.iter().enumerate() {
-        let combo = &d.combos[i / d.stretches.len()];
-        let show_d = combo.kind == ComboKind::Service || ei.is_some();
-        et.row(vec![
-            e.combination.clone(),
-            e.part.clone(),
-            Show::Moment.num(e.m_max.max(0.0), sys),
-            if e.m_max > 0.0 {
-                Show::Span.num(e.x_m_max, sys)
-            } else {
-                "—".into()
-            },
-            Show::Moment.num(e.m_min.min(0.0), sys),
-            if e.m_min < 0.0 {
-                Show::Span.num(e.x_m_min, sys)
-            } else {
-                "—".into()
-            },
-            Show::Force.num(e.v_abs_max.abs(), sys),
-            Show::Span.num(e.x_v, sys),
-            match (e.deflection, show_d) {
-                (Some(y), true) => Show::Deflection.num(y, sys),
-                _ => "—".into(),
-            },
-            if e.deflection.is_some() {
-                Show::Span.num(e.x_deflection, sys)
-            } else {
-                "—".into()
-            },
-        ]);
+    let dash = || "—".to_string();
+    let pair = |v: Option<beamsift::beam::analysis::At>, show: Show| -> [String; 2] {
+        match v {
+            Some(a) => [show.num(a.value, sys), Show::Span.num(a.x_mm, sys)],
+            None => [dash(), dash()],
+        }
+    };
+    for e in &r.extremes {
+        let mut row = vec![e.combination.clone(), e.part.clone()];
+        row.extend(pair(e.sagging_nmm, Show::Moment));
+        row.extend(pair(e.hogging_nmm, Show::Moment));
+        row.push(Show::Force.num(e.shear_n.value.abs(), sys));
+        row.push(Show::Span.num(e.shear_n.x_mm, sys));
+        row.extend(pair(e.deflection_down_mm, Show::Deflection));
+        row.extend(pair(
+            e.deflection_up_mm.map(|mut a| {
+                a.value = -a.value;
+                a
+            }),
+            Show::Deflection,
+        ));
+        et.row(row);
     }
     doc.table(et);
-    if let Some(st) = &result.stations {
+    if let Some(st) = &r.stations {
         let mut headers: Vec<(String, Align)> = vec![(format!("x [{sl}]"), Align::Right)];
         for c in &d.combos {
             headers.push((format!("{} V [{f}]", c.name), Align::Right));
@@ -348,7 +227,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         let hs: Vec<(&str, Align)> = headers.iter().map(|(h, a)| (h.as_str(), *a)).collect();
         let mut t = Table::new("Stations (every span loaded)", &hs);
         for s in st {
-            let mut row = vec![Show::Span.num(s.x, sys)];
+            let mut row = vec![Show::Span.num(s.x_mm, sys)];
             for (v, m, y) in &s.values {
                 row.push(Show::Force.num(*v, sys));
                 row.push(Show::Moment.num(*m, sys));
@@ -366,7 +245,8 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         vec![
             "x from the left end; loads and deflections positive downward".into(),
             "M positive sagging (tension in the bottom fibre); reaction moments clockwise positive".into(),
-            "deflection measured from the line joining the span's supports (an overhang: from its support)".into(),
+            "deflection measured from the line joining the span's supports (an overhang: from its support), so a spring's settlement is not in it: the settlements are listed apart".into(),
+            "δ down and δ up: the largest downward and the largest upward movement in each part (δ up printed as a positive magnitude)".into(),
         ],
     );
     doc.caution(vec![

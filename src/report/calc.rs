@@ -226,9 +226,10 @@ pub fn written_checks(prep: &Prepared, r: &MemberCheck, sys: System) -> Vec<Writ
                     if let Some(cap) = ltb::Capacity::new(p, m, prep.criteria.bracing) {
                         let (lb, cb, ms) = match prep.segments.get(it.part) {
                             Some(seg) if !matches!(prep.criteria.bracing, crate::check::Bracing::Continuous) => {
-                                let combo = &prep.demand.combos[it.combo];
                                 let w = prep.self_weight(r.mass_per_length);
-                                let q: Vec<f64> = (1..4).map(|k| prep.demand.abs_moment_at_node(combo, w, seg.nodes[k])).collect();
+                                let sl = prep.demand.section(w, m.e * p.ix);
+                                let combo = prep.demand.apply(it.combo, &sl);
+                                let q: Vec<f64> = (1..4).map(|k| prep.demand.abs_moment_at_node(&combo, seg.nodes[k])).collect();
                                 let cb = if seg.free_end { 1.0 } else { ltb::cb(it.demand, q[0], q[1], q[2]) };
                                 (seg.x2 - seg.x1, cb, Some((q, seg.free_end)))
                             }
@@ -324,20 +325,22 @@ pub fn figures(prep: &Prepared, r: &MemberCheck, sys: System) -> Vec<Figure> {
         .collect();
     let mut figs = Vec::new();
     let ei = prep.material.e * r.properties.ix;
+    let sl = d.section(w, ei);
     let mut plot = |ci: usize, q: Quantity, name: &str, show: Show, scale: f64, sign: f64| {
-        let c = &d.combos[ci];
+        let a = d.apply(ci, &sl);
+        let c = a.combo;
         let (mut lo, mut hi) = (Vec::new(), Vec::new());
         for e in 0..d.len.len() {
             for k in 0..=24 {
                 let s = d.len[e] * k as f64 / 24.0;
-                let (a, b) = d.envelope_at(c, w, q, e, s);
+                let (a, b) = d.envelope_at(&a, q, e, s);
                 let x = Show::Span.value(d.mesh.x[e] + s, sys);
                 lo.push((x, sign * show.value(a * scale, sys)));
                 hi.push((x, sign * show.value(b * scale, sys)));
             }
         }
         let patterned = !c.patterns.is_empty();
-        let ex = d.extremes(c, w, q, 0..d.len.len());
+        let ex = d.extremes(&a, q, 0..d.len.len());
         let mut marks = Vec::new();
         for (v, x) in [(ex.max, ex.x_max), (ex.min, ex.x_min)] {
             if v != 0.0 {
@@ -397,7 +400,13 @@ pub fn figures(prep: &Prepared, r: &MemberCheck, sys: System) -> Vec<Figure> {
 }
 
 /// Reactions per case and per combination.
-pub fn reaction_tables(job: &Job, prep: &Prepared, w_sw: f64, sys: System) -> Vec<Table> {
+pub fn reaction_tables(
+    job: &Job,
+    prep: &Prepared,
+    sect: &crate::beam::SectionLoad,
+    sys: System,
+) -> Vec<Table> {
+    let w_sw = sect.w_sw;
     let d = &prep.demand;
     let b = &job.beam;
     let f = Show::Force.label(sys);
@@ -426,8 +435,9 @@ pub fn reaction_tables(job: &Job, prep: &Prepared, w_sw: f64, sys: System) -> Ve
             0.0
         };
         let mut row = vec![c.name.clone()];
+        let rs = d.case_reactions(sect, ci, sw);
         for &n in &nodes {
-            row.push(Show::Force.num(d.cases[ci].reaction[n] + sw * d.unit_sw.reaction[n], sys));
+            row.push(Show::Force.num(rs[n].0, sys));
         }
         t.row(row);
     }
@@ -446,8 +456,10 @@ pub fn reaction_tables(job: &Job, prep: &Prepared, w_sw: f64, sys: System) -> Ve
         "Reactions per combination (upward; min … max over span patterns)",
         &refs2,
     );
-    for c in &d.combos {
-        let r = d.reactions(c, w_sw);
+    for ci in 0..d.combos.len() {
+        let a = d.apply(ci, sect);
+        let c = a.combo;
+        let r = d.reactions(&a);
         let mut row = vec![c.name.clone()];
         for &n in &nodes {
             let (lo, hi) = r[n];

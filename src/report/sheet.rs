@@ -24,9 +24,16 @@ pub fn build(
         .map(TableOut::from)
         .collect();
     tables.extend(
-        calc::reaction_tables(job, prep, r.self_weight, sys)
-            .into_iter()
-            .map(TableOut::from),
+        calc::reaction_tables(
+            job,
+            prep,
+            &prep
+                .demand
+                .section(r.self_weight, prep.material.e * r.properties.ix),
+            sys,
+        )
+        .into_iter()
+        .map(TableOut::from),
     );
     tables.push(calc::section_table(r, sys).into());
     let verdict = match &r.governing {
