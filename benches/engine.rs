@@ -18,12 +18,14 @@ use std::time::{Duration, Instant};
 fn steel() -> Material {
     Material {
         name: "s".into(),
+        kind: MaterialKind::Steel,
         e: 200_000.0,
-        fb_tension: 207.0,
-        fb_compression: 207.0,
+        fb_tension: Some(207.0),
+        fb_compression: Some(207.0),
         fv: Some(138.0),
         fy: Some(345.0),
         density: 7850.0,
+        timber: TimberFactors::default(),
     }
 }
 

@@ -18,7 +18,9 @@
 use crate::beam::model::{
     Beam, Category, Combination, ComboKind, DeflectionLimit, Load, LoadCase, LoadKind, Support,
 };
-use crate::check::{Bracing, Criteria, Material, ShearMethod};
+use crate::check::{
+    BracedFlange, Bracing, Criteria, LoadHeight, Material, MaterialKind, ShearMethod, TimberFactors,
+};
 use crate::error::{Error, Location, Result};
 use crate::units::{self, Dim};
 use serde::Deserialize;
@@ -80,6 +82,27 @@ enum RawSupport {
 #[serde(deny_unknown_fields)]
 struct RawMaterial {
     name: Option<String>,
+    kind: Option<Spanned<String>>,
+    #[serde(rename = "Emin")]
+    e_min: Option<Spanned<String>>,
+    #[serde(rename = "CD")]
+    cd: Option<Spanned<f64>>,
+    #[serde(rename = "CM_Fb")]
+    cm_fb: Option<Spanned<f64>>,
+    #[serde(rename = "CM_Fv")]
+    cm_fv: Option<Spanned<f64>>,
+    #[serde(rename = "CM_E")]
+    cm_e: Option<Spanned<f64>>,
+    #[serde(rename = "Ct")]
+    ct: Option<Spanned<f64>>,
+    #[serde(rename = "Ci")]
+    ci: Option<Spanned<f64>>,
+    #[serde(rename = "CF")]
+    cf: Option<Spanned<f64>>,
+    #[serde(rename = "Cr")]
+    cr: Option<Spanned<f64>>,
+    #[serde(rename = "Cfu")]
+    cfu: Option<Spanned<f64>>,
     #[serde(rename = "E")]
     e: Option<Spanned<String>>,
     #[serde(rename = "Fb")]
@@ -140,8 +163,14 @@ struct RawPresets {
 #[serde(deny_unknown_fields)]
 struct RawChecks {
     lateral_bracing: Option<Spanned<String>>,
+    braced_flange: Option<Spanned<String>>,
+    load_height: Option<Spanned<String>>,
+    overhang_effective_length: Option<Spanned<f64>>,
     shear: Option<Spanned<String>>,
     self_weight: Option<bool>,
+    exclude: Option<Spanned<Vec<Spanned<String>>>>,
+    creep_factor: Option<Spanned<f64>>,
+    sustained_live: Option<Spanned<f64>>,
 }
 
 /// Maps byte offsets to line:column for error messages.
@@ -219,6 +248,45 @@ pub fn parse_bracing(s: &str) -> Result<Bracing> {
                 "'{s}' is not a lateral bracing: expected \"continuous\", \"supports\" or a brace spacing such as \"1.5 m\""
             ))
         }),
+    }
+}
+
+/// Parse which flange the braces restrain.
+pub fn parse_braced_flange(s: &str) -> Result<BracedFlange> {
+    match s.trim().to_ascii_lowercase().as_str() {
+        "top" => Ok(BracedFlange::Top),
+        "both" => Ok(BracedFlange::Both),
+        other => Err(Error::msg(format!(
+            "unknown braced flange '{other}': expected top (braces restrain the top flange only) or both"
+        ))),
+    }
+}
+
+/// Parse where the loads act.
+pub fn parse_load_height(s: &str) -> Result<LoadHeight> {
+    match s
+        .trim()
+        .to_ascii_lowercase()
+        .replace([' ', '-'], "_")
+        .as_str()
+    {
+        "shear_centre" | "shear_center" => Ok(LoadHeight::ShearCentre),
+        "top_flange" => Ok(LoadHeight::TopFlange),
+        other => Err(Error::msg(format!(
+            "unknown load height '{other}': expected shear_centre or top_flange"
+        ))),
+    }
+}
+
+/// Parse a material kind.
+pub fn parse_kind(s: &str) -> Result<MaterialKind> {
+    match s.trim().to_ascii_lowercase().as_str() {
+        "steel" => Ok(MaterialKind::Steel),
+        "timber" | "wood" => Ok(MaterialKind::Timber),
+        "other" | "unspecified" => Ok(MaterialKind::Unspecified),
+        other => Err(Error::msg(format!(
+            "unknown material kind '{other}': expected steel, timber or other"
+        ))),
     }
 }
 
@@ -592,8 +660,43 @@ pub fn from_toml(text: &str, file: &str) -> Result<Job> {
                 }
             };
         }
+        if let Some(f) = &c.braced_flange {
+            criteria.braced_flange = parse_braced_flange(f.get_ref())
+                .map_err(|e| e.at(&src.loc(f.span(), "checks.braced_flange")))?;
+        }
+        if let Some(h) = &c.load_height {
+            criteria.load_height = parse_load_height(h.get_ref())
+                .map_err(|e| e.at(&src.loc(h.span(), "checks.load_height")))?;
+        }
+        if let Some(k) = &c.overhang_effective_length {
+            criteria.overhang_k = Some(*k.get_ref());
+        }
         if let Some(sw) = c.self_weight {
             criteria.self_weight = sw;
+        }
+        if let Some(list) = &c.exclude {
+            for name in list.get_ref() {
+                criteria
+                    .exclude
+                    .add(name.get_ref())
+                    .map_err(|e| e.at(&src.loc(name.span(), "checks.exclude")))?;
+            }
+        }
+        match (&c.creep_factor, &c.sustained_live) {
+            (Some(k), s) => {
+                criteria.long_term = Some(crate::check::LongTerm {
+                    creep_factor: *k.get_ref(),
+                    sustained_live: s.as_ref().map(|s| *s.get_ref()).unwrap_or(0.0),
+                })
+            }
+            (None, Some(s)) => {
+                return src.err(
+                    s.span(),
+                    "checks.sustained_live",
+                    "sustained_live needs creep_factor (the long-term deflection factor K_cr)",
+                );
+            }
+            (None, None) => {}
         }
     }
     if criteria.self_weight && beam.self_weight_case.is_none() {
@@ -635,30 +738,78 @@ fn parse_material(
     notes: &mut Vec<String>,
 ) -> Result<Material> {
     let file = src.file;
-    let need = |v: &Option<Spanned<String>>, name: &str, what: &str| -> Result<f64> {
-        match v {
-            Some(v) => src.q(v, Dim::Stress, &format!("{table}.{name}")),
-            None => Err(Error::input(
-                Location::in_file(file).with_field(format!("{table}.{name}")),
-                format!("missing {what}: add {name} = \"...\" with a stress unit to [{table}]"),
-            )),
-        }
-    };
     let opt = |v: &Option<Spanned<String>>, name: &str| -> Result<Option<f64>> {
         v.as_ref()
             .map(|v| src.q(v, Dim::Stress, &format!("{table}.{name}")))
             .transpose()
     };
-    let e = need(&m.e, "E", "the modulus of elasticity")?;
+    let e = match &m.e {
+        Some(v) => src.q(v, Dim::Stress, &format!("{table}.E"))?,
+        None => {
+            return Err(Error::input(
+                Location::in_file(file).with_field(format!("{table}.E")),
+                format!(
+                    "missing the modulus of elasticity: add E = \"...\" with a stress unit to [{table}]"
+                ),
+            ));
+        }
+    };
+    let fy = opt(&m.fy, "Fy")?;
+    let factor = |v: &Option<Spanned<f64>>| v.as_ref().map(|x| *x.get_ref());
+    let timber = TimberFactors {
+        e_min: opt(&m.e_min, "Emin")?,
+        cd: factor(&m.cd),
+        cm_fb: factor(&m.cm_fb),
+        cm_fv: factor(&m.cm_fv),
+        cm_e: factor(&m.cm_e),
+        ct: factor(&m.ct),
+        ci: factor(&m.ci),
+        cf: factor(&m.cf),
+        cr: factor(&m.cr),
+        cfu: factor(&m.cfu),
+    };
+    let timber_given = timber != TimberFactors::default();
+    let kind = match &m.kind {
+        Some(k) => parse_kind(k.get_ref())
+            .map_err(|e| e.at(&src.loc(k.span(), &format!("{table}.kind"))))?,
+        None if fy.is_some() && !timber_given => {
+            notes.push(format!(
+                "[{table}] has no kind: taken as steel because Fy is given (AISC 360-16 limit states apply)"
+            ));
+            MaterialKind::Steel
+        }
+        None if timber_given => {
+            notes.push(format!(
+                "[{table}] has no kind: taken as timber because timber values (Emin or adjustment factors) are given"
+            ));
+            MaterialKind::Timber
+        }
+        None => {
+            notes.push(format!(
+                "[{table}] has no kind (steel, timber or other): no stability or local buckling method applies, so those are not verified unless excluded or not applicable"
+            ));
+            MaterialKind::Unspecified
+        }
+    };
+    if timber_given && kind != MaterialKind::Timber {
+        return Err(Error::input(
+            Location::in_file(file).with_field(format!("{table}.kind")),
+            format!(
+                "[{table}] gives timber values (Emin or adjustment factors) but kind is {}: expected kind = \"timber\"",
+                kind.name()
+            ),
+        ));
+    }
     let (fb, fbt, fbc) = (opt(&m.fb, "Fb")?, opt(&m.fbt, "Fbt")?, opt(&m.fbc, "Fbc")?);
     let (fb_tension, fb_compression) = match (fb, fbt, fbc) {
-        (_, Some(t), Some(c)) => (t, c),
-        (Some(b), t, c) => (t.unwrap_or(b), c.unwrap_or(b)),
+        (_, Some(t), Some(c)) => (Some(t), Some(c)),
+        (Some(b), t, c) => (Some(t.unwrap_or(b)), Some(c.unwrap_or(b))),
+        (None, None, None) if kind == MaterialKind::Steel && fy.is_some() => (None, None),
         _ => {
             return Err(Error::input(
                 Location::in_file(file).with_field(format!("{table}.Fb")),
                 format!(
-                    "missing the allowable bending stress: add Fb = \"...\" (or both Fbt and Fbc) to [{table}]"
+                    "missing the allowable bending stress: add Fb = \"...\" (or both Fbt and Fbc) to [{table}] (steel with Fy may omit it: AISC 360-16 Chapter F then gives the bending strength)"
                 ),
             ));
         }
@@ -672,12 +823,14 @@ fn parse_material(
     };
     let mat = Material {
         name: m.name.clone().unwrap_or_else(|| "material".into()),
+        kind,
         e,
         fb_tension,
         fb_compression,
         fv: opt(&m.fv, "Fv")?,
-        fy: opt(&m.fy, "Fy")?,
+        fy,
         density,
+        timber,
     };
     mat.validate().map_err(|e| e.at(&Location::in_file(file)))?;
     Ok(mat)

@@ -476,7 +476,8 @@ pub enum System {
 }
 
 /// What a printed number means, which decides its display unit.
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, serde::Serialize, serde::Deserialize)]
+#[serde(rename_all = "snake_case")]
 pub enum Show {
     /// Span or position along a beam (m / ft).
     Span,
@@ -499,6 +500,8 @@ pub enum Show {
     Density,
     /// Slope (rad), same in both systems.
     Rotation,
+    /// A pure number (a factor or a ratio).
+    Ratio,
 }
 
 impl Show {
@@ -533,6 +536,7 @@ impl Show {
             (Density, System::Si) => ("kg/m³", 1.0),
             (Density, System::Us) => ("lb/ft³", KG_PER_LB / (0.3048 * 0.3048 * 0.3048)),
             (Rotation, _) => ("rad", 1.0),
+            (Ratio, _) => ("", 1.0),
         }
     }
 
@@ -561,7 +565,12 @@ impl Show {
 
     /// Number and unit, e.g. `"12.5 kN·m"`.
     pub fn fmt(self, internal: f64, sys: System) -> String {
-        format!("{} {}", self.num(internal, sys), self.label(sys))
+        let l = self.label(sys);
+        if l.is_empty() {
+            self.num(internal, sys)
+        } else {
+            format!("{} {l}", self.num(internal, sys))
+        }
     }
 }
 

@@ -3,22 +3,17 @@
 //! the standard formulas, and AISC 360-16 F2 against the AISC Manual's
 //! tabulated limiting lengths.
 
+mod common;
+
 use beamsift::beam::*;
-use beamsift::check::ltb::{Capacity, cb};
+use beamsift::check::steel::{Ltb, cb, strengths};
 use beamsift::check::*;
 use beamsift::section::Shape;
 use proptest::prelude::*;
 
+/// Steel with F_y = 275 MPa and allowables Fb = 165, Fv = 100 MPa.
 fn steel() -> Material {
-    Material {
-        name: "steel".into(),
-        e: 200_000.0,
-        fb_tension: 165.0,
-        fb_compression: 165.0,
-        fv: Some(100.0),
-        fy: Some(275.0),
-        density: 7850.0,
-    }
+    common::steel(275.0, Some(165.0), Some(100.0))
 }
 
 /// Hand calculation (simply supported, uniform load, standard formulas):
@@ -42,19 +37,18 @@ fn rectangle_simple_span_by_hand() {
             absolute: None,
         },
     );
-    let mat = Material {
-        name: "timber".into(),
-        e: 11_000.0,
-        fb_tension: 10.0,
-        fb_compression: 10.0,
-        fv: Some(1.0),
-        fy: None,
-        density: 460.0,
+    // Allowable stresses only, continuously braced top edge: every
+    // applicable check is evaluated (a simple span never hogs).
+    let mat = common::allowable(11_000.0, 10.0, Some(1.0), 460.0);
+    let crit = Criteria {
+        bracing: Bracing::Continuous,
+        ..Criteria::default()
     };
-    let prep = Prepared::new(&beam, mat, Criteria::default()).unwrap();
+    let prep = Prepared::new(&beam, mat, crit).unwrap();
     let p = Shape::Rect { b, d }.properties().unwrap();
     let mass = p.mass_per_length(460.0);
-    let items = prep.check_all(SectionInput::new(&p, mass));
+    let (items, gaps) = prep.check_all(SectionInput::new(&p, mass));
+    assert!(gaps.is_empty(), "{:?}", gaps.describe());
     let sw = 460.0 * 9.80665 * (b * d) * 1e-9; // N/mm: ρ·g·A
     let w = wd + wl + sw;
     let m = w * l * l / 8.0;
@@ -99,28 +93,33 @@ fn w14x22_limiting_lengths_aisc_table_3_2() {
     .properties()
     .unwrap();
     let ksi = 6.894_757;
-    let mat = Material {
-        e: 29_000.0 * ksi,
-        fy: Some(50.0 * ksi),
-        ..steel()
+    let e = 29_000.0 * ksi;
+    let st = strengths(&p, 50.0 * ksi, e).unwrap();
+    let f = &st.flexure[0];
+    assert_eq!(
+        f.provision,
+        steel::Provision::F2,
+        "W14x22 is compact in 50 ksi steel"
+    );
+    let Ltb::F2 { mp, mr, lp, lr, .. } = f.ltb else {
+        panic!("expected F2 constants, got {:?}", f.ltb)
     };
-    let cap = Capacity::new(&p, &mat, Bracing::Supports).unwrap();
     let ft = 304.8;
     let kipft = 4448.222 * 304.8;
     let near = |a: f64, b: f64, tol: f64| ((a - b) / b).abs() < tol;
-    assert!(near(cap.lp / ft, 3.67, 0.03), "Lp {}", cap.lp / ft);
-    assert!(near(cap.lr / ft, 10.4, 0.03), "Lr {}", cap.lr / ft);
-    assert!(near(cap.mp / 1.67 / kipft, 82.8, 0.03));
-    assert!(near(cap.fy_sx_07 / 1.67 / kipft, 50.6, 0.03));
+    assert!(near(lp / ft, 3.67, 0.03), "Lp {}", lp / ft);
+    assert!(near(lr / ft, 10.4, 0.03), "Lr {}", lr / ft);
+    assert!(near(mp / 1.67 / kipft, 82.8, 0.03));
+    assert!(near(mr / 1.67 / kipft, 50.6, 0.03));
     // The F2-2 line and the F2-3 curve meet at Lr (Cb = 1): a check that
     // F2-4 and F2-6 were typed in correctly.
-    let below = cap.nominal(cap.lr * (1.0 - 1e-9), 1.0);
-    let above = cap.nominal(cap.lr * (1.0 + 1e-9), 1.0);
+    let below = f.ltb.nominal(e, lr * (1.0 - 1e-9), 1.0).mn;
+    let above = f.ltb.nominal(e, lr * (1.0 + 1e-9), 1.0).mn;
     // F2-6 carries the rounded constants 1.95 and 6.76 (exact: 1.949 and
     // 6.748 from F2-4 with Fcr = 0.7Fy), so the two meet to about 0.2 %.
-    assert!(near(below, cap.fy_sx_07, 1e-9), "{below} {}", cap.fy_sx_07);
+    assert!(near(below, mr, 1e-9), "{below} {mr}");
     assert!(near(above, below, 2e-3), "{below} {above}");
-    assert!(near(cap.nominal(0.5 * cap.lp, 1.0), cap.mp, 1e-12));
+    assert!(near(f.ltb.nominal(e, 0.5 * lp, 1.0).mn, mp, 1e-12));
     // Uniform moment gives Cb = 1; a uniform load on a simple span gives
     // 1.14 (AISC 360-16 Commentary Fig. C-F1.2, from memory).
     assert!((cb(1.0, 1.0, 1.0, 1.0) - 1.0).abs() < 1e-12);
@@ -153,23 +152,41 @@ fn lateral_torsional_check_uses_the_moment_diagram() {
     }
     .properties()
     .unwrap();
-    let items = prep.check_all(SectionInput::new(&p, 0.0));
+    let (items, _) = prep.check_all(SectionInput::new(&p, 0.0));
     let ltb = items
         .iter()
         .find(|i| i.kind == CheckKind::LateralTorsional)
         .unwrap();
-    let cap = Capacity::new(&p, &steel(), Bracing::Supports).unwrap();
-    let want = cap.allowable(l, 12.5 / (2.5 + 3.0 * 0.75 + 4.0 + 3.0 * 0.75));
+    let st = strengths(&p, 275.0, 200_000.0).unwrap();
+    let want = st.flexure[0]
+        .ltb
+        .nominal(200_000.0, l, 12.5 / (2.5 + 3.0 * 0.75 + 4.0 + 3.0 * 0.75))
+        .mn
+        / 1.67;
     assert!((ltb.capacity - want).abs() < 1e-9 * want);
     assert!((ltb.demand - 20.0 * l * l / 8.0).abs() < 1e-6 * ltb.demand);
-    // Without bracing information the check is absent and reported.
-    let prep = Prepared::new(&beam, steel(), Criteria::default()).unwrap();
-    let items = prep.check_all(SectionInput::new(&p, 0.0));
-    assert!(!items.iter().any(|i| i.kind == CheckKind::LateralTorsional));
+    // Without bracing information the beam is read conservatively as
+    // braced at the supports only: the same line, and the output says so.
+    let prep2 = Prepared::new(
+        &beam,
+        steel(),
+        Criteria {
+            self_weight: false,
+            ..Criteria::default()
+        },
+    )
+    .unwrap();
+    let (items2, _) = prep2.check_all(SectionInput::new(&p, 0.0));
+    let ltb2 = items2
+        .iter()
+        .find(|i| i.kind == CheckKind::LateralTorsional)
+        .unwrap();
+    assert!((ltb2.capacity - want).abs() < 1e-9 * want);
     assert!(
-        prep.not_checked(&p)
+        prep2
+            .assumptions()
             .iter()
-            .any(|s| s.contains("lateral stability"))
+            .any(|s| s.contains("braced at the supports only"))
     );
 }
 

@@ -65,8 +65,9 @@ fn check_exit_codes_follow_the_verdict() {
     let v: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();
     assert_eq!(v["passes"], false);
     assert!(v["utilisation"].as_f64().unwrap() > 1.0);
-    // Flags for a simple span; bad input is exit 2.
-    let o = run(&[
+    // Flags for a simple span. Without Fv and without bracing, shear and
+    // lateral stability apply but cannot be evaluated: NOT VERIFIED, exit 5.
+    let flags = [
         "check",
         "--span",
         "4.8m",
@@ -80,10 +81,28 @@ fn check_exit_codes_follow_the_verdict() {
         "10MPa",
         "--density",
         "460kg/m3",
-        "rect",
-        "b=75mm",
-        "d=300mm",
-    ]);
+    ];
+    let o = run(&[&flags[..], &["rect", "b=75mm", "d=300mm"]].concat());
+    let (out, _) = text(&o);
+    assert_eq!(o.status.code(), Some(5), "{out}");
+    assert!(
+        out.contains("NOT VERIFIED") && out.contains("no allowable shear stress"),
+        "{out}"
+    );
+    // With Fv and a continuously braced top edge every check is evaluated.
+    let o = run(&[
+        &flags[..],
+        &[
+            "--Fv",
+            "1MPa",
+            "--bracing",
+            "continuous",
+            "rect",
+            "b=75mm",
+            "d=300mm",
+        ],
+    ]
+    .concat());
     assert_eq!(o.status.code(), Some(0), "{}", text(&o).0);
     let o = run(&[
         "check", "--span", "4.8m", "--dead", "0.9", "--E", "11GPa", "--Fb", "10MPa", "rect",

@@ -1,6 +1,8 @@
 //! The optimiser against closed-form optima, KKT conditions, random
 //! sampling and exhaustive grids.
 
+mod common;
+
 use beamsift::beam::*;
 use beamsift::check::*;
 use beamsift::optimise::discrete::{self, Grid};
@@ -22,16 +24,9 @@ fn beam(l: f64, w: f64) -> Beam {
     b
 }
 
+/// Allowable bending stress only (no Fv).
 fn mat(e: f64, fb: f64) -> Material {
-    Material {
-        name: "m".into(),
-        e,
-        fb_tension: fb,
-        fb_compression: fb,
-        fv: None,
-        fy: None,
-        density: 0.0,
-    }
+    common::allowable(e, fb, None, 0.0)
 }
 
 fn rect_problem(bounds: Vec<(f64, f64)>, aspect: Option<f64>) -> Problem {
@@ -48,11 +43,15 @@ fn rect_problem(bounds: Vec<(f64, f64)>, aspect: Option<f64>) -> Problem {
     }
 }
 
+/// No self-weight; shear and lateral stability excluded by the user (the
+/// closed forms below are for bending and deflection only).
 fn no_sw() -> Criteria {
-    Criteria {
+    let mut c = Criteria {
         self_weight: false,
-        ..Criteria::default()
-    }
+        ..common::allowable_only()
+    };
+    c.exclude.shear = true;
+    c
 }
 
 /// Closed-form optima of a rectangle (mechanics of materials):
@@ -129,15 +128,7 @@ fn rectangle_closed_form_optima() {
 }
 
 fn steel() -> Material {
-    Material {
-        name: "s".into(),
-        e: 200_000.0,
-        fb_tension: 207.0,
-        fb_compression: 207.0,
-        fv: Some(138.0),
-        fy: Some(345.0),
-        density: 7850.0,
-    }
+    common::steel(345.0, Some(207.0), Some(138.0))
 }
 
 fn girder_problem(e: f64, fy: f64) -> Problem {

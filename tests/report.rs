@@ -54,7 +54,7 @@ fn build() -> (String, String, member::MemberCheck) {
     };
     let p = shape.properties().unwrap();
     let mass = p.mass_per_length(7850.0);
-    let r = member::member_check(&job, &prep, &shape.describe(System::Si), &p, mass);
+    let r = member::member_check(&job, &prep, &shape.describe(System::Si), &p, mass, None);
     let s = sheet::build(
         &job,
         &prep,

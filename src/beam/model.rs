@@ -48,6 +48,7 @@ pub enum Category {
     Live,
     RoofLive,
     Snow,
+    Rain,
     Wind,
     Other,
 }
@@ -65,11 +66,12 @@ impl Category {
                 "live" | "l" => Category::Live,
                 "roof_live" | "lr" => Category::RoofLive,
                 "snow" | "s" => Category::Snow,
+                "rain" | "r" => Category::Rain,
                 "wind" | "w" => Category::Wind,
                 "other" => Category::Other,
                 other => {
                     return Err(Error::msg(format!(
-                        "unknown load category '{other}': expected dead, live, roof_live, snow, wind or other"
+                        "unknown load category '{other}': expected dead, live, roof_live, snow, rain, wind or other"
                     )));
                 }
             },
@@ -81,6 +83,7 @@ impl Category {
             Category::Live => "live",
             Category::RoofLive => "roof_live",
             Category::Snow => "snow",
+            Category::Rain => "rain",
             Category::Wind => "wind",
             Category::Other => "other",
         }

@@ -347,9 +347,9 @@ fn solve_case(
     }
     for (j, &l) in beam.spans.iter().enumerate() {
         let ke = element_stiffness(l);
-        for a in 0..4 {
-            for b in 0..4 {
-                k.add(2 * j + a, 2 * j + b, ke[a][b]);
+        for (a, row) in ke.iter().enumerate() {
+            for (b, v) in row.iter().enumerate() {
+                k.add(2 * j + a, 2 * j + b, *v);
             }
         }
     }
@@ -486,8 +486,8 @@ fn solve_prescribed(k: &Band, f: &[f64], prescribed: &[Option<f64>]) -> Option<V
     for i in (0..n).rev() {
         let hi = (i + BW + 1).min(n);
         let mut s = b[i];
-        for c in i + 1..hi {
-            s -= a.a[i][c - i] * y[c];
+        for (c, yc) in y.iter().enumerate().take(hi).skip(i + 1) {
+            s -= a.a[i][c - i] * yc;
         }
         y[i] = s / a.a[i][0];
     }

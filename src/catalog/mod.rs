@@ -37,6 +37,37 @@ pub enum Col {
     Prop(Prop, f64),
     /// Cost per length (currency per mm, per unit).
     Cost(f64),
+    /// A dimensionless timber adjustment factor of the row (C_F, C_r, ...).
+    Factor(Factor),
+}
+
+/// Timber adjustment factors a row may give (no unit).
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Factor {
+    Cd,
+    CmFb,
+    CmFv,
+    CmE,
+    Ct,
+    Ci,
+    Cf,
+    Cr,
+    Cfu,
+}
+
+fn factor_of(key: &str) -> Option<Factor> {
+    Some(match key {
+        "cd" | "c_d" => Factor::Cd,
+        "cm_fb" => Factor::CmFb,
+        "cm_fv" => Factor::CmFv,
+        "cm_e" => Factor::CmE,
+        "ct" | "c_t" => Factor::Ct,
+        "ci" | "c_i" => Factor::Ci,
+        "cf" | "c_f" => Factor::Cf,
+        "cr" | "c_r" => Factor::Cr,
+        "cfu" | "c_fu" => Factor::Cfu,
+        _ => return None,
+    })
 }
 
 /// Properties a column may give.
@@ -62,6 +93,7 @@ pub enum Prop {
     Fv,
     Fy,
     Density,
+    Emin,
 }
 
 const DIMS: &[&str] = &[
@@ -86,7 +118,8 @@ const TF_BOT: usize = 13;
 
 /// Known column names, for error messages.
 pub const KNOWN: &str = "name, shape, series, grade, stock, cost [CUR/m], dimensions (d, b, h, bf, tf, tw, hw, r, t, r_out, bf_top, tf_top, bf_bot, tf_bot), \
-A, Ix, Iy, J, Cw, S (or S_top, S_bot), Zx, c_top, c_bot, Q, mass, E, Fb, Fbt, Fbc, Fv, Fy, density; columns named note... are ignored";
+A, Ix, Iy, J, Cw, S (or S_top, S_bot), Zx, c_top, c_bot, Q, mass, E, Fb, Fbt, Fbc, Fv, Fy, density, Emin, \
+timber adjustment factors without unit (CD, CM_Fb, CM_Fv, CM_E, Ct, Ci, CF, Cr, Cfu); columns named note... are ignored";
 
 /// The parsed header.
 #[derive(Clone, Debug)]
@@ -132,6 +165,7 @@ fn prop_of(key: &str) -> Option<(Prop, Dim)> {
         "fv" => (Prop::Fv, Dim::Stress),
         "fy" => (Prop::Fy, Dim::Stress),
         "density" => (Prop::Density, Dim::Density),
+        "emin" | "e_min" => (Prop::Emin, Dim::Stress),
         _ => return None,
     })
 }
@@ -200,6 +234,14 @@ impl Schema {
                     None => Err(Error::msg(
                         "column 'cost' needs its unit in brackets, e.g. cost [EUR/m]",
                     )),
+                },
+                k if factor_of(k).is_some() => match unit.as_deref() {
+                    None | Some("-") | Some("") => {
+                        Ok(Col::Factor(factor_of(k).unwrap_or(Factor::Cd)))
+                    }
+                    Some(u) => Err(Error::msg(format!(
+                        "column '{name}' is a dimensionless adjustment factor: expected no unit, found [{u}]"
+                    ))),
                 },
                 k => {
                     let dim = DIMS.iter().position(|d| *d == k);
@@ -423,9 +465,10 @@ pub fn parse_row<'r>(
     let mut s_both = None;
     let (mut mass, mut cost, mut stock) = (None, None, None);
     let (mut name, mut series, mut grade, mut family) = ("", "", "", "");
-    let mut own: [Option<f64>; 8] = [None; 8]; // E Fb Fbt Fbc Fv Fy density
+    let mut own: [Option<f64>; 8] = [None; 8]; // E Fb Fbt Fbc Fv Fy density Emin
+    let mut factors = crate::check::TimberFactors::default();
     for (i, col) in schema.cols.iter().enumerate() {
-        if let Col::Dim(..) | Col::Prop(..) | Col::Cost(_) = col {
+        if let Col::Dim(..) | Col::Prop(..) | Col::Cost(_) | Col::Factor(_) = col {
             let bytes = rec.get(i).unwrap_or(b"");
             if bytes.iter().all(u8::is_ascii_whitespace) {
                 continue;
@@ -452,6 +495,7 @@ pub fn parse_row<'r>(
                 &mut mass,
                 &mut cost,
                 &mut own,
+                &mut factors,
             )?;
             continue;
         }
@@ -462,7 +506,7 @@ pub fn parse_row<'r>(
             Col::Series => series = raw,
             Col::Grade => grade = raw,
             Col::Shape => family = raw,
-            Col::Note => {}
+            Col::Note | Col::Factor(_) => {}
             Col::Stock => {
                 if !raw.is_empty() {
                     stock = Some(match raw.to_ascii_lowercase().as_str() {
@@ -603,20 +647,42 @@ pub fn parse_row<'r>(
             }
         }
     }
-    if own.iter().any(Option::is_some) {
+    let has_factors = factors != crate::check::TimberFactors::default();
+    if own.iter().any(Option::is_some) || has_factors {
         let base = match &material {
             RowMaterial::Grade(i) => &mats.grades[*i].1,
             _ => mats.base,
         };
+        if has_factors && base.kind != crate::check::MaterialKind::Timber {
+            let col = schema
+                .cols
+                .iter()
+                .position(|c| matches!(c, Col::Factor(_)))
+                .unwrap_or(0);
+            return Err(cell_err(
+                col,
+                schema,
+                format!(
+                    "the row gives timber adjustment factors but its material '{}' is not timber: expected kind = \"timber\" in the job's material",
+                    base.name
+                ),
+            ));
+        }
         let fb = own[1];
+        let mut timber = base.timber.with(&factors);
+        if own[7].is_some() {
+            timber.e_min = own[7];
+        }
         let m = Material {
-            name: String::new(),
+            name: base.name.clone(),
+            kind: base.kind,
             e: own[0].unwrap_or(base.e),
-            fb_tension: own[2].or(fb).unwrap_or(base.fb_tension),
-            fb_compression: own[3].or(fb).unwrap_or(base.fb_compression),
+            fb_tension: own[2].or(fb).or(base.fb_tension),
+            fb_compression: own[3].or(fb).or(base.fb_compression),
             fv: own[4].or(base.fv),
             fy: own[5].or(base.fy),
             density: own[6].unwrap_or(base.density),
+            timber,
         };
         material = RowMaterial::Own(Box::new(m));
     }
@@ -772,6 +838,7 @@ fn numeric(
     mass: &mut Option<f64>,
     cost: &mut Option<f64>,
     own: &mut [Option<f64>; 8],
+    factors: &mut crate::check::TimberFactors,
 ) -> std::result::Result<(), CellError> {
     let zero_ok = matches!(col, Col::Dim(R | R_OUT, _) | Col::Cost(_));
     if v < 0.0 || (v == 0.0 && !zero_ok) {
@@ -810,7 +877,29 @@ fn numeric(
                 Prop::Fv => own[4] = Some(v),
                 Prop::Fy => own[5] = Some(v),
                 Prop::Density => own[6] = Some(v),
+                Prop::Emin => own[7] = Some(v),
             }
+        }
+        Col::Factor(k) => {
+            if v > 3.0 {
+                return Err(cell_err(
+                    i,
+                    schema,
+                    format!("adjustment factor {} is outside 0 < factor ≤ 3", fmt_num(v)),
+                ));
+            }
+            let slot = match k {
+                Factor::Cd => &mut factors.cd,
+                Factor::CmFb => &mut factors.cm_fb,
+                Factor::CmFv => &mut factors.cm_fv,
+                Factor::CmE => &mut factors.cm_e,
+                Factor::Ct => &mut factors.ct,
+                Factor::Ci => &mut factors.ci,
+                Factor::Cf => &mut factors.cf,
+                Factor::Cr => &mut factors.cr,
+                Factor::Cfu => &mut factors.cfu,
+            };
+            *slot = Some(v);
         }
         _ => {}
     }

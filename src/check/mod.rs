@@ -1,49 +1,114 @@
-//! Checks of one section against a prepared demand: bending stress at the
-//! top and bottom fibres (sagging and hogging), shear, deflection of every
-//! serviceability combination, and lateral-torsional buckling where an
-//! unbraced length is given.
+//! Checks of one section against a prepared demand, and the verdict.
 //!
-//! * Bending: f = M·c/I = M/S (flexure formula), against the allowable
-//!   bending stress of the fibre's sense (tension or compression).
-//! * Shear: the average web shear V/(d·tw) for I-shapes (AISC 360-16 G2.1,
-//!   A_w = d·tw), otherwise the peak V·Q/(I·t) at the neutral axis
-//!   (Jourawski's formula), against the allowable shear stress.
-//! * Deflection: δ = y/(E·I) against L/n and/or an absolute limit per span;
-//!   for an overhang L is `cantilever_factor` × its length (2 by common
+//! Every check line is demand against capacity at a stated place and
+//! combination:
+//!
+//! * Bending stress at the top and bottom fibres, sagging and hogging:
+//!   f = M·c/I = M/S (flexure formula) against the allowable bending
+//!   stress F_b the user gives (for timber, the adjusted F_b′ of [`timber`]).
+//! * Shear stress: the average web shear V/(d·t_w) for I-shapes, otherwise
+//!   the peak V·Q/(I·t) (Jourawski), against the allowable F_v.
+//! * Steel (material kind `steel` with F_y): the flexural and shear limit
+//!   states of AISC 360-16 Chapters F and G, see [`steel`].
+//! * Lateral stability of every unbraced segment: lateral-torsional
+//!   buckling (steel) or the beam stability factor C_L (timber).
+//! * Deflection: δ = y/(E·I) against L/n and/or an absolute limit per span,
+//!   measured from the chord of the span's (displaced) supports; an
+//!   overhang's L is `cantilever_factor` × its length (2 by common
 //!   practice).
-//! * Lateral-torsional buckling: see [`ltb`].
 //!
-//! The per-section path allocates nothing: it scales and adds the demand's
-//! polynomials (see `beam::demand`).
+//! The verdict (see [`Verdict`]): a section passes only when every limit
+//! state that applies to it was evaluated by a stated method and passed.
+//! A limit state that applies but cannot be evaluated (a missing input, a
+//! shape outside a method's range, no method for the material) leaves a
+//! [`Gap`] and the verdict is *not verified* — never a pass. A limit state
+//! the user excludes explicitly ([`Exclusions`]) is not evaluated and is
+//! listed as excluded on every output.
+//!
+//! Bracing: supports restrain the member laterally and against twist;
+//! brace points restrain the top flange only unless `braced_flange` is
+//! `both`; so under hogging (bottom flange in compression) a top-flange
+//! brace does not end an unbraced length. The per-section path allocates
+//! nothing: it scales and adds the demand's polynomials.
 
-pub mod ltb;
+pub mod steel;
+pub mod timber;
+pub mod working;
 
-use crate::beam::model::ComboKind;
+use crate::beam::model::{Category, ComboKind};
 use crate::beam::{Beam, Demand, Quantity};
 use crate::error::{Error, Result};
-use crate::section::Properties;
+use crate::section::{Form, Properties};
 use crate::units::G;
 use serde::{Deserialize, Serialize};
+pub use timber::TimberFactors;
+
+/// What the material is, which decides the methods of stability and local
+/// buckling that apply.
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum MaterialKind {
+    /// Structural steel: AISC 360-16 Chapters F and G (needs F_y).
+    Steel,
+    /// Timber: NDS adjustment factors, beam stability C_L (needs E_min).
+    Timber,
+    /// Not stated: bending, shear and deflection by the allowables given;
+    /// no stability or local buckling method (not verified unless excluded
+    /// or not applicable).
+    #[default]
+    Unspecified,
+}
+
+impl MaterialKind {
+    pub fn name(self) -> &'static str {
+        match self {
+            MaterialKind::Steel => "steel",
+            MaterialKind::Timber => "timber",
+            MaterialKind::Unspecified => "unspecified",
+        }
+    }
+}
 
 /// Material: stiffness, allowable stresses, density.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct Material {
     pub name: String,
+    pub kind: MaterialKind,
     /// Modulus of elasticity E, MPa.
     pub e: f64,
-    /// Allowable bending stress at a fibre in tension, MPa.
-    pub fb_tension: f64,
+    /// Allowable bending stress at a fibre in tension, MPa (timber: the
+    /// reference design value F_b). None: no allowable-stress check (steel
+    /// then uses AISC 360-16 Chapter F).
+    pub fb_tension: Option<f64>,
     /// Allowable bending stress at a fibre in compression, MPa.
-    pub fb_compression: f64,
-    /// Allowable shear stress, MPa (None: shear not checked).
+    pub fb_compression: Option<f64>,
+    /// Allowable shear stress, MPa (timber: reference F_v).
     pub fv: Option<f64>,
-    /// Yield stress, MPa (needed for lateral-torsional buckling of steel).
+    /// Yield stress, MPa (steel).
     pub fy: Option<f64>,
     /// Density, kg/m³.
     pub density: f64,
+    /// Timber values and adjustment factors (ignored for other kinds).
+    #[serde(default)]
+    pub timber: TimberFactors,
 }
 
 impl Material {
+    /// A material with allowable stresses only (kind unspecified).
+    pub fn allowable(name: &str, e: f64, fb: f64, fv: Option<f64>, density: f64) -> Material {
+        Material {
+            name: name.into(),
+            kind: MaterialKind::Unspecified,
+            e,
+            fb_tension: Some(fb),
+            fb_compression: Some(fb),
+            fv,
+            fy: None,
+            density,
+            timber: TimberFactors::default(),
+        }
+    }
+
     pub fn validate(&self) -> Result<()> {
         let pos = |name: &str, v: f64| -> Result<()> {
             if !v.is_finite() || v <= 0.0 {
@@ -56,28 +121,66 @@ impl Material {
             Ok(())
         };
         pos("E", self.e)?;
-        pos("Fb (tension)", self.fb_tension)?;
-        pos("Fb (compression)", self.fb_compression)?;
-        if let Some(v) = self.fv {
-            pos("Fv", v)?;
+        for (name, v) in [
+            ("Fb (tension)", self.fb_tension),
+            ("Fb (compression)", self.fb_compression),
+            ("Fv", self.fv),
+            ("Fy", self.fy),
+            ("Emin", self.timber.e_min),
+        ] {
+            if let Some(v) = v {
+                pos(name, v)?;
+            }
         }
-        if let Some(v) = self.fy {
-            pos("Fy", v)?;
+        let t = &self.timber;
+        for (name, v) in [
+            ("CD", t.cd),
+            ("CM_Fb", t.cm_fb),
+            ("CM_Fv", t.cm_fv),
+            ("CM_E", t.cm_e),
+            ("Ct", t.ct),
+            ("Ci", t.ci),
+            ("CF", t.cf),
+            ("Cr", t.cr),
+            ("Cfu", t.cfu),
+        ] {
+            if let Some(v) = v
+                && !(v.is_finite() && v > 0.0 && v <= 3.0)
+            {
+                return Err(Error::msg(format!(
+                    "adjustment factor {name} = {} is outside 0 < factor ≤ 3",
+                    crate::units::fmt_num(v)
+                ))
+                .in_field(&format!("material.{name}")));
+            }
         }
         if !self.density.is_finite() || self.density < 0.0 {
             return Err(Error::msg("density must be zero or more").in_field("material.density"));
         }
+        if self.fb_tension.is_none() != self.fb_compression.is_none() {
+            return Err(Error::msg("give Fb, or both Fbt and Fbc").in_field("material.Fb"));
+        }
         Ok(())
+    }
+
+    /// The modulus used for stiffness: E′ = E·C_M·C_t·C_i for timber.
+    #[inline]
+    pub fn e_eff(&self) -> f64 {
+        match self.kind {
+            MaterialKind::Timber => self.e * self.timber.e_factor(),
+            _ => self.e,
+        }
     }
 }
 
-/// Lateral bracing of the compression flange.
+/// Lateral bracing of the member between supports.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
 #[serde(rename_all = "snake_case")]
 pub enum Bracing {
-    /// Not given: lateral stability is not checked (and the output says so).
+    /// Not given: read conservatively as braced at the supports only (the
+    /// output says so).
     NotGiven,
-    /// Continuously braced (e.g. by a fixed deck): no lateral-torsional buckling.
+    /// Continuously braced (a deck or boarding fixed to the braced flange).
     Continuous,
     /// Braced at the supports and at this spacing along each span (mm).
     Spacing(f64),
@@ -85,7 +188,31 @@ pub enum Bracing {
     Supports,
 }
 
-/// How shear is checked.
+/// Which flange the braces restrain.
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum BracedFlange {
+    /// The top flange only (joists or a deck on top): under hogging the
+    /// bottom flange is unbraced between supports.
+    #[default]
+    Top,
+    /// Both flanges (or twist) at every brace point.
+    Both,
+}
+
+/// Where the loads act, for lateral stability.
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum LoadHeight {
+    /// At the shear centre, as AISC 360-16 F2–F5 assume (not destabilising).
+    #[default]
+    ShearCentre,
+    /// On the top flange, free to move sideways with it (destabilising):
+    /// longer effective lengths.
+    TopFlange,
+}
+
+/// How shear is checked against F_v.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize, Default)]
 #[serde(rename_all = "snake_case")]
 pub enum ShearMethod {
@@ -96,20 +223,156 @@ pub enum ShearMethod {
     PeakVq,
 }
 
+/// Limit states the user excluded explicitly ("by others").
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Serialize, Deserialize)]
+pub struct Exclusions {
+    pub shear: bool,
+    pub deflection: bool,
+    pub lateral_torsional_buckling: bool,
+    pub local_buckling: bool,
+}
+
+impl Exclusions {
+    /// The names accepted in `exclude = [...]` and `--exclude`.
+    pub const NAMES: &'static str =
+        "shear, deflection, lateral_torsional_buckling (or lateral_stability), local_buckling";
+
+    /// Add one limit state by name.
+    pub fn add(&mut self, name: &str) -> Result<()> {
+        match name
+            .trim()
+            .to_ascii_lowercase()
+            .replace(['-', ' '], "_")
+            .as_str()
+        {
+            "shear" => self.shear = true,
+            "deflection" => self.deflection = true,
+            "lateral_torsional_buckling" | "lateral_stability" | "ltb" | "stability" => {
+                self.lateral_torsional_buckling = true
+            }
+            "local_buckling" => self.local_buckling = true,
+            "bending" => {
+                return Err(Error::msg(
+                    "bending cannot be excluded: it is the check beamsift exists for",
+                ));
+            }
+            other => {
+                return Err(Error::msg(format!(
+                    "unknown limit state '{other}' to exclude: expected {}",
+                    Self::NAMES
+                )));
+            }
+        }
+        Ok(())
+    }
+
+    /// The excluded limit states in words.
+    pub fn list(&self) -> Vec<String> {
+        let mut v = Vec::new();
+        if self.shear {
+            v.push("shear (excluded by the user)".to_string());
+        }
+        if self.deflection {
+            v.push("deflection (excluded by the user)".to_string());
+        }
+        if self.lateral_torsional_buckling {
+            v.push(
+                "lateral-torsional buckling / lateral stability (excluded by the user)".to_string(),
+            );
+        }
+        if self.local_buckling {
+            v.push("local buckling of flanges, webs and walls (excluded by the user)".to_string());
+        }
+        v
+    }
+}
+
+/// Long-term deflection: service combinations with a dead case have their
+/// permanent loads (dead, other, and a sustained fraction of live)
+/// multiplied by the creep factor K_cr (NDS 3.5.2: Δ_T = K_cr·Δ_LT + Δ_ST).
+#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
+pub struct LongTerm {
+    pub creep_factor: f64,
+    /// Fraction of live loads that is sustained (0 to 1).
+    pub sustained_live: f64,
+}
+
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct Criteria {
     pub bracing: Bracing,
+    pub braced_flange: BracedFlange,
+    pub load_height: LoadHeight,
+    /// Effective-length factor for an overhang's segment with a free tip
+    /// (None: 1.0, or 2.5 for top-flange loads).
+    pub overhang_k: Option<f64>,
     pub shear: ShearMethod,
     /// Add the section's self-weight to its case.
     pub self_weight: bool,
+    pub exclude: Exclusions,
+    pub long_term: Option<LongTerm>,
 }
 
 impl Default for Criteria {
     fn default() -> Self {
         Criteria {
             bracing: Bracing::NotGiven,
+            braced_flange: BracedFlange::Top,
+            load_height: LoadHeight::ShearCentre,
+            overhang_k: None,
             shear: ShearMethod::Auto,
             self_weight: true,
+            exclude: Exclusions::default(),
+            long_term: None,
+        }
+    }
+}
+
+impl Criteria {
+    /// Effective-length factor of an overhang's free-tip segment: from
+    /// memory of BS 5950-1:2000 Table 14 (support continuous with lateral
+    /// and torsional restraint, tip free): 1.0 for normal loads, 2.5 for
+    /// destabilising ones.
+    pub fn overhang_factor(&self) -> f64 {
+        self.overhang_k.unwrap_or(match self.load_height {
+            LoadHeight::ShearCentre => 1.0,
+            LoadHeight::TopFlange => 2.5,
+        })
+    }
+    /// Effective-length factor of a segment between restraints: 1.0, or
+    /// 1.2 for destabilising loads (from memory of BS 5950-1:2000 Table 13,
+    /// ends free to rotate on plan; AISC 360-16 has no such factor).
+    pub fn span_factor(&self) -> f64 {
+        match self.load_height {
+            LoadHeight::ShearCentre => 1.0,
+            LoadHeight::TopFlange => 1.2,
+        }
+    }
+}
+
+/// Which way the member bends at a check.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Sense {
+    /// Positive moment: top flange (fibre) in compression.
+    Sagging,
+    /// Negative moment: bottom flange in compression.
+    Hogging,
+    /// Not a flexural check.
+    None,
+}
+
+impl Sense {
+    fn index(self) -> usize {
+        match self {
+            Sense::Hogging => 1,
+            _ => 0,
+        }
+    }
+    pub fn name(self) -> &'static str {
+        match self {
+            Sense::Sagging => "sagging",
+            Sense::Hogging => "hogging",
+            Sense::None => "",
         }
     }
 }
@@ -118,15 +381,39 @@ impl Default for Criteria {
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize)]
 #[serde(rename_all = "snake_case")]
 pub enum CheckKind {
-    /// Sagging moment, top fibre in compression.
+    /// Sagging moment, top fibre in compression, against F_b.
     BendingSaggingTop,
-    /// Sagging moment, bottom fibre in tension.
+    /// Sagging moment, bottom fibre in tension, against F_b.
     BendingSaggingBottom,
-    /// Hogging moment, top fibre in tension.
+    /// Hogging moment, top fibre in tension, against F_b.
     BendingHoggingTop,
-    /// Hogging moment, bottom fibre in compression.
+    /// Hogging moment, bottom fibre in compression, against F_b.
     BendingHoggingBottom,
+    /// Shear stress against F_v.
     Shear,
+    /// Steel: flexural yielding (or compression-flange yielding).
+    Yielding,
+    /// Steel: compression-flange (or wall) local buckling.
+    FlangeLocalBuckling,
+    /// Steel: web local buckling of a rectangular HSS.
+    WebLocalBuckling,
+    /// Steel: tension-flange yielding of a singly symmetric I.
+    TensionFlangeYielding,
+    /// Lateral-torsional buckling (steel) or lateral stability C_L
+    /// (timber) of an unbraced segment.
+    LateralTorsional,
+    /// Steel: shear strength by AISC 360-16 Chapter G.
+    WebShear,
+    Deflection,
+}
+
+/// Limit-state groups, for the optimiser's constraints and exclusions.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Group {
+    Bending,
+    Shear,
+    LocalBuckling,
     LateralTorsional,
     Deflection,
 }
@@ -138,8 +425,13 @@ impl CheckKind {
             CheckKind::BendingSaggingBottom => "bending, sagging, bottom fibre (tension)",
             CheckKind::BendingHoggingTop => "bending, hogging, top fibre (tension)",
             CheckKind::BendingHoggingBottom => "bending, hogging, bottom fibre (compression)",
-            CheckKind::Shear => "shear",
+            CheckKind::Shear => "shear stress",
+            CheckKind::Yielding => "flexural yielding",
+            CheckKind::FlangeLocalBuckling => "compression flange local buckling",
+            CheckKind::WebLocalBuckling => "web local buckling",
+            CheckKind::TensionFlangeYielding => "tension flange yielding",
             CheckKind::LateralTorsional => "lateral-torsional buckling",
+            CheckKind::WebShear => "shear strength",
             CheckKind::Deflection => "deflection",
         }
     }
@@ -149,10 +441,36 @@ impl CheckKind {
             CheckKind::BendingSaggingBottom => "bending +M bottom (T)",
             CheckKind::BendingHoggingTop => "bending −M top (T)",
             CheckKind::BendingHoggingBottom => "bending −M bottom (C)",
-            CheckKind::Shear => "shear",
+            CheckKind::Shear => "shear stress",
+            CheckKind::Yielding => "yielding",
+            CheckKind::FlangeLocalBuckling => "flange local buckling",
+            CheckKind::WebLocalBuckling => "web local buckling",
+            CheckKind::TensionFlangeYielding => "tension flange yielding",
             CheckKind::LateralTorsional => "lateral-torsional buckling",
+            CheckKind::WebShear => "shear strength",
             CheckKind::Deflection => "deflection",
         }
+    }
+    pub fn group(self) -> Group {
+        match self {
+            CheckKind::Shear | CheckKind::WebShear => Group::Shear,
+            CheckKind::FlangeLocalBuckling | CheckKind::WebLocalBuckling => Group::LocalBuckling,
+            CheckKind::LateralTorsional => Group::LateralTorsional,
+            CheckKind::Deflection => Group::Deflection,
+            _ => Group::Bending,
+        }
+    }
+    /// Is the demand a moment (N·mm), a stress (MPa), a force or a
+    /// deflection (mm)?
+    pub fn demand_is_moment(self) -> bool {
+        matches!(
+            self,
+            CheckKind::Yielding
+                | CheckKind::FlangeLocalBuckling
+                | CheckKind::WebLocalBuckling
+                | CheckKind::TensionFlangeYielding
+                | CheckKind::LateralTorsional
+        )
     }
 }
 
@@ -163,24 +481,175 @@ pub struct Item {
     /// Index of the combination in the beam's list.
     pub combo: usize,
     /// Stretch (span/overhang) index for deflection, segment index for
-    /// lateral-torsional buckling.
+    /// lateral stability.
     pub part: usize,
+    pub sense: Sense,
     /// Position along the beam, mm.
     pub x: f64,
     /// Action at x: moment (N·mm), shear (N) or deflection (mm).
     pub action: f64,
-    /// Demand: stress (MPa), moment (N·mm, for buckling) or deflection (mm).
+    /// Demand: stress (MPa), moment (N·mm), force (N) or deflection (mm).
     pub demand: f64,
-    /// Capacity in the same unit as the demand.
+    /// Capacity in the same unit as the demand (allowable: nominal/Ω).
     pub capacity: f64,
     pub utilisation: f64,
+    /// Lateral stability: [effective length mm, C_b (steel) or C_L
+    /// (timber)]; timber bending and shear: [C_D, 0].
+    pub aux: [f64; 2],
 }
 
-/// The outcome for one section: the largest utilisation and its check.
+/// A limit state that applies but could not be evaluated.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Gap {
+    /// Bending: no allowable F_b and no method from the material.
+    NoBendingMethod,
+    /// Shear: no allowable F_v and no method from the material.
+    NoShearMethod,
+    /// Shear: the section's Q and t (or its web) are not known.
+    ShearProperties,
+    /// No serviceability combination: deflection not evaluated.
+    NoDeflectionLimit,
+    /// Steel without F_y: AISC 360-16 limit states cannot be evaluated.
+    NoYieldStress,
+    /// Steel: a table row lacks I_y, J, C_w or Z_x.
+    SteelProperties,
+    /// Steel: outside the range of the method (F13.2, F8, F7.3(c)).
+    SteelRange,
+    /// The shape is not known (table values only).
+    ShapeUnknown,
+    /// Lateral stability applies, but there is no method for this
+    /// material (kind not stated) or shape.
+    NoStabilityMethod,
+    /// Local buckling applies, but there is no method for this material.
+    NoLocalBucklingMethod,
+    /// Timber stability needs E_min.
+    NoEmin,
+    /// Timber stability outside NDS 3.3.3 (R_B > 50).
+    TimberSlenderness,
+    /// Timber stability is implemented for rectangles only.
+    TimberShape,
+}
+
+impl Gap {
+    const ALL: [Gap; 13] = [
+        Gap::NoBendingMethod,
+        Gap::NoShearMethod,
+        Gap::ShearProperties,
+        Gap::NoDeflectionLimit,
+        Gap::NoYieldStress,
+        Gap::SteelProperties,
+        Gap::SteelRange,
+        Gap::ShapeUnknown,
+        Gap::NoStabilityMethod,
+        Gap::NoLocalBucklingMethod,
+        Gap::NoEmin,
+        Gap::TimberSlenderness,
+        Gap::TimberShape,
+    ];
+    fn bit(self) -> u16 {
+        1 << (self as u16)
+    }
+    /// The reason in words.
+    pub fn describe(self) -> &'static str {
+        match self {
+            Gap::NoBendingMethod => {
+                "bending: no allowable bending stress Fb was given, and the material has no method of its own (steel with Fy uses AISC 360-16 Chapter F)"
+            }
+            Gap::NoShearMethod => {
+                "shear: no allowable shear stress Fv was given, and the material has no method of its own (steel with Fy uses AISC 360-16 Chapter G)"
+            }
+            Gap::ShearProperties => {
+                "shear: the section's first moment Q and width t at the neutral axis (or its web) are not known (table values)"
+            }
+            Gap::NoDeflectionLimit => {
+                "deflection: the job has no serviceability combination with a limit (add one, a service preset, or exclude deflection)"
+            }
+            Gap::NoYieldStress => {
+                "the steel limit states of AISC 360-16 (flexural yielding, local and lateral-torsional buckling, shear): no yield stress Fy was given"
+            }
+            Gap::SteelProperties => {
+                "the steel limit states of AISC 360-16: the catalogue row lacks Iy, J, Cw or Zx"
+            }
+            Gap::SteelRange => {
+                "the steel limit states of AISC 360-16: the section is outside the range of the method (F13.2 proportioning limits, F8 D/t < 0.45E/Fy, or a slender HSS web)"
+            }
+            Gap::ShapeUnknown => {
+                "lateral-torsional and local buckling: the section's shape is not known (table values only)"
+            }
+            Gap::NoStabilityMethod => {
+                "lateral stability of the unbraced compression flange: no method for this material (state kind = \"steel\" or \"timber\") or shape"
+            }
+            Gap::NoLocalBucklingMethod => {
+                "local buckling of flanges, webs or walls: no method for this material (state kind = \"steel\", or exclude local_buckling)"
+            }
+            Gap::NoEmin => "timber lateral stability (NDS 3.3.3): no Emin was given",
+            Gap::TimberSlenderness => {
+                "timber lateral stability: the slenderness ratio R_B exceeds 50 (NDS 3.3.3.7)"
+            }
+            Gap::TimberShape => {
+                "timber lateral stability (NDS 3.3.3) is implemented for rectangular sections only"
+            }
+        }
+    }
+}
+
+/// A set of gaps.
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Serialize, Deserialize)]
+pub struct Gaps(u16);
+
+impl Gaps {
+    #[inline]
+    pub fn add(&mut self, g: Gap) {
+        self.0 |= g.bit();
+    }
+    pub fn is_empty(&self) -> bool {
+        self.0 == 0
+    }
+    pub fn contains(&self, g: Gap) -> bool {
+        self.0 & g.bit() != 0
+    }
+    pub fn iter(&self) -> impl Iterator<Item = Gap> + '_ {
+        Gap::ALL.into_iter().filter(|g| self.contains(*g))
+    }
+    /// The reasons in words.
+    pub fn describe(&self) -> Vec<String> {
+        self.iter().map(|g| g.describe().to_string()).collect()
+    }
+}
+
+/// The three verdicts.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Verdict {
+    /// Every applicable limit state evaluated and within its capacity.
+    Passes,
+    /// Some evaluated limit state exceeds its capacity.
+    Fails,
+    /// Nothing evaluated fails, but a limit state that applies could not be
+    /// evaluated: not a pass.
+    NotVerified,
+}
+
+impl Verdict {
+    pub fn word(self) -> &'static str {
+        match self {
+            Verdict::Passes => "PASSES",
+            Verdict::Fails => "FAILS",
+            Verdict::NotVerified => "NOT VERIFIED",
+        }
+    }
+}
+
+/// The outcome for one section.
 #[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
 pub struct Summary {
+    /// Largest utilisation of the evaluated checks.
     pub utilisation: f64,
     pub governing: Option<Item>,
+    pub verdict: Verdict,
+    pub gaps: Gaps,
+    /// verdict == Passes.
     pub passes: bool,
 }
 
@@ -208,7 +677,7 @@ impl<'a> SectionInput<'a> {
     }
 }
 
-/// An unbraced segment for lateral-torsional buckling.
+/// An unbraced segment for lateral stability.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct Segment {
     pub x1: f64,
@@ -217,8 +686,31 @@ pub struct Segment {
     pub nodes: [usize; 5],
     /// Elements inside the segment.
     pub elems: (usize, usize),
-    /// One end is a free (cantilever) tip: Cb = 1.
+    /// One end is a free (cantilever) tip: C_b = 1 (AISC 360-16 F1).
     pub free_end: bool,
+    /// C_b is taken as 1.0: a free tip, or the bottom flange under hogging
+    /// between supports with only the top flange braced (conservative:
+    /// eq. F1-1 assumes both flanges restrained at the segment's ends and
+    /// says nothing of the restraint the top-flange braces give).
+    pub cb_unity: bool,
+    /// Checked under sagging (top flange unbraced here) / hogging.
+    pub sagging: bool,
+    pub hogging: bool,
+    /// Effective-length factor on x2 − x1.
+    pub k: f64,
+}
+
+/// Receives what a section's check produces.
+pub trait Sink {
+    fn item(&mut self, it: Item);
+    fn gap(&mut self, g: Gap);
+}
+
+impl<F: FnMut(Item)> Sink for F {
+    fn item(&mut self, it: Item) {
+        self(it)
+    }
+    fn gap(&mut self, _g: Gap) {}
 }
 
 /// A job analysed once and ready to check any number of sections.
@@ -228,39 +720,93 @@ pub struct Prepared {
     pub material: Material,
     pub criteria: Criteria,
     pub segments: Vec<Segment>,
+    /// Load duration factor C_D of each combination by NDS Table 2.3.2
+    /// (used for timber without a fixed C_D).
+    pub duration: Vec<f64>,
     stretch_elems: Vec<(usize, usize)>,
     strength: Vec<usize>,
     service: Vec<usize>,
 }
 
-/// Brace points: supported nodes, and every `spacing` along each stretch
-/// from its supported end.
-fn brace_points(beam: &Beam, bracing: Bracing) -> Vec<(f64, f64, bool)> {
-    let spacing = match bracing {
-        Bracing::Spacing(s) => Some(s),
-        Bracing::Supports => None,
-        _ => return Vec::new(),
-    };
-    let mut segs = Vec::new();
+/// Lateral restraint segments: (x1, x2, free end, sagging, hogging, k).
+type RawSegment = (f64, f64, bool, bool, bool, f64);
+
+fn segments_of(beam: &Beam, c: &Criteria) -> Vec<RawSegment> {
+    let mut out = Vec::new();
+    let both = c.braced_flange == BracedFlange::Both;
     for s in beam.stretches() {
         let len = s.x2 - s.x1;
-        let n = spacing
-            .map(|sp| (len / sp - 1e-9).ceil().max(1.0) as usize)
-            .unwrap_or(1);
         let from_right = s.cantilever && s.left_node.is_none();
-        for k in 0..n {
-            let (a, b) = if from_right {
-                let b = s.x2 - k as f64 * spacing.unwrap_or(len);
-                (((b - spacing.unwrap_or(len)).max(s.x1)), b)
+        let k_of = |free: bool| {
+            if free {
+                c.overhang_factor()
             } else {
-                let a = s.x1 + k as f64 * spacing.unwrap_or(len);
-                (a, (a + spacing.unwrap_or(len)).min(s.x2))
-            };
-            let free = s.cantilever && k == n - 1;
-            segs.push((a, b, free));
+                c.span_factor()
+            }
+        };
+        // Split the stretch at `spacing` from its supported end.
+        let mut split = |spacing: f64, sag: bool, hog: bool| {
+            let n = (len / spacing - 1e-9).ceil().max(1.0) as usize;
+            for k in 0..n {
+                let (a, b) = if from_right {
+                    let b = s.x2 - k as f64 * spacing;
+                    ((b - spacing).max(s.x1), b)
+                } else {
+                    let a = s.x1 + k as f64 * spacing;
+                    (a, (a + spacing).min(s.x2))
+                };
+                let free = s.cantilever && k == n - 1;
+                out.push((a, b, free, sag, hog, k_of(free)));
+            }
+        };
+        match c.bracing {
+            Bracing::Continuous => {
+                if !both {
+                    split(len, false, true);
+                }
+            }
+            Bracing::Supports | Bracing::NotGiven => split(len, true, true),
+            Bracing::Spacing(sp) => {
+                if both || sp >= len {
+                    split(sp.min(len), true, true);
+                } else {
+                    split(sp, true, false);
+                    split(len, false, true);
+                }
+            }
         }
     }
-    segs
+    out
+}
+
+/// Apply the long-term creep factor to the service combinations that
+/// include a dead case.
+fn with_long_term(beam: &Beam, lt: &LongTerm) -> Beam {
+    let mut b = beam.clone();
+    for c in b.combinations.iter_mut() {
+        if c.kind != ComboKind::Service
+            || !c
+                .factors
+                .iter()
+                .any(|(i, f)| *f != 0.0 && beam.cases[*i].category == Category::Dead)
+        {
+            continue;
+        }
+        for (i, f) in c.factors.iter_mut() {
+            let psi = match beam.cases[*i].category {
+                Category::Dead | Category::Other => 1.0,
+                Category::Live => lt.sustained_live,
+                _ => 0.0,
+            };
+            *f *= 1.0 + (lt.creep_factor - 1.0) * psi;
+        }
+        c.name = format!(
+            "{} (long-term, K_cr = {})",
+            c.name,
+            crate::units::fmt_num(lt.creep_factor)
+        );
+    }
+    b
 }
 
 impl Prepared {
@@ -268,43 +814,79 @@ impl Prepared {
     pub fn new(beam: &Beam, material: Material, criteria: Criteria) -> Result<Prepared> {
         material.validate()?;
         if let Bracing::Spacing(s) = criteria.bracing
-            && (!s.is_finite() || s <= 0.0)
+            && !(s.is_finite() && s >= 1e-3 * beam.length().max(1.0) && s > 0.0)
         {
-            return Err(Error::msg("the unbraced length must be greater than zero")
-                .in_field("lateral_bracing"));
+            return Err(Error::msg(format!(
+                "the brace spacing {} mm is not valid: expected at least 1/1000 of the beam's length",
+                crate::units::fmt_num(s)
+            ))
+            .in_field("lateral_bracing"));
         }
-        let mut beam = beam.clone();
+        if let Some(k) = criteria.overhang_k
+            && !(k.is_finite() && (0.5..=10.0).contains(&k))
+        {
+            return Err(Error::msg(
+                "the overhang effective-length factor must be between 0.5 and 10",
+            )
+            .in_field("overhang_effective_length"));
+        }
+        let mut beam = match &criteria.long_term {
+            Some(lt) => {
+                if !(lt.creep_factor.is_finite() && (1.0..=5.0).contains(&lt.creep_factor)) {
+                    return Err(Error::msg("the creep factor must be between 1 and 5")
+                        .in_field("creep_factor"));
+                }
+                if !(0.0..=1.0).contains(&lt.sustained_live) {
+                    return Err(Error::msg(
+                        "the sustained fraction of live load must be between 0 and 1",
+                    )
+                    .in_field("sustained_live"));
+                }
+                with_long_term(beam, lt)
+            }
+            None => beam.clone(),
+        };
         if !criteria.self_weight {
             beam.self_weight_case = None;
         }
-        let segs = brace_points(&beam, criteria.bracing);
+        let segs = segments_of(&beam, &criteria);
         let mut extra = Vec::new();
-        for &(a, b, _) in &segs {
+        for &(a, b, ..) in &segs {
             for k in 0..=4 {
                 extra.push(a + (b - a) * k as f64 / 4.0);
             }
         }
         let demand = Demand::build(&beam, &extra)?;
         let node_of = |x: f64| -> usize {
-            demand
-                .mesh
-                .x
-                .iter()
-                .enumerate()
-                .min_by(|a, b| (a.1 - x).abs().total_cmp(&(b.1 - x).abs()))
-                .map(|p| p.0)
-                .unwrap_or(0)
+            match demand.mesh.x.binary_search_by(|p| p.total_cmp(&x)) {
+                Ok(i) => i,
+                Err(i) => {
+                    let lo = i.saturating_sub(1);
+                    let hi = i.min(demand.mesh.x.len() - 1);
+                    if (demand.mesh.x[hi] - x).abs() < (x - demand.mesh.x[lo]).abs() {
+                        hi
+                    } else {
+                        lo
+                    }
+                }
+            }
         };
         let segments = segs
             .iter()
-            .map(|&(a, b, free)| {
-                let nodes = [0, 1, 2, 3, 4].map(|k| node_of(a + (b - a) * k as f64 / 4.0));
+            .map(|&(a, b, free, sagging, hogging, k)| {
+                let nodes = [0, 1, 2, 3, 4].map(|q| node_of(a + (b - a) * q as f64 / 4.0));
+                let top_braced_between = criteria.braced_flange == BracedFlange::Top
+                    && matches!(criteria.bracing, Bracing::Continuous | Bracing::Spacing(_));
                 Segment {
                     x1: a,
                     x2: b,
                     nodes,
                     elems: (nodes[0], nodes[4]),
                     free_end: free,
+                    cb_unity: free || (hogging && !sagging && top_braced_between),
+                    sagging,
+                    hogging,
+                    k,
                 }
             })
             .collect();
@@ -320,11 +902,24 @@ impl Prepared {
         let service = (0..demand.combos.len())
             .filter(|&i| demand.combos[i].kind == ComboKind::Service)
             .collect();
+        let duration = beam
+            .combinations
+            .iter()
+            .map(|c| {
+                timber::combination_cd(
+                    c.factors
+                        .iter()
+                        .filter(|(_, f)| *f != 0.0)
+                        .map(|(i, _)| beam.cases[*i].category),
+                )
+            })
+            .collect();
         Ok(Prepared {
             demand,
             material,
             criteria,
             segments,
+            duration,
             stretch_elems,
             strength,
             service,
@@ -350,208 +945,542 @@ impl Prepared {
         }
     }
 
-    /// Visit every check line of a section (no allocation).
-    pub fn visit<F: FnMut(Item)>(&self, sec: SectionInput<'_>, mut f: F) {
+    /// C_D of combination `ci` for a material (1 for non-timber).
+    #[inline]
+    pub fn cd(&self, m: &Material, ci: usize) -> f64 {
+        match m.kind {
+            MaterialKind::Timber => m.timber.cd.unwrap_or(self.duration[ci]),
+            _ => 1.0,
+        }
+    }
+
+    /// The steel strengths of a section for its material, or the gap.
+    pub fn steel(
+        &self,
+        p: &Properties,
+        m: &Material,
+    ) -> Option<std::result::Result<steel::Steel, Gap>> {
+        if m.kind != MaterialKind::Steel {
+            return None;
+        }
+        Some(match m.fy {
+            None => Err(Gap::NoYieldStress),
+            Some(fy) => steel::strengths(p, fy, m.e).map_err(|e| match e {
+                steel::Missing::Properties => Gap::SteelProperties,
+                steel::Missing::Range => Gap::SteelRange,
+                steel::Missing::Shape => Gap::ShapeUnknown,
+            }),
+        })
+    }
+
+    /// Visit every check line of a section, and every gap (no allocation).
+    pub fn visit<S: Sink>(&self, sec: SectionInput<'_>, sink: &mut S) {
         let p = sec.props;
         let m = sec.material.unwrap_or(&self.material);
+        let ex = &self.criteria.exclude;
         let w = self.self_weight(sec.mass);
         let d = &self.demand;
         let ne = d.len.len();
-        let shear_stress = shear_factor(p, self.criteria.shear);
-        let ei = m.e * p.ix;
+        let ei = m.e_eff() * p.ix;
         let sl = d.section(w, ei);
+        let timber = m.kind == MaterialKind::Timber;
+        let steel = match self.steel(p, m) {
+            Some(Ok(s)) => Some(s),
+            Some(Err(g)) => {
+                sink.gap(g);
+                None
+            }
+            None => None,
+        };
+        let is_steel = m.kind == MaterialKind::Steel;
+        // Sections whose plates can buckle locally.
+        let plated = matches!(
+            p.form,
+            Form::RolledI | Form::WeldedI | Form::Rhs { .. } | Form::Chs { .. } | Form::Given
+        );
+        if !is_steel && plated && !ex.local_buckling {
+            sink.gap(if p.form == Form::Given && p.i_geometry.is_none() {
+                Gap::ShapeUnknown
+            } else {
+                Gap::NoLocalBucklingMethod
+            });
+        }
+        let fb = m.fb_tension.zip(m.fb_compression);
+        if fb.is_none() && steel.is_none() && !is_steel {
+            sink.gap(Gap::NoBendingMethod);
+        }
+        let shear_k = shear_factor(p, self.criteria.shear);
+        if !ex.shear && !is_steel {
+            if m.fv.is_none() {
+                sink.gap(Gap::NoShearMethod);
+            } else if shear_k.is_none() {
+                sink.gap(Gap::ShearProperties);
+            }
+        }
         for &ci in &self.strength {
-            let combo = d.apply(ci, &sl);
-            let mx = d.extremes(&combo, Quantity::Moment, 0..ne);
-            if mx.max > 0.0 {
-                let ft = mx.max / p.s_top;
-                let fb = mx.max / p.s_bot;
-                f(item(
-                    CheckKind::BendingSaggingTop,
-                    ci,
-                    0,
-                    mx.x_max,
-                    mx.max,
-                    ft,
-                    m.fb_compression,
-                ));
-                f(item(
-                    CheckKind::BendingSaggingBottom,
-                    ci,
-                    0,
-                    mx.x_max,
-                    mx.max,
-                    fb,
-                    m.fb_tension,
-                ));
-            }
-            if mx.min < 0.0 {
-                let ft = -mx.min / p.s_top;
-                let fb = -mx.min / p.s_bot;
-                f(item(
-                    CheckKind::BendingHoggingTop,
-                    ci,
-                    0,
-                    mx.x_min,
-                    mx.min,
-                    ft,
-                    m.fb_tension,
-                ));
-                f(item(
-                    CheckKind::BendingHoggingBottom,
-                    ci,
-                    0,
-                    mx.x_min,
-                    mx.min,
-                    fb,
-                    m.fb_compression,
-                ));
-            }
-            if let (Some(fv), Some(k)) = (m.fv, shear_stress) {
-                let v = d.extremes(&combo, Quantity::Shear, 0..ne);
-                let (vv, x) = v.abs_max();
-                f(item(CheckKind::Shear, ci, 0, x, vv, vv.abs() * k, fv));
-            }
-            if let Some(cap) = ltb::Capacity::new(p, m, self.criteria.bracing) {
-                for (si, seg) in self.segments.iter().enumerate() {
-                    let ex = d.extremes(&combo, Quantity::Moment, seg.elems.0..seg.elems.1);
-                    let (mmax, x) = ex.abs_max();
-                    if mmax == 0.0 {
-                        continue;
-                    }
-                    let cb = if seg.free_end {
-                        1.0
-                    } else {
-                        let q = |k: usize| d.abs_moment_at_node(&combo, seg.nodes[k]);
-                        ltb::cb(mmax.abs(), q(1), q(2), q(3))
-                    };
-                    let ma = cap.allowable(seg.x2 - seg.x1, cb);
-                    f(item(
-                        CheckKind::LateralTorsional,
+            let a = d.apply(ci, &sl);
+            let cd = self.cd(m, ci);
+            let tf = if timber {
+                cd * m.timber.fb_factor()
+            } else {
+                1.0
+            };
+            let mx = d.extremes(&a, Quantity::Moment, 0..ne);
+            let aux = [cd, 0.0];
+            if let Some((fbt, fbc)) = fb {
+                let (fbt, fbc) = (fbt * tf, fbc * tf);
+                if mx.max > 0.0 {
+                    sink.item(item(
+                        CheckKind::BendingSaggingTop,
                         ci,
-                        si,
-                        x,
-                        mmax,
-                        mmax.abs(),
-                        ma,
+                        0,
+                        Sense::Sagging,
+                        mx.x_max,
+                        mx.max,
+                        mx.max / p.s_top,
+                        fbc,
+                        aux,
+                    ));
+                    sink.item(item(
+                        CheckKind::BendingSaggingBottom,
+                        ci,
+                        0,
+                        Sense::Sagging,
+                        mx.x_max,
+                        mx.max,
+                        mx.max / p.s_bot,
+                        fbt,
+                        aux,
                     ));
                 }
-                if self.criteria.bracing == Bracing::Continuous {
-                    let (mmax, x) = mx.abs_max();
-                    if mmax != 0.0 {
-                        let ma = cap.allowable(0.0, 1.0);
-                        f(item(
-                            CheckKind::LateralTorsional,
+                if mx.min < 0.0 {
+                    sink.item(item(
+                        CheckKind::BendingHoggingTop,
+                        ci,
+                        0,
+                        Sense::Hogging,
+                        mx.x_min,
+                        mx.min,
+                        -mx.min / p.s_top,
+                        fbt,
+                        aux,
+                    ));
+                    sink.item(item(
+                        CheckKind::BendingHoggingBottom,
+                        ci,
+                        0,
+                        Sense::Hogging,
+                        mx.x_min,
+                        mx.min,
+                        -mx.min / p.s_bot,
+                        fbc,
+                        aux,
+                    ));
+                }
+            }
+            if let Some(st) = &steel {
+                for (sense, m0, x) in [
+                    (Sense::Sagging, mx.max, mx.x_max),
+                    (Sense::Hogging, mx.min, mx.x_min),
+                ] {
+                    let on = if sense == Sense::Sagging {
+                        m0 > 0.0
+                    } else {
+                        m0 < 0.0
+                    };
+                    if !on {
+                        continue;
+                    }
+                    let f = &st.flexure[sense.index()];
+                    let mm = m0.abs();
+                    let z = [0.0; 2];
+                    sink.item(item(
+                        CheckKind::Yielding,
+                        ci,
+                        0,
+                        sense,
+                        x,
+                        m0,
+                        mm,
+                        f.yielding.mn / steel::OMEGA_B,
+                        z,
+                    ));
+                    if !ex.local_buckling {
+                        if let Some(n) = f.flange {
+                            sink.item(item(
+                                CheckKind::FlangeLocalBuckling,
+                                ci,
+                                0,
+                                sense,
+                                x,
+                                m0,
+                                mm,
+                                n.mn / steel::OMEGA_B,
+                                z,
+                            ));
+                        }
+                        if let Some(n) = f.web {
+                            sink.item(item(
+                                CheckKind::WebLocalBuckling,
+                                ci,
+                                0,
+                                sense,
+                                x,
+                                m0,
+                                mm,
+                                n.mn / steel::OMEGA_B,
+                                z,
+                            ));
+                        }
+                    }
+                    if let Some(n) = f.tension_flange {
+                        sink.item(item(
+                            CheckKind::TensionFlangeYielding,
                             ci,
                             0,
+                            sense,
                             x,
-                            mmax,
-                            mmax.abs(),
-                            ma,
+                            m0,
+                            mm,
+                            n.mn / steel::OMEGA_B,
+                            z,
                         ));
                     }
                 }
             }
+            if !ex.shear {
+                let v = d.extremes(&a, Quantity::Shear, 0..ne);
+                let (vv, x) = v.abs_max();
+                if let (Some(fv), Some(k)) = (m.fv, shear_k) {
+                    let cap = if timber {
+                        fv * cd * m.timber.fv_factor()
+                    } else {
+                        fv
+                    };
+                    sink.item(item(
+                        CheckKind::Shear,
+                        ci,
+                        0,
+                        Sense::None,
+                        x,
+                        vv,
+                        vv.abs() * k,
+                        cap,
+                        aux,
+                    ));
+                }
+                if let Some(st) = &steel {
+                    sink.item(item(
+                        CheckKind::WebShear,
+                        ci,
+                        0,
+                        Sense::None,
+                        x,
+                        vv,
+                        vv.abs(),
+                        st.shear.vn / st.shear.omega,
+                        [0.0; 2],
+                    ));
+                }
+            }
+            if !ex.lateral_torsional_buckling {
+                self.stability(p, m, &a, ci, cd, steel.as_ref(), sink);
+            }
         }
-        for &ci in &self.service {
-            let combo = d.apply(ci, &sl);
-            let Some(limit) = combo.combo.limit else {
-                continue;
-            };
-            for (k, &(a, b)) in self.stretch_elems.iter().enumerate() {
-                let st = &d.stretches[k];
-                let ex = d.extremes(&combo, Quantity::Deflection, a..b);
-                let (y, x) = ex.abs_max();
-                let delta = y / ei;
-                let mut l_eff = st.x2 - st.x1;
-                if st.cantilever {
-                    l_eff *= d.cantilever_factor;
+        if !ex.deflection {
+            if self.service.is_empty() {
+                sink.gap(Gap::NoDeflectionLimit);
+            }
+            for &ci in &self.service {
+                let a = d.apply(ci, &sl);
+                let Some(limit) = a.combo.limit else { continue };
+                for (k, &(e0, e1)) in self.stretch_elems.iter().enumerate() {
+                    let st = &d.stretches[k];
+                    let exm = d.extremes(&a, Quantity::Deflection, e0..e1);
+                    let (y, x) = exm.abs_max();
+                    let delta = y / ei;
+                    let mut l_eff = st.x2 - st.x1;
+                    if st.cantilever {
+                        l_eff *= d.cantilever_factor;
+                    }
+                    let mut allow = f64::INFINITY;
+                    if let Some(n) = limit.ratio {
+                        allow = allow.min(l_eff / n);
+                    }
+                    if let Some(abs) = limit.absolute {
+                        allow = allow.min(abs);
+                    }
+                    sink.item(item(
+                        CheckKind::Deflection,
+                        ci,
+                        k,
+                        Sense::None,
+                        x,
+                        delta,
+                        delta.abs(),
+                        allow,
+                        [0.0; 2],
+                    ));
                 }
-                let mut allow = f64::INFINITY;
-                if let Some(n) = limit.ratio {
-                    allow = allow.min(l_eff / n);
-                }
-                if let Some(abs) = limit.absolute {
-                    allow = allow.min(abs);
-                }
-                f(item(
-                    CheckKind::Deflection,
-                    ci,
-                    k,
-                    x,
-                    delta,
-                    delta.abs(),
-                    allow,
-                ));
             }
         }
     }
 
-    /// The governing check of a section.
+    /// Lateral stability of every unbraced segment under one combination.
+    #[allow(clippy::too_many_arguments)]
+    #[inline]
+    fn stability<S: Sink>(
+        &self,
+        p: &Properties,
+        m: &Material,
+        a: &crate::beam::Applied<'_>,
+        ci: usize,
+        cd: f64,
+        steel: Option<&steel::Steel>,
+        sink: &mut S,
+    ) {
+        let d = &self.demand;
+        for (si, seg) in self.segments.iter().enumerate() {
+            let ex = d.extremes(a, Quantity::Moment, seg.elems.0..seg.elems.1);
+            // C_b (eq. F1-1) from the largest moment magnitude in the
+            // segment and the quarter-point magnitudes, whatever their sign.
+            let mut cb = f64::NAN;
+            for (sense, m0, x) in [
+                (Sense::Sagging, ex.max, ex.x_max),
+                (Sense::Hogging, ex.min, ex.x_min),
+            ] {
+                let needed = match sense {
+                    Sense::Sagging => seg.sagging && m0 > 0.0,
+                    _ => seg.hogging && m0 < 0.0,
+                };
+                if !needed {
+                    continue;
+                }
+                let len = seg.x2 - seg.x1;
+                match m.kind {
+                    MaterialKind::Steel => {
+                        // A steel gap (no Fy, range, properties) was recorded.
+                        let Some(st) = steel else { continue };
+                        let f = &st.flexure[sense.index()];
+                        if f.ltb == steel::Ltb::None {
+                            continue;
+                        }
+                        if cb.is_nan() {
+                            cb = if seg.cb_unity {
+                                1.0
+                            } else {
+                                let q = |k: usize| d.abs_moment_at_node(a, seg.nodes[k]);
+                                steel::cb(ex.max.abs().max(ex.min.abs()), q(1), q(2), q(3))
+                            };
+                        }
+                        let lb = seg.k * len;
+                        let n = f.ltb.nominal(m.e, lb, cb);
+                        sink.item(item(
+                            CheckKind::LateralTorsional,
+                            ci,
+                            si,
+                            sense,
+                            x,
+                            m0,
+                            m0.abs(),
+                            n.mn / steel::OMEGA_B,
+                            [lb, cb],
+                        ));
+                    }
+                    MaterialKind::Timber => {
+                        let Form::Rect { b, d: depth } = p.form else {
+                            sink.gap(Gap::TimberShape);
+                            continue;
+                        };
+                        let Some(fb) = (match sense {
+                            Sense::Sagging => m.fb_compression,
+                            _ => m.fb_compression,
+                        }) else {
+                            continue;
+                        };
+                        let Some(emin) = m.timber.e_min else {
+                            if depth > b {
+                                sink.gap(Gap::NoEmin);
+                            }
+                            continue;
+                        };
+                        let fb_star = fb * cd * m.timber.fb_star_factor();
+                        let emin_adj = emin * m.timber.e_factor();
+                        let Some(s) = timber::stability(len, b, depth, fb_star, emin_adj) else {
+                            sink.gap(Gap::TimberSlenderness);
+                            continue;
+                        };
+                        let cap = fb * cd * m.timber.fb_factor() * s.cl;
+                        let sc = if sense == Sense::Sagging {
+                            p.s_top
+                        } else {
+                            p.s_bot
+                        };
+                        sink.item(item(
+                            CheckKind::LateralTorsional,
+                            ci,
+                            si,
+                            sense,
+                            x,
+                            m0,
+                            m0.abs() / sc,
+                            cap,
+                            [s.le, s.cl],
+                        ));
+                    }
+                    MaterialKind::Unspecified => {
+                        // Closed round sections do not buckle laterally.
+                        if !matches!(p.form, Form::Chs { .. } | Form::Round { .. }) {
+                            sink.gap(Gap::NoStabilityMethod);
+                        }
+                    }
+                }
+            }
+        }
+    }
+
+    /// The governing check and the verdict of a section.
     pub fn check(&self, sec: SectionInput<'_>) -> Summary {
-        let mut best: Option<Item> = None;
-        self.visit(sec, |it| {
-            let better = match &best {
-                None => true,
-                // Ties (within round-off) keep the first check in the fixed
-                // visiting order, so the governing check is deterministic.
-                Some(b) => {
-                    it.utilisation > b.utilisation * (1.0 + 1e-12) || it.utilisation.is_nan()
+        struct Worst {
+            best: Option<Item>,
+            gaps: Gaps,
+        }
+        impl Sink for Worst {
+            #[inline]
+            fn item(&mut self, it: Item) {
+                let better = match &self.best {
+                    None => true,
+                    // Ties (within round-off) keep the first check in the
+                    // fixed visiting order, so the governing check is
+                    // deterministic.
+                    Some(b) => {
+                        it.utilisation > b.utilisation * (1.0 + 1e-12) || it.utilisation.is_nan()
+                    }
+                };
+                if better {
+                    self.best = Some(it);
                 }
-            };
-            if better {
-                best = Some(it);
             }
+            #[inline]
+            fn gap(&mut self, g: Gap) {
+                self.gaps.add(g);
+            }
+        }
+        let mut w = Worst {
+            best: None,
+            gaps: Gaps::default(),
+        };
+        self.visit(sec, &mut w);
+        summarise(w.best, w.gaps)
+    }
+
+    /// Every check line of a section, and its gaps.
+    pub fn check_all(&self, sec: SectionInput<'_>) -> (Vec<Item>, Gaps) {
+        struct All(Vec<Item>, Gaps);
+        impl Sink for All {
+            fn item(&mut self, it: Item) {
+                self.0.push(it);
+            }
+            fn gap(&mut self, g: Gap) {
+                self.1.add(g);
+            }
+        }
+        let mut a = All(Vec::new(), Gaps::default());
+        self.visit(sec, &mut a);
+        (a.0, a.1)
+    }
+
+    /// What beamsift does not check for this section at all (outside its
+    /// scope), in plain words.
+    pub fn not_checked(&self, p: &Properties, m: Option<&Material>) -> Vec<String> {
+        let m = m.unwrap_or(&self.material);
+        let mut v = vec![
+            "bearing and web crippling at supports and point loads, connections, vibration, fire resistance, durability, combined axial load and torsion".to_string(),
+        ];
+        if matches!(p.form, Form::WeldedI) {
+            v.push("welds between the plates, and stiffeners (webs taken as unstiffened)".into());
+        }
+        if m.kind == MaterialKind::Timber {
+            v.push("notches, holes, and the volume factor C_V of glulam (enter it in the adjustment factors)".into());
+        }
+        if self.criteria.long_term.is_none() {
+            v.push("long-term (creep) deflection: set checks.creep_factor to include it".into());
+        }
+        v
+    }
+
+    /// The assumptions a checker needs, for every output.
+    pub fn assumptions(&self) -> Vec<String> {
+        let c = &self.criteria;
+        let mut v = Vec::new();
+        match c.bracing {
+            Bracing::NotGiven => v.push("lateral bracing not given: read as braced at the supports only (conservative)".to_string()),
+            Bracing::Supports => v.push("laterally braced at the supports only".to_string()),
+            Bracing::Continuous => v.push(match c.braced_flange {
+                BracedFlange::Top => "top flange continuously braced; the bottom flange, in compression under hogging, is unbraced between supports".to_string(),
+                BracedFlange::Both => "both flanges continuously braced: no lateral instability".to_string(),
+            }),
+            Bracing::Spacing(s) => v.push(match c.braced_flange {
+                BracedFlange::Top => format!(
+                    "braces every {} restrain the top flange only; under hogging the bottom flange is unbraced between supports",
+                    crate::units::Show::Span.fmt(s, crate::units::System::Si)
+                ),
+                BracedFlange::Both => format!(
+                    "braces every {} restrain both flanges (or twist)",
+                    crate::units::Show::Span.fmt(s, crate::units::System::Si)
+                ),
+            }),
+        }
+        v.push("every support restrains the member laterally and against twist".into());
+        if c.braced_flange == BracedFlange::Top
+            && matches!(c.bracing, Bracing::Continuous | Bracing::Spacing(_))
+        {
+            v.push("bottom flange in compression (hogging) between supports: the whole span is one unbraced length with C_b = 1.0 (conservative; AISC 360-16 Commentary F1 gives higher values for a braced top flange, to be applied by hand)".into());
+        }
+        v.push(match c.load_height {
+            LoadHeight::ShearCentre => "load height not considered: loads taken at the shear centre (not destabilising), as AISC 360-16 F2–F5 assume; set load_height = \"top_flange\" for loads that move sideways with the top flange".into(),
+            LoadHeight::TopFlange => "destabilising loads on the top flange: effective lengths 1.2 × the unbraced length between restraints (from memory of BS 5950-1:2000 Table 13)".into(),
         });
-        let util = best.map(|b| b.utilisation).unwrap_or(0.0);
-        Summary {
-            utilisation: util,
-            governing: best,
-            passes: util <= 1.0,
-        }
-    }
-
-    /// Every check line of a section.
-    pub fn check_all(&self, sec: SectionInput<'_>) -> Vec<Item> {
-        let mut v = Vec::new();
-        self.visit(sec, |it| v.push(it));
-        v
-    }
-
-    /// What these checks leave out for this section, in plain words.
-    pub fn not_checked(&self, p: &Properties) -> Vec<String> {
-        let mut v = Vec::new();
-        match self.criteria.bracing {
-            Bracing::NotGiven => v.push(
-                "lateral stability (lateral-torsional buckling): no unbraced length was given"
-                    .to_string(),
-            ),
-            _ => {
-                if let Err(why) = ltb::Capacity::applicable(p, &self.material) {
-                    v.push(format!("lateral-torsional buckling: {why}"));
+        if self.demand.stretches.iter().any(|s| s.cantilever) {
+            v.push(format!(
+                "overhangs: the free-tip segment's effective length is {} × its length ({}), C_b = 1.0 (AISC 360-16 F1)",
+                crate::units::fmt_num(c.overhang_factor()),
+                if c.overhang_k.is_some() {
+                    "as given".to_string()
+                } else {
+                    "from memory of BS 5950-1:2000 Table 14, support continuous with lateral and torsional restraint, tip free".to_string()
                 }
-            }
+            ));
         }
-        if self.material.fv.is_none() {
-            v.push("shear: no allowable shear stress Fv was given".into());
-        } else if shear_factor(p, self.criteria.shear).is_none() {
-            v.push("shear: the section's web thickness or first moment Q is not known".into());
+        if !self.demand.springs.is_empty() {
+            v.push("spring supports: deflection limits measured from the chord of each span's displaced supports (the member's own deflection); the settlements are reported apart".into());
         }
-        v.push(
-            "bearing and web crippling at supports and point loads, connections, vibration, fire resistance, durability, combined axial load and torsion"
-                .into(),
-        );
-        v.push(
-            "long-term effects such as creep of timber, and load-duration or size factors: enter allowable stresses and limits that already include them"
-                .into(),
-        );
         v
+    }
+}
+
+/// The verdict from the worst evaluated line and the gaps.
+fn summarise(best: Option<Item>, gaps: Gaps) -> Summary {
+    let util = best.map(|b| b.utilisation).unwrap_or(0.0);
+    let verdict = if util > 1.0 || util.is_nan() {
+        Verdict::Fails
+    } else if !gaps.is_empty() || best.is_none() {
+        Verdict::NotVerified
+    } else {
+        Verdict::Passes
+    };
+    Summary {
+        utilisation: util,
+        governing: best,
+        verdict,
+        gaps,
+        passes: verdict == Verdict::Passes,
     }
 }
 
 /// Shear stress per unit shear force (1/mm²) for the chosen method, or
 /// None when the section lacks what the method needs.
-fn shear_factor(p: &Properties, method: ShearMethod) -> Option<f64> {
+pub fn shear_factor(p: &Properties, method: ShearMethod) -> Option<f64> {
     let vq = match (p.q_na, p.t_na) {
         (Some(q), Some(t)) if t > 0.0 => Some(q / (p.ix * t)),
         _ => None,
@@ -562,24 +1491,29 @@ fn shear_factor(p: &Properties, method: ShearMethod) -> Option<f64> {
     }
 }
 
+#[allow(clippy::too_many_arguments)]
 #[inline]
 fn item(
     kind: CheckKind,
     combo: usize,
     part: usize,
+    sense: Sense,
     x: f64,
     action: f64,
     demand: f64,
     capacity: f64,
+    aux: [f64; 2],
 ) -> Item {
     Item {
         kind,
         combo,
         part,
+        sense,
         x,
         action,
         demand,
         capacity,
         utilisation: demand / capacity,
+        aux,
     }
 }

@@ -137,14 +137,9 @@ fn materials(a: &FileArgs) -> Result<MaterialsFound> {
         }
         None => Ok((
             Material {
-                name: "unknown".into(),
-                e: 1.0,
-                fb_tension: 1.0,
-                fb_compression: 1.0,
-                fv: None,
-                fy: None,
                 // Unknown density: masses are taken from the rows only.
                 density: f64::NAN,
+                ..Material::allowable("unknown", 1.0, 1.0, None, 0.0)
             },
             Vec::new(),
             false,

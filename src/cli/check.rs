@@ -13,7 +13,8 @@ pub const EXAMPLES: &str = "Examples:
   beamsift check --job catalogs/demo-job.toml welded-i bf=200mm tf=12mm hw=400mm tw=8mm
   beamsift check --job job.toml --bracing 1.5m rolled-i d=300mm bf=150mm tf=10.7mm tw=7.1mm r=15mm --json
 
-Exit code 0 when every check passes, 1 when any fails, 2 for bad input.";
+Exit code 0 when the section passes, 1 when any check fails, 5 when it is not verified
+(a limit state that applies could not be evaluated), 2 for bad input.";
 
 #[derive(clap::Args, Debug)]
 pub struct Args {
@@ -38,7 +39,7 @@ pub fn run(a: Args, out: &Out) -> beamsift::Result<i32> {
     let props = shape.properties()?;
     let mass = props.mass_per_length(job.material.density);
     let prep = Prepared::new(&job.beam, job.material.clone(), job.criteria.clone())?;
-    let result = member::member_check(&job, &prep, &shape.describe(out.units), &props, mass);
+    let result = member::member_check(&job, &prep, &shape.describe(out.units), &props, mass, None);
     let doc = member::document(&job, &result, out.units);
     emit(out, &report::render(out.format, &result, &doc))?;
     if let Some(p) = &a.report {
@@ -52,7 +53,17 @@ pub fn run(a: Args, out: &Out) -> beamsift::Result<i32> {
             None,
             out.units,
             p,
+            None,
         )?;
     }
-    Ok(if result.passes { 0 } else { EXIT_FAILS })
+    Ok(verdict_code(result.verdict))
+}
+
+/// The exit code of a verdict.
+pub fn verdict_code(v: beamsift::check::Verdict) -> i32 {
+    match v {
+        beamsift::check::Verdict::Passes => 0,
+        beamsift::check::Verdict::Fails => EXIT_FAILS,
+        beamsift::check::Verdict::NotVerified => super::EXIT_NOT_VERIFIED,
+    }
 }

@@ -1,5 +1,13 @@
 //! The job, from a TOML file or from flags for the common single- and
 //! multi-span cases.
+//!
+//! One rule with `--job`: the options that describe the beam, its loads and
+//! its combinations (--span, --supports, --dead, --live, --snow,
+//! --dead-point, --live-point, --preset, --limit-live, --limit-total) are
+//! refused — the job file holds them; the options about the material and
+//! the checks (--E, --Fb, --Fv, --Fy, --Emin, --kind, --density, --bracing,
+//! --braced-flange, --load-height, --exclude, --no-self-weight) replace the
+//! job's values, and every output lists what came from the command line.
 
 use beamsift::beam::model::{Beam, Category, LoadKind};
 use beamsift::check::{Criteria, Material};
@@ -50,18 +58,35 @@ pub struct JobArgs {
     /// Density of the material, for self-weight (e.g. 7850kg/m3, 500kg/m3).
     #[arg(long, value_name = "DENSITY")]
     pub density: Option<String>,
+    /// Stability modulus of timber, for the beam stability factor (e.g. 4.4GPa).
+    #[arg(long = "Emin", value_name = "STRESS")]
+    pub e_min: Option<String>,
+    /// Kind of material: steel (AISC 360-16 limit states, needs --Fy), timber
+    /// (NDS, needs --Emin for stability) or other (default: steel when --Fy is given).
+    #[arg(long, value_name = "KIND")]
+    pub kind: Option<String>,
     /// Strength combinations preset (asce7-16-asd); default D and D+L+S.
     #[arg(long, value_name = "NAME")]
     pub preset: Option<String>,
-    /// Deflection limit under live (or snow) load alone.
-    #[arg(long = "limit-live", value_name = "L/n", default_value = "L/360")]
-    pub limit_live: String,
-    /// Deflection limit under the total load.
-    #[arg(long = "limit-total", value_name = "L/n", default_value = "L/240")]
-    pub limit_total: String,
-    /// Lateral bracing of the compression flange: continuous, supports, or a brace spacing.
+    /// Deflection limit under live (or snow) load alone [default: L/360].
+    #[arg(long = "limit-live", value_name = "L/n")]
+    pub limit_live: Option<String>,
+    /// Deflection limit under the total load [default: L/240].
+    #[arg(long = "limit-total", value_name = "L/n")]
+    pub limit_total: Option<String>,
+    /// Lateral bracing: continuous, supports, or a brace spacing (default: supports only).
     #[arg(long, value_name = "BRACING")]
     pub bracing: Option<String>,
+    /// Which flange the braces restrain: top (default) or both.
+    #[arg(long = "braced-flange", value_name = "FLANGE")]
+    pub braced_flange: Option<String>,
+    /// Where the loads act for lateral stability: shear_centre (default) or top_flange.
+    #[arg(long = "load-height", value_name = "HEIGHT")]
+    pub load_height: Option<String>,
+    /// Limit states checked by others, comma-separated: shear, deflection,
+    /// lateral_torsional_buckling, local_buckling (listed as excluded on every output).
+    #[arg(long, value_name = "LIST")]
+    pub exclude: Option<String>,
     /// Leave out the section's self-weight.
     #[arg(long = "no-self-weight")]
     pub no_self_weight: bool,
@@ -72,36 +97,121 @@ fn flag<T>(r: Result<T>, name: &str) -> Result<T> {
 }
 
 impl JobArgs {
-    fn any_beam_flag(&self) -> bool {
-        self.span.is_some()
-            || self.supports.is_some()
-            || self.dead.is_some()
-            || self.live.is_some()
-            || self.snow.is_some()
-            || !self.dead_point.is_empty()
-            || !self.live_point.is_empty()
+    /// The options that describe the beam, loads or combinations (refused
+    /// with --job), by name.
+    fn beam_flags(&self) -> Vec<&'static str> {
+        let mut v = Vec::new();
+        for (given, name) in [
+            (self.span.is_some(), "--span"),
+            (self.supports.is_some(), "--supports"),
+            (self.dead.is_some(), "--dead"),
+            (self.live.is_some(), "--live"),
+            (self.snow.is_some(), "--snow"),
+            (!self.dead_point.is_empty(), "--dead-point"),
+            (!self.live_point.is_empty(), "--live-point"),
+            (self.preset.is_some(), "--preset"),
+            (self.limit_live.is_some(), "--limit-live"),
+            (self.limit_total.is_some(), "--limit-total"),
+        ] {
+            if given {
+                v.push(name);
+            }
+        }
+        v
     }
 
     /// Build the job (reading the job file if one is named).
     pub fn load(&self) -> Result<Job> {
         if let Some(path) = &self.job {
-            if self.any_beam_flag() {
-                return Err(Error::msg(
-                    "give the beam either in a job file (--job) or by flags (--span, --dead, ...), not both",
-                ));
+            let refused = self.beam_flags();
+            if !refused.is_empty() {
+                return Err(Error::msg(format!(
+                    "{} describe(s) the beam, its loads or its combinations, which the job file holds: edit the job file, or give the beam by flags without --job",
+                    refused.join(", ")
+                )));
             }
             let shown = path.display().to_string();
             let text = beamsift::job::read_text(path, &shown)?;
             let mut job = job::from_toml(&text, &shown)?;
-            if let Some(b) = &self.bracing {
-                job.criteria.bracing = flag(job::parse_bracing(b), "--bracing")?;
-            }
-            if self.no_self_weight {
-                job.criteria.self_weight = false;
+            let grades = !job.grades.is_empty();
+            let overridden = self.apply_overrides(&mut job.material, &mut job.criteria)?;
+            if !overridden.is_empty() {
+                job.notes.push(format!(
+                    "from the command line, replacing the job file's values: {}{}",
+                    overridden.join(", "),
+                    if grades {
+                        " (the job's material only: catalogue grades keep their own values)"
+                    } else {
+                        ""
+                    }
+                ));
             }
             return Ok(job);
         }
         self.build_from_flags()
+    }
+
+    /// Apply the material and check options; returns what was set, in words.
+    fn apply_overrides(&self, m: &mut Material, c: &mut Criteria) -> Result<Vec<String>> {
+        let mut set = Vec::new();
+        let stress = |v: &Option<String>, name: &str| -> Result<Option<f64>> {
+            v.as_deref()
+                .map(|t| flag(units::parse(t, Dim::Stress), name))
+                .transpose()
+        };
+        if let Some(k) = &self.kind {
+            m.kind = flag(job::parse_kind(k), "--kind")?;
+            set.push(format!("--kind {k}"));
+        }
+        if let Some(v) = stress(&self.e, "--E")? {
+            m.e = v;
+            set.push(format!("--E {}", self.e.as_deref().unwrap_or("")));
+        }
+        if let Some(v) = stress(&self.fb, "--Fb")? {
+            m.fb_tension = Some(v);
+            m.fb_compression = Some(v);
+            set.push(format!("--Fb {}", self.fb.as_deref().unwrap_or("")));
+        }
+        if let Some(v) = stress(&self.fv, "--Fv")? {
+            m.fv = Some(v);
+            set.push(format!("--Fv {}", self.fv.as_deref().unwrap_or("")));
+        }
+        if let Some(v) = stress(&self.fy, "--Fy")? {
+            m.fy = Some(v);
+            set.push(format!("--Fy {}", self.fy.as_deref().unwrap_or("")));
+        }
+        if let Some(v) = stress(&self.e_min, "--Emin")? {
+            m.timber.e_min = Some(v);
+            set.push(format!("--Emin {}", self.e_min.as_deref().unwrap_or("")));
+        }
+        if let Some(t) = &self.density {
+            m.density = flag(units::parse(t, Dim::Density), "--density")?;
+            set.push(format!("--density {t}"));
+        }
+        if let Some(b) = &self.bracing {
+            c.bracing = flag(job::parse_bracing(b), "--bracing")?;
+            set.push(format!("--bracing {b}"));
+        }
+        if let Some(b) = &self.braced_flange {
+            c.braced_flange = flag(job::parse_braced_flange(b), "--braced-flange")?;
+            set.push(format!("--braced-flange {b}"));
+        }
+        if let Some(h) = &self.load_height {
+            c.load_height = flag(job::parse_load_height(h), "--load-height")?;
+            set.push(format!("--load-height {h}"));
+        }
+        if let Some(list) = &self.exclude {
+            for name in list.split(',').filter(|n| !n.trim().is_empty()) {
+                flag(c.exclude.add(name), "--exclude")?;
+            }
+            set.push(format!("--exclude {list}"));
+        }
+        if self.no_self_weight {
+            c.self_weight = false;
+            set.push("--no-self-weight".into());
+        }
+        flag(m.validate(), "material")?;
+        Ok(set)
     }
 
     fn build_from_flags(&self) -> Result<Job> {
@@ -178,8 +288,14 @@ impl JobArgs {
         for (i, l) in beam.loads.iter_mut().enumerate() {
             l.label = format!("load {}", i + 1);
         }
-        let n_live = flag(job::parse_ratio(&self.limit_live), "--limit-live")?;
-        let n_total = flag(job::parse_ratio(&self.limit_total), "--limit-total")?;
+        let n_live = flag(
+            job::parse_ratio(self.limit_live.as_deref().unwrap_or("L/360")),
+            "--limit-live",
+        )?;
+        let n_total = flag(
+            job::parse_ratio(self.limit_total.as_deref().unwrap_or("L/240")),
+            "--limit-total",
+        )?;
         flag(
             job::standard_combinations(&mut beam, self.preset.as_deref(), None, n_live, n_total),
             "--preset",
@@ -189,13 +305,29 @@ impl JobArgs {
                 .map(|t| flag(units::parse(t, Dim::Stress), name))
                 .transpose()
         };
+        let mut notes = Vec::new();
         let e = stress(&self.e, "--E")?.ok_or_else(|| {
             Error::msg("missing the modulus of elasticity: add --E (e.g. --E 200GPa)")
         })?;
-        let fb = stress(&self.fb, "--Fb")?.ok_or_else(|| {
-            Error::msg("missing the allowable bending stress: add --Fb (e.g. --Fb 165MPa)")
-        })?;
-        let mut notes = Vec::new();
+        let fy = stress(&self.fy, "--Fy")?;
+        let kind = match &self.kind {
+            Some(k) => flag(job::parse_kind(k), "--kind")?,
+            None if fy.is_some() => {
+                notes.push("no --kind: taken as steel because --Fy is given (AISC 360-16 limit states apply)".to_string());
+                beamsift::check::MaterialKind::Steel
+            }
+            None if self.e_min.is_some() => beamsift::check::MaterialKind::Timber,
+            None => {
+                notes.push("no --kind (steel, timber or other): no stability or local buckling method applies, so those are not verified unless excluded or not applicable".to_string());
+                beamsift::check::MaterialKind::Unspecified
+            }
+        };
+        let fb = stress(&self.fb, "--Fb")?;
+        if fb.is_none() && !(kind == beamsift::check::MaterialKind::Steel && fy.is_some()) {
+            return Err(Error::msg(
+                "missing the allowable bending stress: add --Fb (e.g. --Fb 165MPa); steel with --Fy may omit it",
+            ));
+        }
         let density = match &self.density {
             Some(t) => flag(units::parse(t, Dim::Density), "--density")?,
             None => {
@@ -205,20 +337,35 @@ impl JobArgs {
                 0.0
             }
         };
-        let material = Material {
+        let mut material = Material {
             name: "as given by flags".into(),
+            kind,
             e,
             fb_tension: fb,
             fb_compression: fb,
             fv: stress(&self.fv, "--Fv")?,
-            fy: stress(&self.fy, "--Fy")?,
+            fy,
             density,
+            timber: Default::default(),
         };
+        material.timber.e_min = stress(&self.e_min, "--Emin")?;
         let mut criteria = Criteria::default();
         if let Some(b) = &self.bracing {
             criteria.bracing = flag(job::parse_bracing(b), "--bracing")?;
         }
+        if let Some(b) = &self.braced_flange {
+            criteria.braced_flange = flag(job::parse_braced_flange(b), "--braced-flange")?;
+        }
+        if let Some(h) = &self.load_height {
+            criteria.load_height = flag(job::parse_load_height(h), "--load-height")?;
+        }
+        if let Some(list) = &self.exclude {
+            for name in list.split(',').filter(|n| !n.trim().is_empty()) {
+                flag(criteria.exclude.add(name), "--exclude")?;
+            }
+        }
         criteria.self_weight = !self.no_self_weight;
+        flag(material.validate(), "material")?;
         beam.validate()?;
         Ok(Job {
             title: "beam from flags".into(),

@@ -22,6 +22,9 @@ use clap::{Parser, Subcommand};
 
 /// Exit code when a check or a selection finds no passing section.
 pub const EXIT_FAILS: i32 = 1;
+/// Exit code when a checked section is not verified: nothing evaluated
+/// fails, but a limit state that applies could not be evaluated.
+pub const EXIT_NOT_VERIFIED: i32 = 5;
 
 #[derive(Parser, Debug)]
 #[command(
@@ -36,7 +39,8 @@ beamsift is an aid for a competent person: verify its results against the \
 governing local code and licensed practice.",
     after_help = "Start with the bundled (invented) demo:\n  beamsift select --job catalogs/demo-job.toml --catalog catalogs/demo-steel.csv\n\n\
 Exit codes: 0 done / passes, 1 fails or nothing passes, 2 bad input, \
-3 file error, 4 internal error."
+3 file error, 4 internal error, 5 not verified (check, report: a limit state \
+that applies could not be evaluated)."
 )]
 pub struct Cli {
     #[command(flatten)]

@@ -156,22 +156,27 @@ fn variant(prob: &Problem, prep: &Prepared, x: &[f64], sys: units::System) -> Va
         Some(p) => {
             let s = prep.check(SectionInput::new(p, mass));
             let mut by: Vec<(String, f64)> = Vec::new();
-            prep.visit(SectionInput::new(p, mass), |it| {
-                let k = it.kind.short().to_string();
-                let k = if k.starts_with("bending") {
-                    "bending".to_string()
-                } else {
-                    k
-                };
-                match by.iter_mut().find(|(n, _)| *n == k) {
-                    Some(e) => e.1 = e.1.max(it.utilisation),
-                    None => by.push((k, it.utilisation)),
-                }
-            });
+            prep.visit(
+                SectionInput::new(p, mass),
+                &mut |it: beamsift::check::Item| {
+                    let k = match it.kind.group() {
+                        beamsift::check::Group::Bending => "bending",
+                        beamsift::check::Group::Shear => "shear",
+                        beamsift::check::Group::LocalBuckling => "local buckling",
+                        beamsift::check::Group::LateralTorsional => "lateral-torsional buckling",
+                        beamsift::check::Group::Deflection => "deflection",
+                    }
+                    .to_string();
+                    match by.iter_mut().find(|(n, _)| *n == k) {
+                        Some(e) => e.1 = e.1.max(it.utilisation),
+                        None => by.push((k, it.utilisation)),
+                    }
+                },
+            );
             (
                 s.utilisation,
                 s.governing
-                    .map(|g| member::line(prep, &g))
+                    .map(|g| member::line(prep, SectionInput::new(p, mass), &g))
                     .map(|l| format!("{} under {}", l.label, l.combination)),
                 by,
             )
@@ -271,10 +276,13 @@ fn sensitivities(
                     None,
                 )
             }
-            Constraint::Bending | Constraint::Shear | Constraint::LateralTorsional => {
+            Constraint::Bending
+            | Constraint::Shear
+            | Constraint::LocalBuckling
+            | Constraint::LateralTorsional => {
                 let mut m = prep.material.clone();
-                m.fb_tension *= 1.05;
-                m.fb_compression *= 1.05;
+                m.fb_tension = m.fb_tension.map(|v| v * 1.05);
+                m.fb_compression = m.fb_compression.map(|v| v * 1.05);
                 m.fv = m.fv.map(|v| v * 1.05);
                 m.fy = m.fy.map(|v| v * 1.05);
                 let text = format!(
@@ -451,7 +459,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         evaluations: cont.evaluations,
         grid_points_checked: disc.evaluated,
         whole_grid: disc.whole_grid,
-        not_checked: prep.not_checked(&d_props),
+        not_checked: prep.not_checked(&d_props, None),
         caution: report::CAUTION,
     };
     // Document.

@@ -74,13 +74,14 @@ pub fn write(
     alternatives: Option<Table>,
     sys: System,
     prefix: &Path,
-) -> Result<(PathBuf, PathBuf)> {
-    let r = member::member_check(job, prep, name, props, mass);
+    material: Option<&beamsift::check::Material>,
+) -> Result<(PathBuf, PathBuf, beamsift::check::Verdict)> {
+    let r = member::member_check(job, prep, name, props, mass, material);
     let s = sheet::build(job, prep, &r, source, alternatives, sys);
     let (md, html) = report_paths(prefix);
     write_atomic(&md, sheet::markdown(&s).as_bytes())?;
     write_atomic(&html, sheet::html(&s).as_bytes())?;
-    Ok((md, html))
+    Ok((md, html, r.verdict))
 }
 
 /// A table of alternatives from a scan.
@@ -116,7 +117,13 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     let job = a.job.load()?;
     let prep = prepare(&job)?;
     let sys = out.units;
-    let (name, props, mass, source, alts) = if let Some((fam, dims)) = a.shape.split_first() {
+    let mats = beamsift::catalog::Materials {
+        base: &job.material,
+        grades: &job.grades,
+    };
+    let (name, props, mass, source, alts, row_mat) = if let Some((fam, dims)) =
+        a.shape.split_first()
+    {
         if !a.catalog.is_empty() {
             return Err(Error::msg("give either a shape or --catalog, not both"));
         }
@@ -128,6 +135,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
             p,
             m,
             "properties computed from the dimensions (section module)".to_string(),
+            None,
             None,
         )
     } else {
@@ -161,6 +169,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
                 .items
                 .iter()
                 .chain(sel.near_misses.items.iter())
+                .chain(sel.unverified.items.iter())
                 .find(|c| &c.name == n)
                 .cloned(),
             None => sel.lists[0].items.first().cloned(),
@@ -184,16 +193,36 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         } else {
             None
         };
-        (c.name.clone(), c.properties.clone(), c.mass, src, alts)
+        (
+            c.name.clone(),
+            c.properties.clone(),
+            c.mass,
+            src,
+            alts,
+            Some(c.material.clone()),
+        )
     };
-    let (md, html) = write(&job, &prep, &name, &props, mass, &source, alts, sys, &a.to)?;
+    let row_material = row_mat.as_ref().map(|m| mats.get(m).clone());
+    let (md, html, verdict) = write(
+        &job,
+        &prep,
+        &name,
+        &props,
+        mass,
+        &source,
+        alts,
+        sys,
+        &a.to,
+        row_material.as_ref(),
+    )?;
     emit(
         out,
         &format!(
-            "Wrote {} and {} for {name}.\n",
+            "Wrote {} and {} for {name}: {}.\n",
             md.display(),
-            html.display()
+            html.display(),
+            verdict.word()
         ),
     )?;
-    Ok(0)
+    Ok(super::check::verdict_code(verdict))
 }

@@ -42,6 +42,10 @@ pub struct Args {
     /// How many nearest misses to list.
     #[arg(long, default_value_t = 5)]
     pub near: usize,
+    /// Rank sections that are not verified (a limit state could not be
+    /// evaluated) with the passing ones, marked on every line.
+    #[arg(long = "include-unverified")]
+    pub include_unverified: bool,
     /// Also write a calculation sheet for the best section: PREFIX.md and PREFIX.html.
     #[arg(long, value_name = "PREFIX")]
     pub report: Option<std::path::PathBuf>,
@@ -85,10 +89,15 @@ struct SelectResult<'a> {
     passing: Vec<RankedRow>,
     pareto: Vec<RankedRow>,
     near_misses: Vec<RankedRow>,
+    /// Rows that are not verified, lightest first (never ranked with the
+    /// passing ones unless --include-unverified).
+    not_verified: Vec<RankedRow>,
     counts: &'a search::Counts,
     skipped_rows: &'a [String],
     currency: String,
-    not_checked: Vec<String>,
+    excluded: Vec<String>,
+    assumptions: Vec<String>,
+    notes: Vec<String>,
     caution: &'static str,
 }
 
@@ -97,14 +106,11 @@ fn ranked(prep: &Prepared, sel: &Selection, list: &[Candidate]) -> Vec<RankedRow
         .enumerate()
         .map(|(i, c)| {
             let (check, combo, place) = match &c.governing {
-                Some(g) => {
-                    let l = member::line(prep, g);
-                    (
-                        g.kind.short().to_string(),
-                        l.combination,
-                        format!("{}, {}", l.part, format_x(l.x)),
-                    )
-                }
+                Some(g) => (
+                    g.kind.short().to_string(),
+                    prep.demand.combos[g.combo].name.clone(),
+                    format!("{}, {}", member::part_of(prep, g), format_x(g.x)),
+                ),
                 None => (String::new(), String::new(), String::new()),
             };
             RankedRow {
@@ -153,11 +159,15 @@ pub(crate) fn run_scan(
     Ok((sel, currency(job, &currencies)))
 }
 
-fn row_cells(r: &RankedRow, sys: System) -> Vec<String> {
+fn row_cells(r: &RankedRow, sys: System, legend: &mut Legend) -> Vec<String> {
     let c = &r.candidate;
     vec![
         r.rank.to_string(),
-        c.name.clone(),
+        if c.verdict == beamsift::check::Verdict::NotVerified {
+            format!("{} (NOT VERIFIED)", c.name)
+        } else {
+            c.name.clone()
+        },
         Show::Mass.fixed(c.mass, sys, 1),
         Show::Dimension.num(c.depth, sys),
         format!("{:.3}", c.utilisation),
@@ -172,7 +182,40 @@ fn row_cells(r: &RankedRow, sys: System) -> Vec<String> {
         } else {
             String::new()
         },
+        legend.keys(&c.not_checked),
     ]
+}
+
+/// Short keys for the lists of what is not checked, with their legend: each
+/// row of a table carries its own list, printed as keys.
+#[derive(Default)]
+pub(crate) struct Legend {
+    items: Vec<String>,
+}
+
+impl Legend {
+    pub(crate) fn keys(&mut self, list: &[String]) -> String {
+        list.iter()
+            .map(|s| {
+                let i = match self.items.iter().position(|x| x == s) {
+                    Some(i) => i,
+                    None => {
+                        self.items.push(s.clone());
+                        self.items.len() - 1
+                    }
+                };
+                ((b'a' + (i % 26) as u8) as char).to_string()
+            })
+            .collect::<Vec<_>>()
+            .join(" ")
+    }
+    pub(crate) fn into_list(self) -> Vec<String> {
+        self.items
+            .into_iter()
+            .enumerate()
+            .map(|(i, s)| format!("{}: {s}", (b'a' + (i % 26) as u8) as char))
+            .collect()
+    }
 }
 
 /// Cost per display length (m or ft) from cost per mm.
@@ -198,15 +241,16 @@ fn headers(sys: System, cur: &str) -> Vec<(String, Align)> {
             Align::Right,
         ),
         ("Mass–depth front".into(), Align::Left),
+        ("Not checked".into(), Align::Left),
     ]
 }
 
-fn table(title: &str, rows: &[RankedRow], sys: System, cur: &str) -> Table {
+fn table(title: &str, rows: &[RankedRow], sys: System, cur: &str, legend: &mut Legend) -> Table {
     let hs = headers(sys, cur);
     let refs: Vec<(&str, Align)> = hs.iter().map(|(h, a)| (h.as_str(), *a)).collect();
     let mut t = Table::new(title, &refs);
     for r in rows {
-        t.row(row_cells(r, sys));
+        t.row(row_cells(r, sys, legend));
     }
     t
 }
@@ -214,12 +258,13 @@ fn table(title: &str, rows: &[RankedRow], sys: System, cur: &str) -> Table {
 fn counts_line(sel: &Selection) -> String {
     let c = &sel.counts;
     let mut s = format!(
-        "{} row(s) read from {}: {} checked, {} pass, {} fail",
+        "{} row(s) read from {}: {} checked, {} pass, {} fail, {} not verified",
         c.rows,
         sel.files.join(", "),
         c.checked,
         c.passing,
-        c.failing
+        c.failing,
+        c.not_verified
     );
     if c.filtered > 0 {
         s.push_str(&format!(", {} left out by the filters", c.filtered));
@@ -245,6 +290,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         near: a.near,
         filters: a.cat.filters()?,
         skip_bad_rows: a.cat.skip_bad_rows,
+        include_unverified: a.include_unverified,
         ..ScanOptions::default()
     };
     let (sel, cur) = run_scan(&job, &prep, &a.cat, &opts)?;
@@ -252,22 +298,23 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     let passing = ranked(&prep, &sel, &sel.lists[0].items);
     let pareto = ranked(&prep, &sel, &sel.pareto);
     let near = ranked(&prep, &sel, &sel.near_misses.items);
-    let not_checked = match sel.lists[0].items.first().or(sel.near_misses.items.first()) {
-        Some(c) => prep.not_checked(&c.properties),
-        None => Vec::new(),
-    };
+    let not_verified = ranked(&prep, &sel, &sel.unverified.items);
     let result = SelectResult {
         title: job.title.clone(),
         rank: a.rank,
         passing,
         pareto,
         near_misses: near,
+        not_verified,
         counts: &sel.counts,
         skipped_rows: &sel.skipped,
         currency: cur.clone(),
-        not_checked,
+        excluded: prep.criteria.exclude.list(),
+        assumptions: prep.assumptions(),
+        notes: job.notes.clone(),
         caution: report::CAUTION,
     };
+    let mut legend = Legend::default();
     let mut doc = Document::new(format!("Selection for {}", job.title));
     for t in member::job_tables(&job, sys) {
         doc.table(t);
@@ -279,13 +326,15 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         Rank::Depth => "shallowest first",
         Rank::Utilisation => "most utilised first",
     };
-    if result.passing.is_empty() {
+    let passing_count = result.passing.iter().filter(|r| r.candidate.passes).count();
+    if passing_count == 0 {
         doc.para("No section passes. The nearest misses, with what governs and by how much:");
         let mut t = table(
             "Nearest misses (lowest utilisation first)",
             &result.near_misses,
             sys,
             &cur,
+            &mut legend,
         );
         t.headers[9] = "Over by".into();
         for (row, r) in t.rows.iter_mut().zip(&result.near_misses) {
@@ -294,12 +343,17 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         doc.table(t);
     } else {
         doc.table(table(
-            &format!("Passing sections, {rank_word}"),
+            &if a.include_unverified {
+                format!("Passing and NOT VERIFIED sections (--include-unverified), {rank_word}")
+            } else {
+                format!("Passing sections, {rank_word}")
+            },
             &result.passing,
             sys,
             &cur,
+            &mut legend,
         ));
-        if let Some(best) = result.passing.first() {
+        if let Some(best) = result.passing.iter().find(|r| r.candidate.passes) {
             doc.para(format!(
                 "Best: {} — {} {}, utilisation {:.3} ({} under {}, {}), margin {:.1} %.",
                 best.candidate.name,
@@ -331,19 +385,69 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
             front,
         );
     }
+    if !result.not_verified.is_empty() && !a.include_unverified {
+        not_verified_table(&mut doc, &result.not_verified, sys);
+    }
     if !sel.skipped.is_empty() {
         doc.list(
             "Skipped rows:",
             sel.skipped.iter().take(10).cloned().collect(),
         );
     }
-    doc.caution(result.not_checked.clone());
+    finish_doc(
+        &mut doc,
+        &result.excluded,
+        &result.assumptions,
+        &result.notes,
+        legend,
+    );
     emit(out, &report::render(out.format, &result, &doc))?;
-    Ok(if result.passing.is_empty() {
-        EXIT_FAILS
-    } else {
-        0
-    })
+    Ok(if passing_count == 0 { EXIT_FAILS } else { 0 })
+}
+
+/// The not-verified rows, each with its reasons (never ranked with the
+/// passing ones).
+pub(crate) fn not_verified_table(doc: &mut Document, rows: &[RankedRow], sys: System) {
+    let mut t = Table::new(
+        "Not verified (nothing evaluated fails, but a limit state that applies could not be evaluated; not ranked)",
+        &[
+            ("Section", Align::Left),
+            (&format!("Mass [{}]", Show::Mass.label(sys)), Align::Right),
+            ("Utilisation of what was evaluated", Align::Right),
+            ("Not verified", Align::Left),
+        ],
+    );
+    for r in rows {
+        t.row(vec![
+            r.candidate.name.clone(),
+            Show::Mass.fixed(r.candidate.mass, sys, 1),
+            format!("{:.3}", r.candidate.utilisation),
+            r.candidate.not_verified.join("; "),
+        ]);
+    }
+    doc.table(t);
+}
+
+/// The end of every selection-like document: exclusions, assumptions,
+/// notes, the legend of what is not checked, and the caution.
+pub(crate) fn finish_doc(
+    doc: &mut Document,
+    excluded: &[String],
+    assumptions: &[String],
+    notes: &[String],
+    legend: Legend,
+) {
+    if !excluded.is_empty() {
+        doc.list(
+            "Excluded by the user (not checked, by choice):",
+            excluded.to_vec(),
+        );
+    }
+    doc.list("Assumptions:", assumptions.to_vec());
+    if !notes.is_empty() {
+        doc.list("Notes:", notes.to_vec());
+    }
+    doc.caution(legend.into_list());
 }
 
 #[derive(Serialize)]
@@ -419,6 +523,7 @@ pub fn run_shortlist(a: ShortlistArgs, out: &Out) -> Result<i32> {
         Show::Span.fmt(total_len, sys),
         counts_line(&sel)
     ));
+    let mut legend = Legend::default();
     let w = if sys == System::Si { "kg" } else { "lb" };
     let wf = if sys == System::Si {
         1.0
@@ -448,6 +553,7 @@ pub fn run_shortlist(a: ShortlistArgs, out: &Out) -> Result<i32> {
                 (&format!("Total mass [{w}]"), Align::Right),
                 (&format!("Total cost [{cur}]"), Align::Right),
                 ("Mass–depth front", Align::Left),
+                ("Not checked", Align::Left),
             ],
         );
         for p in list {
@@ -471,6 +577,7 @@ pub fn run_shortlist(a: ShortlistArgs, out: &Out) -> Result<i32> {
                 } else {
                     String::new()
                 },
+                legend.keys(&c.not_checked),
             ]);
         }
         doc.table(t);
@@ -478,12 +585,17 @@ pub fn run_shortlist(a: ShortlistArgs, out: &Out) -> Result<i32> {
     if result.by_mass.is_empty() {
         doc.para("No section passes: run `beamsift select` to see the nearest misses.");
     }
-    let not_checked = sel.lists[1]
-        .items
-        .first()
-        .map(|c| prep.not_checked(&c.properties))
-        .unwrap_or_default();
-    doc.caution(not_checked);
+    let unverified = ranked(&prep, &sel, &sel.unverified.items);
+    if !unverified.is_empty() {
+        not_verified_table(&mut doc, &unverified, sys);
+    }
+    finish_doc(
+        &mut doc,
+        &prep.criteria.exclude.list(),
+        &prep.assumptions(),
+        &job.notes,
+        legend,
+    );
     emit(out, &report::render(out.format, &result, &doc))?;
     Ok(if result.by_mass.is_empty() {
         EXIT_FAILS

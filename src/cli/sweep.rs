@@ -93,7 +93,9 @@ fn short(kind: Option<beamsift::check::CheckKind>) -> &'static str {
         Some(
             BendingSaggingTop | BendingSaggingBottom | BendingHoggingTop | BendingHoggingBottom,
         ) => "M",
-        Some(Shear) => "V",
+        Some(Shear | WebShear) => "V",
+        Some(Yielding | TensionFlangeYielding) => "M",
+        Some(FlangeLocalBuckling | WebLocalBuckling) => "LB",
         Some(LateralTorsional) => "LTB",
         Some(Deflection) => "δ",
         None => "",
@@ -109,6 +111,9 @@ struct LightestOut {
     mass: Option<f64>,
     utilisation: Option<f64>,
     governing: Option<beamsift::check::CheckKind>,
+    /// Lighter rows not verified at this span (never taken as passing).
+    lighter_not_verified: u64,
+    not_verified_reasons: Vec<String>,
     /// Parametric optimum at this span (area mm², description).
     optimum: Option<(f64, String)>,
 }
@@ -208,6 +213,8 @@ fn run_lightest(a: LightestArgs, out: &Out) -> Result<i32> {
             mass: f.row.map(|j| rows[j].mass),
             utilisation: f.utilisation,
             governing: f.governing,
+            lighter_not_verified: f.lighter_not_verified,
+            not_verified_reasons: f.not_verified_reasons.clone(),
             optimum: o,
         })
         .collect();
@@ -245,6 +252,7 @@ fn run_lightest(a: LightestArgs, out: &Out) -> Result<i32> {
         (format!("Mass [{}]", Show::Mass.label(sys)), Align::Right),
         ("Utilisation".to_string(), Align::Right),
         ("Governed by".to_string(), Align::Left),
+        ("Lighter, not verified".to_string(), Align::Right),
     ];
     if a.optimise.is_some() {
         hs.push((
@@ -268,6 +276,7 @@ fn run_lightest(a: LightestArgs, out: &Out) -> Result<i32> {
             r.governing
                 .map(|g| g.short().to_string())
                 .unwrap_or_default(),
+            r.lighter_not_verified.to_string(),
         ];
         if a.optimise.is_some() {
             row.push(
@@ -285,9 +294,15 @@ fn run_lightest(a: LightestArgs, out: &Out) -> Result<i32> {
         doc.para(format!("Chart written to {}.", p.display()));
     }
     doc.para("Each span scales the job's geometry (spans and load positions) so the longest span equals it; load intensities are as given.");
+    if let Some(r) = result.rows.iter().find(|r| r.lighter_not_verified > 0) {
+        doc.list(
+            "Lighter sections that are not verified were skipped (a limit state that applies could not be evaluated), for example:",
+            r.not_verified_reasons.clone(),
+        );
+    }
     let nc = rows.first().map(|r| {
         Prepared::new(&job.beam, job.material.clone(), job.criteria.clone())
-            .map(|p| p.not_checked(&r.properties))
+            .map(|p| p.not_checked(&r.properties, Some(mats.get(&r.material))))
             .unwrap_or_default()
     });
     doc.caution(nc.unwrap_or_default());
@@ -448,12 +463,27 @@ fn run_table(a: TableArgs, out: &Out) -> Result<i32> {
         for c in &r.cells {
             row.push(match c.span {
                 Some(s) => format!("{} {}", Show::Span.fixed(s, sys, 2), short(c.governing)),
+                None if !c.not_verified.is_empty() => "not verified".into(),
                 None => "—".into(),
             });
         }
         t.row(row);
     }
     doc.table(t);
+    if let Some(r) = result
+        .rows
+        .iter()
+        .find(|r| r.cells.iter().any(|c| !c.not_verified.is_empty()))
+    {
+        let c = r.cells.iter().find(|c| !c.not_verified.is_empty());
+        doc.list(
+            format!(
+                "\"not verified\": a limit state that applies cannot be evaluated, e.g. for {}:",
+                r.section
+            ),
+            c.map(|c| c.not_verified.clone()).unwrap_or_default(),
+        );
+    }
     let methods: Vec<Method> = result
         .rows
         .iter()
@@ -479,7 +509,7 @@ fn run_table(a: TableArgs, out: &Out) -> Result<i32> {
     }
     let nc = rows.first().map(|r| {
         Prepared::new(&job.beam, job.material.clone(), job.criteria.clone())
-            .map(|p| p.not_checked(&r.properties))
+            .map(|p| p.not_checked(&r.properties, Some(mats.get(&r.material))))
             .unwrap_or_default()
     });
     doc.caution(nc.unwrap_or_default());

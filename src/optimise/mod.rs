@@ -24,7 +24,7 @@
 
 pub mod discrete;
 
-use crate::check::{CheckKind, Prepared, SectionInput};
+use crate::check::{Group, Prepared, SectionInput};
 use crate::error::{Error, Result};
 use crate::section::Shape;
 use argmin::core::{CostFunction, Executor, State};
@@ -117,8 +117,11 @@ pub enum Objective {
 pub enum Constraint {
     Bending,
     Shear,
+    LocalBuckling,
     LateralTorsional,
     Deflection,
+    /// A limit state that applies could not be evaluated.
+    NotVerified,
     MaxDepth,
     MinDepth,
     /// d/b ≤ k.
@@ -137,8 +140,12 @@ impl Constraint {
     pub fn describe(self, vars: &[&str]) -> String {
         match self {
             Constraint::Bending => "bending stress".into(),
-            Constraint::Shear => "shear stress".into(),
-            Constraint::LateralTorsional => "lateral-torsional buckling".into(),
+            Constraint::Shear => "shear".into(),
+            Constraint::LocalBuckling => "local buckling".into(),
+            Constraint::NotVerified => {
+                "every applicable limit state evaluated (not verified otherwise)".into()
+            }
+            Constraint::LateralTorsional => "lateral-torsional buckling / lateral stability".into(),
             Constraint::Deflection => "deflection limit".into(),
             Constraint::MaxDepth => "maximum depth".into(),
             Constraint::MinDepth => "minimum depth".into(),
@@ -156,8 +163,10 @@ impl Constraint {
             self,
             Constraint::Bending
                 | Constraint::Shear
+                | Constraint::LocalBuckling
                 | Constraint::LateralTorsional
                 | Constraint::Deflection
+                | Constraint::NotVerified
         )
     }
 }
@@ -266,21 +275,36 @@ impl Problem {
         let p = shape.properties().ok()?;
         let mat = &prep.material;
         let mass = p.mass_per_length(mat.density);
-        let mut worst = [0.0f64; 4];
-        prep.visit(SectionInput::new(&p, mass), |it| {
-            let k = match it.kind {
-                CheckKind::Shear => 1,
-                CheckKind::LateralTorsional => 2,
-                CheckKind::Deflection => 3,
-                _ => 0,
-            };
-            worst[k] = worst[k].max(it.utilisation);
-        });
+        // The exact piecewise capacities of every regime enter the
+        // constraints (continuous across regime boundaries in AISC 360-16
+        // and NDS); a limit state that applies but cannot be evaluated
+        // makes the point infeasible (g = 1), never slack.
+        struct Worst([f64; 5], bool);
+        impl crate::check::Sink for Worst {
+            fn item(&mut self, it: crate::check::Item) {
+                let k = match it.kind.group() {
+                    Group::Bending => 0,
+                    Group::Shear => 1,
+                    Group::LocalBuckling => 2,
+                    Group::LateralTorsional => 3,
+                    Group::Deflection => 4,
+                };
+                self.0[k] = self.0[k].max(it.utilisation);
+            }
+            fn gap(&mut self, _g: crate::check::Gap) {
+                self.1 = true;
+            }
+        }
+        let mut w = Worst([0.0; 5], false);
+        prep.visit(SectionInput::new(&p, mass), &mut w);
+        let worst = w.0;
         let mut g = vec![
             (Constraint::Bending, worst[0] - 1.0),
             (Constraint::Shear, worst[1] - 1.0),
-            (Constraint::LateralTorsional, worst[2] - 1.0),
-            (Constraint::Deflection, worst[3] - 1.0),
+            (Constraint::LocalBuckling, worst[2] - 1.0),
+            (Constraint::LateralTorsional, worst[3] - 1.0),
+            (Constraint::Deflection, worst[4] - 1.0),
+            (Constraint::NotVerified, if w.1 { 1.0 } else { -1.0 }),
         ];
         let depth = shape.depth();
         if let Some(m) = self.max_depth {

@@ -5,13 +5,13 @@
 //! and HTML renderers (`sheet`) only print it.
 
 use super::chart;
-use super::member::{self, MemberCheck};
+use super::member::MemberCheck;
 use super::{Align, Table};
 use crate::beam::demand::Quantity;
 use crate::beam::model::ComboKind;
-use crate::check::{CheckKind, Prepared, ShearMethod, ltb};
+use crate::check::{CheckKind, Prepared};
 use crate::job::Job;
-use crate::units::{self, Show, System, fmt_num};
+use crate::units::{Show, System};
 use serde::Serialize;
 
 /// One check, written out.
@@ -49,11 +49,19 @@ pub struct Sheet {
     pub alternatives: Option<TableOut>,
     pub methods: Vec<String>,
     pub assumptions: Vec<String>,
+    pub not_verified: Vec<String>,
+    pub excluded: Vec<String>,
     pub not_checked: Vec<String>,
     pub notes: Vec<String>,
     pub caution: &'static str,
     pub generator: String,
 }
+
+/// The three verdicts and their exit codes, in words (for every sheet).
+pub const VERDICTS: &str = "Verdicts: PASSES — every limit state that applies was evaluated by the method stated and is within its capacity (exit code 0); \
+FAILS — a limit state evaluated exceeds its capacity (exit code 1); NOT VERIFIED — nothing evaluated fails, but a limit state that applies \
+could not be evaluated (a missing input, a shape outside a method's range, no method for the material): this is not a pass (exit code 5). \
+A limit state the user excluded is listed as excluded, by choice.";
 
 /// A table in the sheet (serialisable form of `Table`).
 #[derive(Clone, Debug, Serialize)]
@@ -75,219 +83,45 @@ impl From<Table> for TableOut {
     }
 }
 
-/// Moment in "base" units for a substitution line: SI N·mm with ×10⁶, US kip·in.
-fn moment_base(m: f64, sys: System) -> String {
-    match sys {
-        System::Si => format!("{}×10⁶ N·mm", fmt_num(m / 1e6)),
-        System::Us => format!(
-            "{} kip·in",
-            fmt_num(m / (units::N_PER_LBF * 1e3 * units::MM_PER_IN))
-        ),
-    }
-}
-
-fn force_base(v: f64, sys: System) -> String {
-    match sys {
-        System::Si => format!("{}×10³ N", fmt_num(v / 1e3)),
-        System::Us => format!("{} kip", fmt_num(v / (units::N_PER_LBF * 1e3))),
-    }
-}
-
-fn modulus_base(s: f64, sys: System) -> String {
-    match sys {
-        System::Si => format!("{}×10³ mm³", fmt_num(s / 1e3)),
-        System::Us => format!("{} in³", fmt_num(s / units::MM_PER_IN.powi(3))),
-    }
-}
-
-fn inertia_base(i: f64, sys: System) -> String {
-    match sys {
-        System::Si => format!("{}×10⁶ mm⁴", fmt_num(i / 1e6)),
-        System::Us => format!("{} in⁴", fmt_num(i / units::MM_PER_IN.powi(4))),
-    }
-}
-
-fn stress(v: f64, sys: System) -> String {
-    Show::Stress.fmt(v, sys)
-}
-
-fn len(v: f64, sys: System) -> String {
-    Show::Dimension.fmt(v, sys)
-}
-
-/// Write out every check line of a member check.
-pub fn written_checks(prep: &Prepared, r: &MemberCheck, sys: System) -> Vec<WrittenCheck> {
-    let p = &r.properties;
-    let m = &prep.material;
-    let items = prep.check_all(crate::check::SectionInput::new(p, r.mass_per_length));
-    items
+/// Write out every check line of a member check (from the working the
+/// library attached to each line).
+pub fn written_checks(r: &MemberCheck, sys: System) -> Vec<WrittenCheck> {
+    r.lines
         .iter()
-        .map(|it| {
-            let l = member::line(prep, it);
-            let location = match it.kind {
+        .map(|l| {
+            let location = match l.check {
                 CheckKind::LateralTorsional => l.part.clone(),
                 _ => format!("{}, x = {}", l.part, Show::Span.fmt(l.x, sys)),
             };
-            let util = format!("{} / {} = {:.3}", fmt_value(it.kind, it.demand, sys), fmt_value(it.kind, it.capacity, sys), it.utilisation);
-            let (formula, substitution, allowable) = match it.kind {
-                CheckKind::BendingSaggingTop | CheckKind::BendingHoggingTop => (
-                    "f_top = M·c_top/I = M/S_top".to_string(),
-                    vec![format!(
-                        "= {} / {} (c_top = {}, I = {})",
-                        moment_base(it.action.abs(), sys),
-                        modulus_base(p.s_top, sys),
-                        len(p.c_top, sys),
-                        inertia_base(p.ix, sys)
-                    )],
-                    if it.kind == CheckKind::BendingSaggingTop {
-                        format!("Fbc = {} (top fibre in compression)", stress(m.fb_compression, sys))
-                    } else {
-                        format!("Fbt = {} (top fibre in tension)", stress(m.fb_tension, sys))
-                    },
-                ),
-                CheckKind::BendingSaggingBottom | CheckKind::BendingHoggingBottom => (
-                    "f_bot = M·c_bot/I = M/S_bot".to_string(),
-                    vec![format!(
-                        "= {} / {} (c_bot = {}, I = {})",
-                        moment_base(it.action.abs(), sys),
-                        modulus_base(p.s_bot, sys),
-                        len(p.c_bot, sys),
-                        inertia_base(p.ix, sys)
-                    )],
-                    if it.kind == CheckKind::BendingSaggingBottom {
-                        format!("Fbt = {} (bottom fibre in tension)", stress(m.fb_tension, sys))
-                    } else {
-                        format!("Fbc = {} (bottom fibre in compression)", stress(m.fb_compression, sys))
-                    },
-                ),
-                CheckKind::Shear => {
-                    let use_web = prep.criteria.shear == ShearMethod::Auto && p.web_area.is_some();
-                    if use_web {
-                        let aw = p.web_area.unwrap_or(f64::NAN);
-                        (
-                            "f_v = V/A_w, A_w = d·t_w (average web shear)".to_string(),
-                            vec![format!("= {} / {}", force_base(it.action.abs(), sys), Show::Area.fmt(aw, sys))],
-                            format!("Fv = {}", m.fv.map(|v| stress(v, sys)).unwrap_or_default()),
-                        )
-                    } else {
-                        (
-                            "f_v = V·Q/(I·t) at the neutral axis".to_string(),
-                            vec![format!(
-                                "= {} × {} / ({} × {})",
-                                force_base(it.action.abs(), sys),
-                                modulus_base(p.q_na.unwrap_or(f64::NAN), sys),
-                                inertia_base(p.ix, sys),
-                                len(p.t_na.unwrap_or(f64::NAN), sys)
-                            )],
-                            format!("Fv = {}", m.fv.map(|v| stress(v, sys)).unwrap_or_default()),
-                        )
-                    }
-                }
-                CheckKind::Deflection => {
-                    let st = &prep.demand.stretches[it.part];
-                    let length = st.x2 - st.x1;
-                    let ei = m.e * p.ix;
-                    let limit = prep.demand.combos[it.combo].limit;
-                    let mut allow = Vec::new();
-                    if let Some(n) = limit.and_then(|l| l.ratio) {
-                        if st.cantilever {
-                            allow.push(format!(
-                                "L/n = {} × {} / {} = {}",
-                                fmt_num(prep.demand.cantilever_factor),
-                                len(length, sys),
-                                fmt_num(n),
-                                len(prep.demand.cantilever_factor * length / n, sys)
-                            ));
-                        } else {
-                            allow.push(format!("L/n = {} / {} = {}", len(length, sys), fmt_num(n), len(length / n, sys)));
-                        }
-                    }
-                    if let Some(a) = limit.and_then(|l| l.absolute) {
-                        allow.push(format!("absolute limit {}", len(a, sys)));
-                    }
-                    let ei_text = match sys {
-                        System::Si => format!("{} kN·m²", fmt_num(ei / 1e9)),
-                        System::Us => format!("{} kip·in²", fmt_num(ei / (units::N_PER_LBF * 1e3 * units::MM_PER_IN.powi(2)))),
-                    };
-                    (
-                        "δ = ∫∫ M/(E·I) dx² with the support conditions (relative to the span's supports)".to_string(),
-                        vec![format!(
-                            "E·I = {} × {} = {}; the curvature integral peaks at x = {}",
-                            Show::Modulus.fmt(m.e, sys),
-                            inertia_base(p.ix, sys),
-                            ei_text,
-                            Show::Span.fmt(it.x, sys)
-                        )],
-                        allow.join("; "),
-                    )
-                }
-                CheckKind::LateralTorsional => {
-                    let mut sub = Vec::new();
-                    if let Some(cap) = ltb::Capacity::new(p, m, prep.criteria.bracing) {
-                        let (lb, cb, ms) = match prep.segments.get(it.part) {
-                            Some(seg) if !matches!(prep.criteria.bracing, crate::check::Bracing::Continuous) => {
-                                let w = prep.self_weight(r.mass_per_length);
-                                let sl = prep.demand.section(w, m.e * p.ix);
-                                let combo = prep.demand.apply(it.combo, &sl);
-                                let q: Vec<f64> = (1..4).map(|k| prep.demand.abs_moment_at_node(&combo, seg.nodes[k])).collect();
-                                let cb = if seg.free_end { 1.0 } else { ltb::cb(it.demand, q[0], q[1], q[2]) };
-                                (seg.x2 - seg.x1, cb, Some((q, seg.free_end)))
-                            }
-                            _ => (0.0, 1.0, None),
-                        };
-                        sub.push(format!(
-                            "L_b = {}; L_p = 1.76·r_y·√(E/F_y) = {}; L_r (F2-6) = {}",
-                            len(lb, sys),
-                            len(cap.lp, sys),
-                            len(cap.lr, sys)
-                        ));
-                        match ms {
-                            Some((q, false)) => sub.push(format!(
-                                "C_b = 12.5·M_max/(2.5·M_max + 3·M_A + 4·M_B + 3·M_C) = 12.5×{m0}/(2.5×{m0} + 3×{a} + 4×{b} + 3×{c}) = {cb:.3}",
-                                m0 = fmt_num(Show::Moment.value(it.demand, sys)),
-                                a = fmt_num(Show::Moment.value(q[0], sys)),
-                                b = fmt_num(Show::Moment.value(q[1], sys)),
-                                c = fmt_num(Show::Moment.value(q[2], sys)),
-                            )),
-                            Some((_, true)) => sub.push("C_b = 1.0 (segment with a free end)".into()),
-                            None => sub.push("continuously braced: L_b = 0".into()),
-                        }
-                        sub.push(format!(
-                            "M_p = F_y·Z_x = {}; 0.7·F_y·S_x = {}; {} → M_n = {}",
-                            Show::Moment.fmt(cap.mp, sys),
-                            Show::Moment.fmt(cap.fy_sx_07, sys),
-                            cap.regime(lb, cb),
-                            Show::Moment.fmt(cap.nominal(lb, cb), sys)
-                        ));
-                    }
-                    (
-                        "M_a ≤ M_n/Ω_b, Ω_b = 1.67 (AISC 360-16 F1, F2, F3)".to_string(),
-                        sub,
-                        format!("M_n/Ω_b = {}", Show::Moment.fmt(it.capacity, sys)),
-                    )
-                }
-            };
+            let w = &l.working;
+            let terms: Vec<String> = w
+                .terms
+                .iter()
+                .map(|t| format!("{} = {}", t.symbol, t.show.fmt(t.value, sys)))
+                .collect();
+            let substitution = terms.chunks(4).map(|c| c.join("; ")).collect();
             WrittenCheck {
-                check: it.kind.label().to_string(),
+                check: l.label.clone(),
                 combination: l.combination.clone(),
                 location,
-                formula,
+                formula: if w.formula.is_empty() {
+                    w.method.clone()
+                } else {
+                    format!("{} — {}", w.method, w.formula)
+                },
                 substitution,
-                result: format!("= {}", fmt_value(it.kind, it.demand, sys)),
-                allowable,
-                utilisation: util,
-                passes: it.utilisation <= 1.0,
+                result: format!("= {}", l.show.fmt(l.demand, sys)),
+                allowable: format!("{} = {}", w.capacity, l.show.fmt(l.capacity, sys)),
+                utilisation: format!(
+                    "{} / {} = {:.3}",
+                    l.show.fmt(l.demand, sys),
+                    l.show.fmt(l.capacity, sys),
+                    l.utilisation
+                ),
+                passes: l.passes,
             }
         })
         .collect()
-}
-
-fn fmt_value(kind: CheckKind, v: f64, sys: System) -> String {
-    match kind {
-        CheckKind::Deflection => Show::Deflection.fmt(v, sys),
-        CheckKind::LateralTorsional => Show::Moment.fmt(v, sys),
-        _ => Show::Stress.fmt(v, sys),
-    }
 }
 
 /// Diagrams of V, M (for the governing strength combination) and δ (for
@@ -510,22 +344,27 @@ pub fn section_table(r: &MemberCheck, sys: System) -> Table {
     t
 }
 
-/// Methods, sources and assumptions, for the end of the sheet.
-pub fn methods(prep: &Prepared) -> (Vec<String>, Vec<String>) {
+/// Methods and sources (for the end of the sheet) and assumptions.
+pub fn methods(prep: &Prepared, r: &MemberCheck) -> (Vec<String>, Vec<String>) {
     let mut m = vec![
-        "Flexure formula f = M·y/I (extreme fibres: f = M·c/I = M/S); shear stress by V·Q/(I·t) (Jourawski) or the average web shear V/(d·t_w) for I-shapes (AISC 360-16 G2.1).".to_string(),
-        "Analysis: direct stiffness method with Euler–Bernoulli beam elements and consistent nodal loads, exact for uniform, linearly varying, point and moment loads; moment and shear by statics; deflection by integrating the curvature M/(E·I) twice from the exact nodal values.".to_string(),
-        "Pattern loading: live-type cases taken span by span, the worst combination of spans at every station.".to_string(),
+        "Flexure formula f = M·y/I (extreme fibres: f = M·c/I = M/S); shear stress by V·Q/(I·t) (Jourawski) or the average web shear V/(d·t_w) for I-shapes.".to_string(),
+        "Analysis: direct stiffness method with Euler–Bernoulli beam elements and consistent nodal loads, exact for uniform, linearly varying, point and moment loads; moment and shear by statics; deflection by integrating the curvature M/(E·I) twice from the exact nodal values; spring supports by compatibility of the settlements for this section's E·I.".to_string(),
+        "Pattern loading: live-type cases taken span by span, the worst combination of spans at every station; snow, where partial loading applies, full on some spans and half on the others.".to_string(),
     ];
-    if !matches!(prep.criteria.bracing, crate::check::Bracing::NotGiven) {
-        m.push("Lateral-torsional buckling: ANSI/AISC 360-16 Chapter F, §F2 and §F3, allowable strength design, Ω_b = 1.67, C_b by eq. F1-1.".into());
+    let mut seen: Vec<String> = Vec::new();
+    for l in &r.lines {
+        if !seen.contains(&l.working.method) && l.check != CheckKind::Deflection {
+            seen.push(l.working.method.clone());
+        }
     }
+    m.extend(seen);
     m.push("Combination presets (where used): ASCE/SEI 7-16 §2.4.1 basic allowable-stress combinations; deflection presets: IBC 2018 Table 1604.3 (from memory; verify against the editions in force).".into());
-    let a = vec![
+    let mut a = vec![
         "Linear elastic material; plane sections remain plane; small deflections.".to_string(),
-        "Prismatic member; loads act in the plane of the principal axis of bending (no torsion).".to_string(),
-        "Supports as modelled (pinned, roller, fixed, springs); deflections measured from the line joining a span's supports.".to_string(),
-        "Allowable stresses and deflection limits as entered by the user, including any duration, size or creep factors.".to_string(),
+        "Prismatic member; loads act in the plane of the principal axis of bending (no torsion)."
+            .to_string(),
+        "Allowable stresses and deflection limits as entered by the user.".to_string(),
     ];
+    a.extend(prep.assumptions());
     (m, a)
 }

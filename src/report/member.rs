@@ -3,7 +3,7 @@
 
 use super::{Align, Document, Table};
 use crate::beam::model::{ComboKind, Support};
-use crate::check::{CheckKind, Item, Prepared, SectionInput};
+use crate::check::{CheckKind, Item, Prepared, SectionInput, Verdict, working::Working};
 use crate::job::Job;
 use crate::section::Properties;
 use crate::units::{Show, System};
@@ -24,8 +24,12 @@ pub struct Line {
     /// Stress (MPa), moment (N·mm) or deflection (mm).
     pub demand: f64,
     pub capacity: f64,
+    /// What the demand and capacity are (stress, moment, force, deflection).
+    pub show: Show,
     pub utilisation: f64,
     pub passes: bool,
+    /// The method, formula and values of this line.
+    pub working: Working,
 }
 
 /// The outcome of checking one section on one job.
@@ -41,8 +45,18 @@ pub struct MemberCheck {
     pub lines: Vec<Line>,
     pub utilisation: f64,
     pub governing: Option<Line>,
+    pub verdict: Verdict,
+    /// verdict == Passes.
     pub passes: bool,
+    /// Limit states that apply but could not be evaluated (why the verdict
+    /// is not verified).
+    pub not_verified: Vec<String>,
+    /// Limit states the user excluded.
+    pub excluded: Vec<String>,
+    /// Outside beamsift's scope for this section.
     pub not_checked: Vec<String>,
+    /// Bracing, effective lengths, load height, springs.
+    pub assumptions: Vec<String>,
     pub notes: Vec<String>,
     pub caution: &'static str,
 }
@@ -57,15 +71,29 @@ pub fn part_at(prep: &Prepared, x: f64) -> String {
         .unwrap_or_default()
 }
 
-pub fn line(prep: &Prepared, it: &Item) -> Line {
-    let d = &prep.demand;
-    let part = match it.kind {
-        CheckKind::Deflection => d.stretches[it.part].label.clone(),
+/// The part of the beam a check line is about: a span or overhang, or an
+/// unbraced segment.
+pub fn part_of(prep: &Prepared, it: &Item) -> String {
+    match it.kind {
+        CheckKind::Deflection => prep.demand.stretches[it.part].label.clone(),
         CheckKind::LateralTorsional if !prep.segments.is_empty() => {
             let s = &prep.segments[it.part];
             format!("segment {:.3}–{:.3} m", s.x1 / 1000.0, s.x2 / 1000.0)
         }
         _ => part_at(prep, it.x),
+    }
+}
+
+pub fn line(prep: &Prepared, sec: SectionInput<'_>, it: &Item) -> Line {
+    let d = &prep.demand;
+    let part = part_of(prep, it);
+    let timber = sec.material.unwrap_or(&prep.material).kind == crate::check::MaterialKind::Timber;
+    let show = match it.kind {
+        CheckKind::Deflection => Show::Deflection,
+        CheckKind::WebShear => Show::Force,
+        CheckKind::LateralTorsional if timber => Show::Stress,
+        k if k.demand_is_moment() => Show::Moment,
+        _ => Show::Stress,
     };
     Line {
         check: it.kind,
@@ -76,8 +104,10 @@ pub fn line(prep: &Prepared, it: &Item) -> Line {
         action: it.action,
         demand: it.demand,
         capacity: it.capacity,
+        show,
         utilisation: it.utilisation,
         passes: it.utilisation <= 1.0,
+        working: prep.working(sec, it),
     }
 }
 
@@ -88,10 +118,14 @@ pub fn member_check(
     section: &str,
     props: &Properties,
     mass: f64,
+    material: Option<&crate::check::Material>,
 ) -> MemberCheck {
-    let sec = SectionInput::new(props, mass);
-    let items = prep.check_all(sec);
-    let lines: Vec<Line> = items.iter().map(|it| line(prep, it)).collect();
+    let mut sec = SectionInput::new(props, mass);
+    if let Some(m) = material {
+        sec = sec.with_material(m);
+    }
+    let (items, _) = prep.check_all(sec);
+    let lines: Vec<Line> = items.iter().map(|it| line(prep, sec, it)).collect();
     let summary = prep.check(sec);
     MemberCheck {
         title: job.title.clone(),
@@ -99,11 +133,15 @@ pub fn member_check(
         properties: props.clone(),
         mass_per_length: mass,
         self_weight: prep.self_weight(mass),
-        governing: summary.governing.map(|g| line(prep, &g)),
+        governing: summary.governing.map(|g| line(prep, sec, &g)),
         utilisation: summary.utilisation,
+        verdict: summary.verdict,
         passes: summary.passes,
         lines,
-        not_checked: prep.not_checked(props),
+        not_verified: summary.gaps.describe(),
+        excluded: prep.criteria.exclude.list(),
+        not_checked: prep.not_checked(props, material),
+        assumptions: prep.assumptions(),
         notes: job.notes.clone(),
         caution: super::CAUTION,
     }
@@ -119,28 +157,18 @@ fn fmt_part(l: &Line, sys: System) -> String {
 
 /// (action, demand, capacity) formatted for a line.
 pub fn fmt_values(l: &Line, sys: System) -> (String, String, String) {
-    match l.check {
-        CheckKind::Shear => (
-            format!("V = {}", Show::Force.fmt(l.action.abs(), sys)),
-            Show::Stress.fmt(l.demand, sys),
-            Show::Stress.fmt(l.capacity, sys),
-        ),
-        CheckKind::Deflection => (
-            format!("δ = {}", Show::Deflection.fmt(l.action, sys)),
-            Show::Deflection.fmt(l.demand, sys),
-            Show::Deflection.fmt(l.capacity, sys),
-        ),
-        CheckKind::LateralTorsional => (
-            format!("M = {}", Show::Moment.fmt(l.action, sys)),
-            Show::Moment.fmt(l.demand, sys),
-            Show::Moment.fmt(l.capacity, sys),
-        ),
-        _ => (
-            format!("M = {}", Show::Moment.fmt(l.action, sys)),
-            Show::Stress.fmt(l.demand, sys),
-            Show::Stress.fmt(l.capacity, sys),
-        ),
-    }
+    let action = match l.check {
+        CheckKind::Shear | CheckKind::WebShear => {
+            format!("V = {}", Show::Force.fmt(l.action.abs(), sys))
+        }
+        CheckKind::Deflection => format!("δ = {}", Show::Deflection.fmt(l.action, sys)),
+        _ => format!("M = {}", Show::Moment.fmt(l.action, sys)),
+    };
+    (
+        action,
+        l.show.fmt(l.demand, sys),
+        l.show.fmt(l.capacity, sys),
+    )
 }
 
 /// Describe the job: member, material, cases and combinations.
@@ -163,38 +191,73 @@ pub fn job_tables(job: &Job, sys: System) -> Vec<Table> {
     member.row(vec!["Supports at the nodes".into(), sups.join(", ")]);
     let m = &job.material;
     member.row(vec!["Material".into(), m.name.clone()]);
+    member.row(vec!["Kind of material".into(), m.kind.name().into()]);
     member.row(vec![
         "Modulus of elasticity E".into(),
         Show::Modulus.fmt(m.e, sys),
     ]);
-    if m.fb_tension == m.fb_compression {
-        member.row(vec![
+    match (m.fb_tension, m.fb_compression) {
+        (Some(t), Some(c)) if t == c => member.row(vec![
             "Allowable bending stress Fb".into(),
-            Show::Stress.fmt(m.fb_tension, sys),
-        ]);
-    } else {
-        member.row(vec![
-            "Allowable bending stress, tension Fbt".into(),
-            Show::Stress.fmt(m.fb_tension, sys),
-        ]);
-        member.row(vec![
-            "Allowable bending stress, compression Fbc".into(),
-            Show::Stress.fmt(m.fb_compression, sys),
-        ]);
+            Show::Stress.fmt(t, sys),
+        ]),
+        (Some(t), Some(c)) => {
+            member.row(vec![
+                "Allowable bending stress, tension Fbt".into(),
+                Show::Stress.fmt(t, sys),
+            ]);
+            member.row(vec![
+                "Allowable bending stress, compression Fbc".into(),
+                Show::Stress.fmt(c, sys),
+            ]);
+        }
+        _ => member.row(vec![
+            "Allowable bending stress Fb".into(),
+            "not given (bending strength by AISC 360-16 Chapter F)".into(),
+        ]),
     }
     member.row(vec![
         "Allowable shear stress Fv".into(),
-        m.fv.map(|v| Show::Stress.fmt(v, sys))
-            .unwrap_or_else(|| "not given".into()),
+        m.fv.map(|v| Show::Stress.fmt(v, sys)).unwrap_or_else(|| {
+            if m.kind == crate::check::MaterialKind::Steel {
+                "not given (shear strength by AISC 360-16 Chapter G)".into()
+            } else {
+                "not given".into()
+            }
+        }),
     ]);
     if let Some(fy) = m.fy {
         member.row(vec!["Yield stress Fy".into(), Show::Stress.fmt(fy, sys)]);
     }
+    if m.kind == crate::check::MaterialKind::Timber {
+        if let Some(e) = m.timber.e_min {
+            member.row(vec![
+                "Stability modulus Emin".into(),
+                Show::Modulus.fmt(e, sys),
+            ]);
+        }
+        let f = m.timber.applied();
+        member.row(vec![
+            "Adjustment factors given".into(),
+            if f.is_empty() {
+                "none (each 1.0)".into()
+            } else {
+                f.join(", ")
+            },
+        ]);
+        if m.timber.cd.is_none() {
+            member.row(vec![
+                "Load duration C_D".into(),
+                "per combination, NDS Table 2.3.2".into(),
+            ]);
+        }
+    }
     member.row(vec!["Density".into(), Show::Density.fmt(m.density, sys)]);
+    let c = &job.criteria;
     member.row(vec![
         "Lateral bracing".into(),
-        match job.criteria.bracing {
-            crate::check::Bracing::NotGiven => "not given (stability not checked)".into(),
+        match c.bracing {
+            crate::check::Bracing::NotGiven => "not given: taken as at the supports only".into(),
             crate::check::Bracing::Continuous => "continuous".into(),
             crate::check::Bracing::Supports => "at supports only".into(),
             crate::check::Bracing::Spacing(s) => {
@@ -202,6 +265,22 @@ pub fn job_tables(job: &Job, sys: System) -> Vec<Table> {
             }
         },
     ]);
+    if !matches!(
+        c.bracing,
+        crate::check::Bracing::Supports | crate::check::Bracing::NotGiven
+    ) {
+        member.row(vec![
+            "Braces restrain".into(),
+            match c.braced_flange {
+                crate::check::BracedFlange::Top => "the top flange only".into(),
+                crate::check::BracedFlange::Both => "both flanges".into(),
+            },
+        ]);
+    }
+    let ex = c.exclude.list();
+    if !ex.is_empty() {
+        member.row(vec!["Excluded by the user".into(), ex.join("; ")]);
+    }
     let mut loads = Table::new(
         "Loads (x from the left end; downward and clockwise positive)",
         &[
@@ -367,18 +446,36 @@ pub fn document(job: &Job, r: &MemberCheck, sys: System) -> Document {
     doc.table(t);
     doc.para(
         "+M sagging, −M hogging; (C) fibre in compression, (T) in tension. Bending: f = M·c/I = M/S. \
-Utilisation = demand / capacity; a section passes when every utilisation is at most 1.",
+Utilisation = demand / capacity (allowable strength: nominal/Ω).",
     );
-    if let Some(g) = &r.governing {
-        doc.para(format!(
+    match &r.governing {
+        Some(g) => doc.para(format!(
             "{}: utilisation {:.3}, governed by {} under {} ({}).",
-            if r.passes { "PASSES" } else { "FAILS" },
+            r.verdict.word(),
             r.utilisation,
             g.label,
             g.combination,
             fmt_part(g, sys)
-        ));
+        )),
+        None => doc.para(format!(
+            "{}: no check line was evaluated.",
+            r.verdict.word()
+        )),
     }
+    if !r.not_verified.is_empty() {
+        doc.list(
+            "Not verified — these limit states apply but could not be evaluated, so the section does not pass:",
+            r.not_verified.clone(),
+        );
+    }
+    doc.para(super::calc::VERDICTS);
+    if !r.excluded.is_empty() {
+        doc.list(
+            "Excluded by the user (not checked, by choice):",
+            r.excluded.clone(),
+        );
+    }
+    doc.list("Assumptions:", r.assumptions.clone());
     if !r.notes.is_empty() {
         doc.list("Notes:", r.notes.clone());
     }

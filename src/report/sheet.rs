@@ -29,7 +29,7 @@ pub fn build(
             prep,
             &prep
                 .demand
-                .section(r.self_weight, prep.material.e * r.properties.ix),
+                .section(r.self_weight, prep.material.e_eff() * r.properties.ix),
             sys,
         )
         .into_iter()
@@ -38,16 +38,21 @@ pub fn build(
     tables.push(calc::section_table(r, sys).into());
     let verdict = match &r.governing {
         Some(g) => format!(
-            "{}: the largest utilisation is {:.3}, from {} under {} ({}).",
-            if r.passes { "PASSES" } else { "FAILS" },
+            "{}: the largest utilisation of the checks evaluated is {:.3}, from {} under {} ({}).{}",
+            r.verdict.word(),
             r.utilisation,
             g.label,
             g.combination,
-            g.part
+            g.part,
+            if r.verdict == crate::check::Verdict::NotVerified {
+                " Some limit states that apply could not be evaluated (section 7): this is not a pass."
+            } else {
+                ""
+            }
         ),
-        None => "No check applied.".into(),
+        None => format!("{}: no check line was evaluated.", r.verdict.word()),
     };
-    let (methods, assumptions) = calc::methods(prep);
+    let (methods, assumptions) = calc::methods(prep, r);
     Sheet {
         title: format!("Calculation: {}", job.title),
         member: job.title.clone(),
@@ -56,10 +61,12 @@ pub fn build(
         verdict,
         tables,
         figures: calc::figures(prep, r, sys),
-        checks: calc::written_checks(prep, r, sys),
+        checks: calc::written_checks(r, sys),
         alternatives: alternatives.map(TableOut::from),
         methods,
         assumptions,
+        not_verified: r.not_verified.clone(),
+        excluded: r.excluded.clone(),
         not_checked: r.not_checked.clone(),
         notes: r.notes.clone(),
         caution: CAUTION,
@@ -121,6 +128,7 @@ pub fn markdown(s: &Sheet) -> String {
         s.section, s.section_source
     ));
     o.push_str(&format!("**Result:** {}\n\n", s.verdict));
+    o.push_str(&format!("{}\n\n", calc::VERDICTS));
     o.push_str("## 1. Member, loads and combinations\n\n");
     for t in &s.tables {
         o.push_str(&md_table(t));
@@ -166,9 +174,26 @@ pub fn markdown(s: &Sheet) -> String {
     for a in &s.assumptions {
         o.push_str(&format!("- {a}\n"));
     }
-    o.push_str("\n## 7. Not checked\n\n");
-    for n in &s.not_checked {
-        o.push_str(&format!("- {n}\n"));
+    for (title, items, empty) in [
+        (
+            "7. Not verified",
+            &s.not_verified,
+            "Every limit state that applies was evaluated.",
+        ),
+        (
+            "8. Excluded by the user",
+            &s.excluded,
+            "Nothing was excluded.",
+        ),
+        ("9. Not checked (outside beamsift)", &s.not_checked, ""),
+    ] {
+        o.push_str(&format!("\n## {title}\n\n"));
+        if items.is_empty() {
+            o.push_str(&format!("{empty}\n"));
+        }
+        for n in items {
+            o.push_str(&format!("- {n}\n"));
+        }
     }
     if !s.notes.is_empty() {
         o.push_str("\n## Notes\n\n");
@@ -241,7 +266,7 @@ h1{font-size:1.5em;border-bottom:2px solid #333}h2{font-size:1.2em;margin-top:2e
 h3{font-size:1em;margin:1.2em 0 .3em}table{border-collapse:collapse;margin:.8em 0;font-size:.9em}\
 caption{text-align:left;font-weight:bold;padding:.3em 0}th,td{border:1px solid #bbb;padding:.2em .5em;vertical-align:top}\
 th{background:#eee}td.num,th.num{text-align:right}.calc{font-family:monospace;white-space:pre-wrap;background:#f7f7f7;\
-border-left:3px solid #666;padding:.4em .8em;margin:.3em 0}.fail{color:#b00;font-weight:bold}.pass{color:#060}\
+border-left:3px solid #666;padding:.4em .8em;margin:.3em 0}.fail{color:#b00;font-weight:bold}.unverified{color:#840;font-weight:bold}.pass{color:#060}\
 .caution{border:2px solid #b60;background:#fff6e8;padding:.6em 1em}figure{margin:1em 0}svg{max-width:100%;height:auto}\
 @media print{h2{page-break-after:avoid}.check{page-break-inside:avoid}}";
 
@@ -261,13 +286,17 @@ pub fn html(s: &Sheet) -> String {
     ));
     let cls = if s.verdict.starts_with("PASSES") {
         "pass"
+    } else if s.verdict.starts_with("NOT VERIFIED") {
+        "unverified"
     } else {
         "fail"
     };
+
     o.push_str(&format!(
         "<p><strong>Result:</strong> <span class=\"{cls}\">{}</span></p>\n",
         esc(&s.verdict)
     ));
+    o.push_str(&format!("<p>{}</p>\n", esc(calc::VERDICTS)));
     o.push_str("<h2>1. Member, loads and combinations</h2>\n");
     for t in &s.tables {
         o.push_str(&html_table(t));
@@ -319,7 +348,27 @@ pub fn html(s: &Sheet) -> String {
     };
     list(&mut o, "5. Methods and sources", &s.methods);
     list(&mut o, "6. Assumptions", &s.assumptions);
-    list(&mut o, "7. Not checked", &s.not_checked);
+    let or_none = |v: &[String], none: &str| -> Vec<String> {
+        if v.is_empty() {
+            vec![none.to_string()]
+        } else {
+            v.to_vec()
+        }
+    };
+    list(
+        &mut o,
+        "7. Not verified",
+        &or_none(
+            &s.not_verified,
+            "Every limit state that applies was evaluated.",
+        ),
+    );
+    list(
+        &mut o,
+        "8. Excluded by the user",
+        &or_none(&s.excluded, "Nothing was excluded."),
+    );
+    list(&mut o, "9. Not checked (outside beamsift)", &s.not_checked);
     if !s.notes.is_empty() {
         list(&mut o, "Notes", &s.notes);
     }

@@ -13,7 +13,7 @@ pub mod rationalise;
 
 use crate::catalog::read::{Catalog, line_of};
 use crate::catalog::{Materials, Row, RowMaterial, parse_row};
-use crate::check::{Item, Prepared, SectionInput};
+use crate::check::{Item, Prepared, SectionInput, Verdict};
 use crate::error::{Error, Location, Result};
 use crate::section::{Properties, Shape};
 use rayon::prelude::*;
@@ -127,7 +127,12 @@ pub struct Candidate {
     pub stock: Option<bool>,
     pub utilisation: f64,
     pub governing: Option<Item>,
+    pub verdict: Verdict,
     pub passes: bool,
+    /// Why the verdict is not verified (empty otherwise).
+    pub not_verified: Vec<String>,
+    /// What beamsift does not check for this row (outside its scope).
+    pub not_checked: Vec<String>,
     /// On the mass–depth Pareto front of the passing sections.
     pub pareto: bool,
     pub properties: Properties,
@@ -191,6 +196,10 @@ pub struct ScanOptions {
     pub chunk: usize,
     /// Keep the Pareto front.
     pub pareto: bool,
+    /// Not-verified rows to keep (lightest first), listed apart.
+    pub unverified: usize,
+    /// Rank not-verified rows with the passing ones (marked on every line).
+    pub include_unverified: bool,
 }
 
 impl Default for ScanOptions {
@@ -202,6 +211,8 @@ impl Default for ScanOptions {
             skip_bad_rows: false,
             chunk: 8192,
             pareto: true,
+            unverified: 5,
+            include_unverified: false,
         }
     }
 }
@@ -213,6 +224,8 @@ pub struct Counts {
     pub checked: u64,
     pub passing: u64,
     pub failing: u64,
+    /// Checked, nothing failed, but a limit state could not be evaluated.
+    pub not_verified: u64,
     pub filtered: u64,
     pub bad: u64,
 }
@@ -223,6 +236,8 @@ pub struct Selection {
     pub lists: Vec<TopList>,
     pub pareto: Vec<Candidate>,
     pub near_misses: TopList,
+    /// The lightest not-verified rows.
+    pub unverified: TopList,
     pub counts: Counts,
     /// Problems in skipped rows (the first 100).
     pub skipped: Vec<String>,
@@ -251,7 +266,15 @@ enum Outcome<'r> {
     },
 }
 
-fn to_candidate(row: &Row<'_>, s: &crate::check::Summary, file: usize, line: u64) -> Candidate {
+fn to_candidate(
+    prep: &Prepared,
+    mats: &Materials<'_>,
+    row: &Row<'_>,
+    s: &crate::check::Summary,
+    file: usize,
+    line: u64,
+) -> Candidate {
+    let mat = mats.get(&row.material);
     Candidate {
         name: row.name.to_string(),
         series: row.series.to_string(),
@@ -266,10 +289,62 @@ fn to_candidate(row: &Row<'_>, s: &crate::check::Summary, file: usize, line: u64
         stock: row.stock,
         utilisation: s.utilisation,
         governing: s.governing,
+        verdict: s.verdict,
         passes: s.passes,
+        not_verified: s.gaps.describe(),
+        not_checked: prep.not_checked(&row.props, Some(mat)),
         pareto: false,
         properties: row.props.clone(),
         material: row.material.clone(),
+    }
+}
+
+/// A row read for later checking (schedules): no verdict yet.
+fn to_candidate_unchecked(
+    row: &Row<'_>,
+    s: &crate::check::Summary,
+    file: usize,
+    line: u64,
+) -> Candidate {
+    Candidate {
+        name: row.name.to_string(),
+        series: row.series.to_string(),
+        grade: row.grade.to_string(),
+        shape: row.shape.clone(),
+        file,
+        line,
+        mass: row.mass,
+        depth: row.props.depth,
+        width: row.props.width,
+        cost: row.cost,
+        stock: row.stock,
+        utilisation: s.utilisation,
+        governing: s.governing,
+        verdict: s.verdict,
+        passes: s.passes,
+        not_verified: Vec::new(),
+        not_checked: Vec::new(),
+        pareto: false,
+        properties: row.props.clone(),
+        material: row.material.clone(),
+    }
+}
+
+impl Candidate {
+    /// Fill in the verdict of a check (for rows read before checking).
+    pub fn with_summary(
+        mut self,
+        prep: &Prepared,
+        mat: &crate::check::Material,
+        s: &crate::check::Summary,
+    ) -> Candidate {
+        self.utilisation = s.utilisation;
+        self.governing = s.governing;
+        self.verdict = s.verdict;
+        self.passes = s.passes;
+        self.not_verified = s.gaps.describe();
+        self.not_checked = prep.not_checked(&self.properties, Some(mat));
+        self
     }
 }
 
@@ -457,6 +532,10 @@ pub fn scan_excluding<R: Read + Send>(
         .map(|&(r, n)| TopList::new(r, n))
         .collect();
     let mut near = TopList::new(Rank::Utilisation, opts.near);
+    let mut unverified = TopList::new(
+        opts.ranks.first().map(|r| r.0).unwrap_or(Rank::Mass),
+        opts.unverified,
+    );
     let mut pareto: Vec<Candidate> = Vec::new();
     let mut counts = Counts::default();
     let mut errors: Vec<Error> = Vec::new();
@@ -581,7 +660,7 @@ pub fn scan_excluding<R: Read + Send>(
                             let materialise = || -> Result<Candidate> {
                                 let row = parse_row(schema, rec, mats)
                                     .map_err(|e| Error::Internal(e.message))?;
-                                Ok(to_candidate(&row, &s, fi, line))
+                                Ok(to_candidate(prep, mats, &row, &s, fi, line))
                             };
                             if s.passes {
                                 counts.passing += 1;
@@ -599,6 +678,23 @@ pub fn scan_excluding<R: Read + Send>(
                                         if l.wants_key(&k) {
                                             l.insert(cand.clone());
                                         }
+                                    }
+                                }
+                            } else if s.verdict == Verdict::NotVerified {
+                                counts.not_verified += 1;
+                                let in_lists = opts.include_unverified
+                                    && lists.iter().any(|l| l.wants_key(&k));
+                                if in_lists || unverified.wants_key(&k) {
+                                    let cand = materialise()?;
+                                    if opts.include_unverified {
+                                        for l in lists.iter_mut() {
+                                            if l.wants_key(&k) {
+                                                l.insert(cand.clone());
+                                            }
+                                        }
+                                    }
+                                    if unverified.wants_key(&k) {
+                                        unverified.insert(cand);
                                     }
                                 }
                             } else {
@@ -657,6 +753,7 @@ pub fn scan_excluding<R: Read + Send>(
         lists,
         pareto,
         near_misses: near,
+        unverified,
         counts,
         skipped,
         files,
@@ -784,6 +881,8 @@ pub fn load_rows<R: Read>(
     let none = crate::check::Summary {
         utilisation: f64::NAN,
         governing: None,
+        verdict: crate::check::Verdict::NotVerified,
+        gaps: crate::check::Gaps::default(),
         passes: false,
     };
     for (fi, mut cat) in catalogs.into_iter().enumerate() {
@@ -807,7 +906,7 @@ pub fn load_rows<R: Read>(
                             skipped.push(e.to_string());
                             errors.push(e);
                         } else if filters.admits(&row) {
-                            rows.push(to_candidate(&row, &none, fi, line));
+                            rows.push(to_candidate_unchecked(&row, &none, fi, line));
                         } else {
                             counts.filtered += 1;
                         }

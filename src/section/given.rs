@@ -121,6 +121,8 @@ impl Given {
             cw: self.cw,
             web_area: self.tw.map(|tw| depth * tw),
             i_geometry,
+
+            form: super::Form::Given,
         })
     }
 }

@@ -135,6 +135,8 @@ pub(crate) fn properties_chs(d: f64, t: f64) -> Properties {
         cw: None,
         web_area: None,
         i_geometry: None,
+
+        form: super::Form::Given,
     }
 }
 

@@ -226,6 +226,7 @@ pub(crate) fn properties_welded(bf: f64, tf: f64, hw: f64, tw: f64) -> Propertie
             h0,
             r: 0.0,
         }),
+        form: super::Form::Given,
     }
 }
 

@@ -40,6 +40,30 @@ pub struct IGeometry {
     pub r: f64,
 }
 
+/// What kind of cross-section the properties describe, so the checks know
+/// which methods apply (and which cannot be evaluated).
+#[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize, Default)]
+#[serde(tag = "form", rename_all = "snake_case")]
+pub enum Form {
+    /// Solid rectangle, width b, depth d.
+    Rect { b: f64, d: f64 },
+    /// Hot-rolled I-shape (doubly symmetric, root fillets).
+    RolledI,
+    /// Built-up (welded) I-shape, doubly or singly symmetric.
+    WeldedI,
+    /// Rectangular hollow section: width b, depth h, wall t, outer corner
+    /// radius r_out.
+    Rhs { b: f64, h: f64, t: f64, r_out: f64 },
+    /// Circular hollow section: outside diameter d, wall t.
+    Chs { d: f64, t: f64 },
+    /// Solid round bar of diameter d.
+    Round { d: f64 },
+    /// Table values only: the shape is not known (an I-shape's flange and
+    /// web sizes may still be given, see `Properties::i_geometry`).
+    #[default]
+    Given,
+}
+
 /// Section properties, all in internal units (mm, mm², mm³, mm⁴, mm⁶).
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct Properties {
@@ -81,6 +105,9 @@ pub struct Properties {
     pub web_area: Option<f64>,
     /// I-shape geometry, for the slenderness limits and lateral stability.
     pub i_geometry: Option<IGeometry>,
+    /// The kind of section.
+    #[serde(flatten)]
+    pub form: Form,
 }
 
 impl Properties {
@@ -262,6 +289,24 @@ impl Shape {
     /// Properties of a shape already validated (the catalogue path
     /// validates once, while building the shape).
     pub(crate) fn properties_of_valid(&self) -> Properties {
+        let mut p = self.properties_unformed();
+        p.form = self.form();
+        p
+    }
+
+    /// The form of this shape.
+    pub fn form(&self) -> Form {
+        match *self {
+            Shape::Rect { b, d } => Form::Rect { b, d },
+            Shape::WeldedI { .. } | Shape::MonoI { .. } => Form::WeldedI,
+            Shape::RolledI { .. } => Form::RolledI,
+            Shape::Rhs { b, h, t, r_out } => Form::Rhs { b, h, t, r_out },
+            Shape::Chs { d, t } => Form::Chs { d, t },
+            Shape::Round { d } => Form::Round { d },
+        }
+    }
+
+    fn properties_unformed(&self) -> Properties {
         match *self {
             Shape::Rect { b, d } => rect::properties(b, d),
             Shape::WeldedI { bf, tf, hw, tw } => ishape::properties_welded(bf, tf, hw, tw),
@@ -408,5 +453,6 @@ pub(crate) fn from_composite(
         cw,
         web_area: i_geometry.map(|g| g.d * g.tw),
         i_geometry,
+        form: Form::Given,
     }
 }

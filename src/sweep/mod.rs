@@ -23,7 +23,9 @@
 
 use crate::beam::model::{Beam, LoadKind, Support};
 use crate::catalog::Materials;
-use crate::check::{Bracing, CheckKind, Criteria, Material, Prepared, SectionInput};
+use crate::check::{
+    BracedFlange, Bracing, CheckKind, Criteria, Material, Prepared, SectionInput, Verdict,
+};
 use crate::error::{Error, Result};
 use crate::search::Candidate;
 use rayon::prelude::*;
@@ -64,6 +66,11 @@ pub struct Lightest {
     pub row: Option<usize>,
     pub utilisation: Option<f64>,
     pub governing: Option<CheckKind>,
+    /// Rows lighter than the one found that are not verified (a limit state
+    /// that applies could not be evaluated): never taken as passing.
+    pub lighter_not_verified: u64,
+    /// The reasons of the lightest of them.
+    pub not_verified_reasons: Vec<String>,
 }
 
 /// The lightest passing row at each span (parallel over spans).
@@ -85,6 +92,8 @@ pub fn lightest(
                 row: None,
                 utilisation: None,
                 governing: None,
+                lighter_not_verified: 0,
+                not_verified_reasons: Vec::new(),
             };
             for (j, r) in rows.iter().enumerate() {
                 let s = prep.check(
@@ -95,6 +104,12 @@ pub fn lightest(
                     out.utilisation = Some(s.utilisation);
                     out.governing = s.governing.map(|g| g.kind);
                     break;
+                }
+                if s.verdict == Verdict::NotVerified {
+                    if out.lighter_not_verified == 0 {
+                        out.not_verified_reasons = s.gaps.describe();
+                    }
+                    out.lighter_not_verified += 1;
                 }
             }
             progress();
@@ -121,6 +136,9 @@ pub struct Cell {
     pub governing: Option<CheckKind>,
     pub method: Method,
     pub rounded: bool,
+    /// Not verified: a limit state that applies cannot be evaluated for this
+    /// section (the reasons); the cell has no span.
+    pub not_verified: Vec<String>,
 }
 
 /// Options for span tables.
@@ -163,13 +181,30 @@ pub fn closed_form_applies(beam: &Beam, criteria: &Criteria) -> bool {
         .supports
         .iter()
         .any(|s| matches!(s, Support::Spring(_)));
-    let ltb_ok = matches!(criteria.bracing, Bracing::NotGiven | Bracing::Continuous);
+    // Lateral stability does not scale with a power of the span: the closed
+    // form needs it absent — both flanges braced continuously, or the top
+    // flange braced on a beam that never hogs (a single simple span under
+    // downward loads).
+    let never_hogs = beam.spans.len() == 1
+        && beam.supports.iter().all(|s| !matches!(s, Support::Fixed))
+        && beam.supports.iter().all(|s| s.restrains_vertical())
+        && beam.loads.iter().all(|ld| match ld.kind {
+            LoadKind::Distributed { w1, w2, .. } => w1 >= 0.0 && w2 >= 0.0,
+            _ => false,
+        })
+        && beam
+            .combinations
+            .iter()
+            .all(|c| c.factors.iter().all(|(_, f)| *f >= 0.0));
+    let ltb_ok = criteria.exclude.lateral_torsional_buckling
+        || (criteria.bracing == Bracing::Continuous
+            && (criteria.braced_flange == BracedFlange::Both || never_hogs));
     loads_scale && limits_ratio && rigid && ltb_ok
 }
 
 fn power(kind: CheckKind) -> f64 {
     match kind {
-        CheckKind::Shear => 1.0,
+        CheckKind::Shear | CheckKind::WebShear => 1.0,
         CheckKind::Deflection => 3.0,
         _ => 2.0,
     }
@@ -210,15 +245,38 @@ pub fn max_span(
             governing: gov,
             method,
             rounded: opts.round.is_some(),
+            not_verified: Vec::new(),
         }
     };
+    // A section not verified at the job's own span is not verified at any:
+    // what cannot be evaluated does not depend on the span's length here.
+    {
+        let prep = Prepared::new(beam, material.clone(), criteria.clone())?;
+        let s = prep.check(
+            SectionInput::new(&row.properties, row.mass).with_material(mats.get(&row.material)),
+        );
+        if s.verdict == Verdict::NotVerified {
+            return Ok(Cell {
+                span: None,
+                exact: None,
+                governing: None,
+                method: if closed_form_applies(beam, criteria) {
+                    Method::ClosedForm
+                } else {
+                    Method::Bisection
+                },
+                rounded: false,
+                not_verified: s.gaps.describe(),
+            });
+        }
+    }
     if closed_form_applies(beam, criteria) {
         let l0 = reference_span(beam);
         let prep = Prepared::new(beam, material.clone(), criteria.clone())?;
         let mut best: Option<(f64, CheckKind)> = None;
         prep.visit(
             SectionInput::new(&row.properties, row.mass).with_material(mats.get(&row.material)),
-            |it| {
+            &mut |it: crate::check::Item| {
                 if it.utilisation > 0.0 && it.utilisation.is_finite() {
                     let l = l0 * it.utilisation.powf(-1.0 / power(it.kind));
                     if best.is_none_or(|(b, _)| l < b) {
@@ -253,6 +311,7 @@ pub fn max_span(
             governing: gov_lo,
             method: Method::Bisection,
             rounded: false,
+            not_verified: Vec::new(),
         });
     }
     let mut hi = (2.0 * lo).max(reference_span(beam));

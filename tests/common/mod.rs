@@ -1,0 +1,131 @@
+//! Shared fixtures for the integration tests: materials, simple beams, the
+//! binary runner and tolerance checks. Each test file uses what it needs.
+#![allow(dead_code)]
+
+use beamsift::beam::{Beam, Category, ComboKind, DeflectionLimit, Support};
+use beamsift::check::{Criteria, Exclusions, Material, MaterialKind, TimberFactors};
+use std::path::PathBuf;
+use std::process::{Command, Output};
+
+/// A material of allowable stresses only (kind not stated), MPa and kg/m³.
+pub fn allowable(e: f64, fb: f64, fv: Option<f64>, density: f64) -> Material {
+    Material::allowable("test material", e, fb, fv, density)
+}
+
+/// Structural steel with F_y, allowables Fb and Fv as given (None: AISC
+/// Chapters F/G only).
+pub fn steel(fy: f64, fb: Option<f64>, fv: Option<f64>) -> Material {
+    Material {
+        name: "steel".into(),
+        kind: MaterialKind::Steel,
+        e: 200_000.0,
+        fb_tension: fb,
+        fb_compression: fb,
+        fv,
+        fy: Some(fy),
+        density: 7850.0,
+        timber: TimberFactors::default(),
+    }
+}
+
+/// Timber with reference values (MPa), E_min and a fixed load duration
+/// factor (so the tests control C_D).
+pub fn timber(e: f64, fb: f64, fv: f64, e_min: f64, cd: f64, density: f64) -> Material {
+    Material {
+        name: "timber".into(),
+        kind: MaterialKind::Timber,
+        e,
+        fb_tension: Some(fb),
+        fb_compression: Some(fb),
+        fv: Some(fv),
+        fy: None,
+        density,
+        timber: TimberFactors {
+            e_min: Some(e_min),
+            cd: Some(cd),
+            ..TimberFactors::default()
+        },
+    }
+}
+
+/// Criteria for the plain allowable-stress job: lateral stability and local
+/// buckling excluded by the user ("by others"), as a caller must say.
+pub fn allowable_only() -> Criteria {
+    Criteria {
+        exclude: Exclusions {
+            lateral_torsional_buckling: true,
+            local_buckling: true,
+            ..Exclusions::default()
+        },
+        ..Criteria::default()
+    }
+}
+
+/// A simple span L (mm) under uniform dead `wd` and live `wl` (N/mm), with
+/// strength D and D+L and service L ≤ L/360, D+L ≤ L/240 (IBC 2018 Table
+/// 1604.3 floor limits, from memory).
+pub fn simple_span(l: f64, wd: f64, wl: f64) -> Beam {
+    let mut b = Beam::new(vec![l], vec![Support::Pinned, Support::Roller]);
+    let d = b.case("D", Category::Dead);
+    let lc = b.case("L", Category::Live);
+    b.self_weight_case = Some(d);
+    b.udl(d, wd);
+    b.udl(lc, wl);
+    b.combo("D", ComboKind::Strength, &[(d, 1.0)]);
+    b.combo("D+L", ComboKind::Strength, &[(d, 1.0), (lc, 1.0)]);
+    b.service(
+        "L",
+        &[(lc, 1.0)],
+        DeflectionLimit {
+            ratio: Some(360.0),
+            absolute: None,
+        },
+    );
+    b.service(
+        "D+L",
+        &[(d, 1.0), (lc, 1.0)],
+        DeflectionLimit {
+            ratio: Some(240.0),
+            absolute: None,
+        },
+    );
+    b
+}
+
+/// |got − want| ≤ tol·|want| (or ≤ tol when want is 0).
+pub fn close(what: &str, got: f64, want: f64, tol: f64) {
+    let ok = (got - want).abs() <= tol * want.abs().max(if want == 0.0 { 1.0 } else { 0.0 });
+    assert!(
+        ok,
+        "{what}: got {got}, expected {want} (relative tolerance {tol})"
+    );
+}
+
+pub fn repo(p: &str) -> PathBuf {
+    PathBuf::from(env!("CARGO_MANIFEST_DIR")).join(p)
+}
+
+/// Run the built binary.
+pub fn run(args: &[&str]) -> Output {
+    Command::new(env!("CARGO_BIN_EXE_beamsift"))
+        .args(args)
+        .output()
+        .expect("run beamsift")
+}
+
+/// Run the binary in a folder.
+pub fn run_in(dir: &std::path::Path, args: &[&str]) -> Output {
+    Command::new(env!("CARGO_BIN_EXE_beamsift"))
+        .args(args)
+        .current_dir(dir)
+        .output()
+        .expect("run beamsift")
+}
+
+/// (stdout, stderr) as text.
+pub fn text(o: &Output) -> (String, String) {
+    (
+        String::from_utf8_lossy(&o.stdout).into_owned(),
+        String::from_utf8_lossy(&o.stderr).into_owned(),
+    )
+}
