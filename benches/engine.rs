@@ -295,7 +295,7 @@ fn drivers(c: &mut Criterion) {
     let members = batch::read_schedule(text.as_bytes(), "s.csv", &tmpl, 360.0, 240.0).unwrap();
     g.bench_function(
         format!("schedule of 200 members x {} sections", rows.len()),
-        |b| b.iter(|| black_box(batch::size(&members, &rows, &mats, &Filters::default()).unwrap())),
+        |b| b.iter(|| black_box(batch::size(&members, &rows, &mats, &Filters::default(), false).unwrap())),
     );
     g.finish();
 }
@@ -310,7 +310,7 @@ fn optimise_girder(c: &mut Criterion) {
         },
     )
     .unwrap();
-    let (lf, lw) = optimise::default_slenderness(Family::WeldedI, 200_000.0, 345.0);
+    let (lf, lw) = optimise::compact_slenderness(Family::WeldedI, 200_000.0, 345.0);
     let prob = Problem {
         family: Family::WeldedI,
         bounds: vec![(100.0, 600.0), (6.0, 50.0), (150.0, 2000.0), (5.0, 30.0)],

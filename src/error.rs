@@ -3,7 +3,7 @@
 //! Every error carries the context a user needs to fix the input: where it
 //! came from (file, line, column or field), the offending value and what was
 //! expected. The binary prints the chain once and maps the variant to an
-//! exit code (see `Error::exit_code`).
+//! exit code (its own business: see `cli::exit_code`).
 
 use std::fmt;
 
@@ -90,6 +90,11 @@ pub enum Error {
         source: std::io::Error,
     },
 
+    /// The input is valid but nothing satisfies the checks (an optimiser
+    /// with no feasible shape, a report with no passing section).
+    #[error("{0}")]
+    NoSolution(String),
+
     /// A bug: an invariant the code relies on did not hold.
     #[error("internal error (please report): {0}")]
     Internal(String),
@@ -166,16 +171,6 @@ impl Error {
         Error::Io {
             path: path.into(),
             source,
-        }
-    }
-
-    /// Exit code of the binary for this error (documented in README):
-    /// 2 bad input, 3 input/output failure, 4 internal error.
-    pub fn exit_code(&self) -> i32 {
-        match self {
-            Error::Input { .. } | Error::Many(_) => 2,
-            Error::Io { .. } => 3,
-            Error::Internal(_) => 4,
         }
     }
 }

@@ -16,8 +16,9 @@
 //!   plus that load.
 
 use crate::beam::model::{
-    Beam, Category, Combination, ComboKind, DeflectionLimit, Load, LoadCase, LoadKind, Support,
+    Beam, Category, Combination, ComboKind, DeflectionLimit, Load, LoadKind, Pattern, Support,
 };
+use crate::beam::presets;
 use crate::check::{
     BracedFlange, Bracing, Criteria, LoadHeight, Material, MaterialKind, ShearMethod, TimberFactors,
 };
@@ -124,7 +125,36 @@ struct RawCase {
     name: Spanned<String>,
     category: Spanned<String>,
     self_weight: Option<bool>,
-    pattern: Option<bool>,
+    pattern: Option<Spanned<RawPattern>>,
+}
+
+#[derive(Deserialize)]
+#[serde(untagged)]
+enum RawPattern {
+    On(bool),
+    Name(String),
+}
+
+/// Snow cases without a pattern of their own get partial loading (full or
+/// half by span) on a beam of more than one span, as the preset's standard
+/// asks (ASCE 7-16 §7.5).
+pub fn set_partial_snow(beam: &mut Beam, explicit: &[bool], notes: &mut Vec<String>) {
+    if beam.stretches().len() < 2 {
+        return;
+    }
+    let mut named = Vec::new();
+    for (i, c) in beam.cases.iter_mut().enumerate() {
+        if c.category == Category::Snow && !explicit.get(i).copied().unwrap_or(false) {
+            c.pattern = Pattern::Partial;
+            named.push(c.name.clone());
+        }
+    }
+    if !named.is_empty() {
+        notes.push(format!(
+            "snow case(s) {} partially loaded: full on some spans, half on the others, the worst at every station (ASCE 7-16 §7.5; set pattern = false on the case to turn it off)",
+            named.join(", ")
+        ));
+    }
 }
 
 #[derive(Deserialize)]
@@ -369,6 +399,7 @@ pub fn from_toml(text: &str, file: &str) -> Result<Job> {
     }
     // Cases.
     let mut sw_case = None;
+    let mut explicit_pattern = vec![false; raw.case.len()];
     for (i, c) in raw.case.iter().enumerate() {
         let field = format!("case[{}]", i + 1);
         let name = c.name.get_ref().trim().to_string();
@@ -385,8 +416,24 @@ pub fn from_toml(text: &str, file: &str) -> Result<Job> {
         let cat = Category::parse(c.category.get_ref())
             .map_err(|e| e.at(&src.loc(c.category.span(), &format!("{field}.category"))))?;
         let idx = beam.case(&name, cat);
-        if let Some(p) = c.pattern {
-            beam.cases[idx].pattern = p;
+        if let Some(p) = &c.pattern {
+            beam.cases[idx].pattern = match p.get_ref() {
+                RawPattern::On(true) => Pattern::Skip,
+                RawPattern::On(false) => Pattern::None,
+                RawPattern::Name(n) => match n.trim().to_ascii_lowercase().as_str() {
+                    "skip" | "on" | "true" => Pattern::Skip,
+                    "partial" | "half" => Pattern::Partial,
+                    "none" | "off" | "false" => Pattern::None,
+                    other => {
+                        return src.err(
+                            p.span(),
+                            &format!("{field}.pattern"),
+                            format!("unknown pattern '{other}': expected true (skip loading: on or off by span), \"partial\" (full or half by span) or false"),
+                        );
+                    }
+                },
+            };
+            explicit_pattern[idx] = true;
         }
         if c.self_weight == Some(true) {
             sw_case = Some(idx);
@@ -616,18 +663,24 @@ pub fn from_toml(text: &str, file: &str) -> Result<Job> {
             kind,
             factors,
             limit: (kind == ComboKind::Service).then_some(DeflectionLimit { ratio, absolute }),
+            source: None,
         });
     }
     if let Some(p) = &raw.presets {
         if let Some(s) = &p.strength {
-            let combos = strength_preset(&beam.cases, s.get_ref())
+            let pr = presets::strength(&beam.cases, s.get_ref())
                 .map_err(|e| e.at(&src.loc(s.span(), "presets.strength")))?;
-            beam.combinations.extend(combos);
+            beam.combinations.extend(pr.combinations);
+            notes.extend(pr.notes);
+            if presets::partial_snow(Some(s.get_ref())) {
+                set_partial_snow(&mut beam, &explicit_pattern, &mut notes);
+            }
         }
         if let Some(s) = &p.service {
-            let combos = service_preset(&beam.cases, s.get_ref())
+            let pr = presets::service(&beam.cases, s.get_ref())
                 .map_err(|e| e.at(&src.loc(s.span(), "presets.service")))?;
-            beam.combinations.extend(combos);
+            beam.combinations.extend(pr.combinations);
+            notes.extend(pr.notes);
         }
     }
     if !beam
@@ -836,201 +889,14 @@ fn parse_material(
     Ok(mat)
 }
 
-fn cases_of(cases: &[LoadCase], cat: Category) -> Vec<usize> {
-    (0..cases.len())
-        .filter(|&i| cases[i].category == cat)
-        .collect()
-}
-
-fn term(factor: f64, label: &str) -> String {
-    if factor == 1.0 {
-        label.to_string()
-    } else {
-        format!("{}{}", crate::units::fmt_num(factor), label)
-    }
-}
-
-/// Strength combinations of a named preset for the cases present.
-pub fn strength_preset(cases: &[LoadCase], name: &str) -> Result<Vec<Combination>> {
-    let key = name.trim().to_ascii_lowercase();
-    if key != "asce7-16-asd" && key != "asce7-asd" {
-        return Err(Error::msg(format!(
-            "unknown strength preset '{name}': expected asce7-16-asd"
-        )));
-    }
-    let d = cases_of(cases, Category::Dead);
-    let l = cases_of(cases, Category::Live);
-    let w = cases_of(cases, Category::Wind);
-    let roofs: Vec<(&str, Vec<usize>)> = [("Lr", Category::RoofLive), ("S", Category::Snow)]
-        .into_iter()
-        .map(|(n, c)| (n, cases_of(cases, c)))
-        .filter(|(_, v)| !v.is_empty())
-        .collect();
-    let others = cases_of(cases, Category::Other);
-    let mut out = Vec::new();
-    let mut push = |parts: Vec<(f64, &str, &Vec<usize>)>| {
-        if parts.iter().skip(1).any(|p| p.2.is_empty()) {
-            return;
-        }
-        let name = parts
-            .iter()
-            .filter(|p| !p.2.is_empty() || p.1 == "D")
-            .map(|p| term(p.0, p.1))
-            .collect::<Vec<_>>()
-            .join("+");
-        let mut factors: Vec<(usize, f64)> = Vec::new();
-        for (f, _, idx) in &parts {
-            for &i in idx.iter() {
-                factors.push((i, *f));
-            }
-        }
-        // "Other" cases ride with dead load at factor 1.
-        for &i in &others {
-            factors.push((i, 1.0));
-        }
-        out.push(Combination {
-            name,
-            kind: ComboKind::Strength,
-            factors,
-            limit: None,
-        });
-    };
-    push(vec![(1.0, "D", &d)]);
-    push(vec![(1.0, "D", &d), (1.0, "L", &l)]);
-    for (rn, r) in &roofs {
-        push(vec![(1.0, "D", &d), (1.0, rn, r)]);
-        push(vec![(1.0, "D", &d), (0.75, "L", &l), (0.75, rn, r)]);
-    }
-    push(vec![(1.0, "D", &d), (0.6, "W", &w)]);
-    if roofs.is_empty() {
-        push(vec![(1.0, "D", &d), (0.75, "L", &l), (0.45, "W", &w)]);
-    }
-    for (rn, r) in &roofs {
-        push(vec![
-            (1.0, "D", &d),
-            (0.75, "L", &l),
-            (0.45, "W", &w),
-            (0.75, rn, r),
-        ]);
-    }
-    push(vec![(0.6, "D", &d), (0.6, "W", &w)]);
-    Ok(out)
-}
-
-/// Serviceability combinations of a named preset.
-pub fn service_preset(cases: &[LoadCase], name: &str) -> Result<Vec<Combination>> {
-    let key = name.trim().to_ascii_lowercase();
-    let d = cases_of(cases, Category::Dead);
-    let mut out = Vec::new();
-    let mut add = |label: String, idx: Vec<usize>, with_dead: bool, n: f64| {
-        if idx.is_empty() {
-            return;
-        }
-        let mut factors: Vec<(usize, f64)> = idx.iter().map(|&i| (i, 1.0)).collect();
-        if with_dead {
-            factors.extend(d.iter().map(|&i| (i, 1.0)));
-        }
-        out.push(Combination {
-            name: format!("{label} ≤ L/{}", crate::units::fmt_num(n)),
-            kind: ComboKind::Service,
-            factors,
-            limit: Some(DeflectionLimit {
-                ratio: Some(n),
-                absolute: None,
-            }),
-        });
-    };
-    match key.as_str() {
-        "floor" => {
-            let l = cases_of(cases, Category::Live);
-            add("L".into(), l.clone(), false, 360.0);
-            add("D+L".into(), l, true, 240.0);
-        }
-        "roof" => {
-            for (n, c) in [("Lr", Category::RoofLive), ("S", Category::Snow)] {
-                let v = cases_of(cases, c);
-                add(n.into(), v.clone(), false, 240.0);
-                add(format!("D+{n}"), v, true, 180.0);
-            }
-        }
-        _ => {
-            return Err(Error::msg(format!(
-                "unknown service preset '{name}': expected floor or roof"
-            )));
-        }
-    }
-    if out.is_empty() {
-        return Err(Error::msg(format!(
-            "service preset '{name}' found no load case of its category (live for floor; roof_live or snow for roof)"
-        )));
-    }
-    Ok(out)
-}
-
-/// Combinations for a beam built from flags or a schedule row: the named
-/// presets if given; otherwise D and D + every variable case (strength),
-/// the variable cases alone at L/`n_live` and the total at L/`n_total`
-/// (serviceability; L/360 and L/240 for floors by common practice).
+/// Combinations for a beam built from flags or a schedule row (see
+/// [`crate::beam::presets::standard`]); the notes go with the job.
 pub fn standard_combinations(
     beam: &mut Beam,
     strength: Option<&str>,
     service: Option<&str>,
     n_live: f64,
     n_total: f64,
-) -> Result<()> {
-    let dead = cases_of(&beam.cases, Category::Dead);
-    let variable: Vec<usize> = (0..beam.cases.len())
-        .filter(|&i| beam.cases[i].category != Category::Dead)
-        .collect();
-    match strength {
-        Some(p) => {
-            let c = strength_preset(&beam.cases, p)?;
-            beam.combinations.extend(c);
-        }
-        None => {
-            let d: Vec<(usize, f64)> = dead.iter().map(|&i| (i, 1.0)).collect();
-            beam.combo("D", ComboKind::Strength, &d);
-            if !variable.is_empty() {
-                let mut f = d.clone();
-                f.extend(variable.iter().map(|&v| (v, 1.0)));
-                let name = std::iter::once("D".to_string())
-                    .chain(variable.iter().map(|&v| beam.cases[v].name.clone()))
-                    .collect::<Vec<_>>()
-                    .join("+");
-                beam.combo(&name, ComboKind::Strength, &f);
-            }
-        }
-    }
-    match service {
-        Some(p) => {
-            let c = service_preset(&beam.cases, p)?;
-            beam.combinations.extend(c);
-        }
-        None => {
-            if !variable.is_empty() {
-                let names: Vec<String> = variable
-                    .iter()
-                    .map(|&v| beam.cases[v].name.clone())
-                    .collect();
-                beam.service(
-                    &names.join("+"),
-                    &variable.iter().map(|&v| (v, 1.0)).collect::<Vec<_>>(),
-                    DeflectionLimit {
-                        ratio: Some(n_live),
-                        absolute: None,
-                    },
-                );
-            }
-            let all: Vec<(usize, f64)> = (0..beam.cases.len()).map(|i| (i, 1.0)).collect();
-            beam.service(
-                "total",
-                &all,
-                DeflectionLimit {
-                    ratio: Some(n_total),
-                    absolute: None,
-                },
-            );
-        }
-    }
-    Ok(())
+) -> Result<Vec<String>> {
+    presets::standard(beam, strength, service, n_live, n_total)
 }

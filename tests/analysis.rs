@@ -129,7 +129,7 @@ fn continuous_equal_spans_uniform() {
     // three equal spans: M_support = 0.100wL², M+ end span = 0.080wL².
     let (l, w) = (4000.0, 7.0);
     let (mut b, d) = single(vec![l, l], vec![Pinned, Pinned, Pinned]);
-    b.cases[d].pattern = false;
+    b.cases[d].pattern = Pattern::None;
     b.udl(d, w);
     let (dm, m, _, _) = moments(&b);
     close("M support", m.min, -w * l * l / 8.0);

@@ -251,7 +251,7 @@ proptest! {
         let mut worst = [f64::NEG_INFINITY, f64::INFINITY, 0.0f64, 0.0f64];
         for mask in 0u32..(1 << st.len()) {
             let mut b = beam.clone();
-            b.cases[1].pattern = false;
+            b.cases[1].pattern = Pattern::None;
             let live: Vec<_> = b.loads.iter().filter(|l| l.case == 1).cloned().collect();
             b.loads.retain(|l| l.case != 1);
             for ld in live {
@@ -304,7 +304,7 @@ proptest! {
         depth in 200.0..600.0f64,
     ) {
         let mut beam = continuous(spans, seed);
-        for c in beam.cases.iter_mut() { c.pattern = false; }
+        for c in beam.cases.iter_mut() { c.pattern = Pattern::None; }
         let shape = Shape::WeldedI { bf: 150.0, tf: 10.0, hw: depth, tw: 6.0 };
         let p = shape.properties().unwrap();
         let mass = p.mass_per_length(7850.0);

@@ -133,8 +133,6 @@ fn analyse_prints_reactions_and_extremes() {
         "3kN/m",
         "--E",
         "200GPa",
-        "--Fb",
-        "165MPa",
         "--Ix",
         "8356cm4",
         "--stations",
@@ -154,6 +152,12 @@ fn analyse_prints_reactions_and_extremes() {
     ]);
     let v: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();
     assert!(v["extremes"].as_array().unwrap().len() >= 4);
+    // An allowable stress means nothing to an analysis: refused, not ignored.
+    let o = run(&[
+        "analyse", "--span", "4m", "--dead", "2kN/m", "--E", "200GPa", "--Fb", "165MPa",
+    ]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(text(&o).1.contains("--Fb only affect"), "{}", text(&o).1);
 }
 
 #[test]

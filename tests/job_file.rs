@@ -26,14 +26,16 @@ fn demo_job_reads_as_written() {
     }
     assert_eq!(job.material.e, 200_000.0);
     assert_eq!(job.criteria.bracing, Bracing::Spacing(2000.0));
-    // ASCE 7-16 §2.4.1 with only D and L present: D and D+L (from memory).
+    // ASCE 7-16 §2.4.1 (from memory) with only D and L present, an absent
+    // load contributing zero: (1) D, (2) D+L, (4) D+0.75L and (7) 0.6D;
+    // (3), (5) and (6a) repeat (1) and (4) and are not listed twice.
     let strength: Vec<_> = b
         .combinations
         .iter()
         .filter(|c| c.kind == ComboKind::Strength)
         .map(|c| c.name.as_str())
         .collect();
-    assert_eq!(strength, vec!["D", "D+L"]);
+    assert_eq!(strength, vec!["D", "D+L", "D+0.75L", "0.6D"]);
     // IBC Table 1604.3 floor members: L/360 live, L/240 total (from memory).
     let limits: Vec<f64> = b
         .combinations

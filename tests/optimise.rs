@@ -132,7 +132,7 @@ fn steel() -> Material {
 }
 
 fn girder_problem(e: f64, fy: f64) -> Problem {
-    let (lf, lw) = optimise::default_slenderness(Family::WeldedI, e, fy);
+    let (lf, lw) = optimise::compact_slenderness(Family::WeldedI, e, fy);
     Problem {
         family: Family::WeldedI,
         bounds: vec![(80.0, 500.0), (5.0, 40.0), (200.0, 1200.0), (4.0, 25.0)],

@@ -422,7 +422,7 @@ fn schedule_bill_adds_up() {
         grades: &job.grades,
     };
     let (rows, _, _) = search::load_rows(vec![cat], &mats, false, &Filters::default()).unwrap();
-    let results = batch::size(&members, &rows, &mats, &Filters::default()).unwrap();
+    let results = batch::size(&members, &rows, &mats, &Filters::default(), false).unwrap();
     let choice: Vec<Option<usize>> = results.iter().map(|r| r.chosen).collect();
     let bill = batch::bill(&results, &choice, &rows);
     let pieces: u32 = bill.iter().map(|l| l.pieces).sum();

@@ -508,12 +508,18 @@ impl Demand {
                 w2: 1.0,
             }],
         )?;
-        // Pattern parts per (case, stretch), analysed once and shared by combos.
+        // Pattern parts per (case, stretch), analysed once and shared by
+        // combos. Skip loading: each part on or off. Partial loading: half
+        // of the case everywhere, plus each part's other half on or off.
         let mut parts: Vec<Vec<(String, Response)>> = vec![Vec::new(); beam.cases.len()];
+        let mut part_share = vec![1.0; beam.cases.len()];
         let multi = stretches.len() > 1;
         for (ci, case) in beam.cases.iter().enumerate() {
-            if !(case.pattern && multi) {
+            if !(case.pattern.is_on() && multi) {
                 continue;
+            }
+            if case.pattern == super::model::Pattern::Partial {
+                part_share[ci] = 0.5;
             }
             for (si, s) in stretches.iter().enumerate() {
                 let clipped: Vec<MeshLoad> = case_loads[ci]
@@ -568,11 +574,15 @@ impl Demand {
                         sw_factor += f;
                     }
                     if !parts[ci].is_empty() {
+                        let share = part_share[ci];
                         for (label, r) in &parts[ci] {
                             let mut p = Response::zero(ne, nodes);
-                            p.add_scaled(f, r);
+                            p.add_scaled(f * share, r);
                             patterns.push(p);
                             pattern_labels.push(label.clone());
+                        }
+                        if share < 1.0 {
+                            fixed.add_scaled(f * (1.0 - share), &cases[ci]);
                         }
                     } else {
                         fixed.add_scaled(f, &cases[ci]);

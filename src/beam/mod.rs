@@ -5,10 +5,11 @@
 pub mod analysis;
 pub mod demand;
 pub mod model;
+pub mod presets;
 pub mod solve;
 
 pub use demand::{Applied, Demand, Extremes, Quantity, SectionLoad};
 pub use model::{
-    Beam, Category, Combination, ComboKind, DeflectionLimit, Load, LoadCase, LoadKind, Stretch,
-    Support,
+    Beam, Category, Combination, ComboKind, DeflectionLimit, Load, LoadCase, LoadKind, Pattern,
+    Stretch, Support,
 };

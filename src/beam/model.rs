@@ -89,8 +89,39 @@ impl Category {
         }
     }
     /// Live-type loads may occupy any subset of spans (pattern loading).
-    pub fn patterns_by_default(self) -> bool {
-        matches!(self, Category::Live | Category::RoofLive)
+    pub fn patterns_by_default(self) -> Pattern {
+        match self {
+            Category::Live | Category::RoofLive => Pattern::Skip,
+            _ => Pattern::None,
+        }
+    }
+}
+
+/// How a case's loads are arranged over the spans.
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Pattern {
+    /// As given, on every span together.
+    #[default]
+    None,
+    /// Skip loading: on each span present or absent, whichever is worse at
+    /// every station (live load, ASCE 7-16 §4.3.3 partial loading).
+    Skip,
+    /// Partial loading: on each span full or half, whichever is worse (the
+    /// balanced snow load on continuous beams, ASCE 7-16 §7.5, from memory).
+    Partial,
+}
+
+impl Pattern {
+    pub fn is_on(self) -> bool {
+        self != Pattern::None
+    }
+    pub fn words(self) -> &'static str {
+        match self {
+            Pattern::None => "",
+            Pattern::Skip => "patterned by span: on or off",
+            Pattern::Partial => "patterned by span: full or half",
+        }
     }
 }
 
@@ -99,9 +130,8 @@ impl Category {
 pub struct LoadCase {
     pub name: String,
     pub category: Category,
-    /// Apply pattern (skip) loading: the case's loads on each span are
-    /// taken as present or absent, whichever is worse, at every station.
-    pub pattern: bool,
+    /// Arrangement over the spans (pattern loading).
+    pub pattern: Pattern,
 }
 
 /// A load of one case.
@@ -156,6 +186,9 @@ pub struct Combination {
     /// (case index, factor).
     pub factors: Vec<(usize, f64)>,
     pub limit: Option<DeflectionLimit>,
+    /// Where the combination comes from (a preset's standard and number).
+    #[serde(default)]
+    pub source: Option<String>,
 }
 
 /// A prismatic beam in a line of segments.
@@ -512,6 +545,7 @@ impl Beam {
             kind,
             factors: factors.to_vec(),
             limit: None,
+            source: None,
         });
         self
     }
@@ -527,6 +561,7 @@ impl Beam {
             kind: ComboKind::Service,
             factors: factors.to_vec(),
             limit: Some(limit),
+            source: None,
         });
         self
     }

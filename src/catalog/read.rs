@@ -70,6 +70,19 @@ pub fn open<R: Read>(input: R, file: &str, opts: &ReadOptions) -> Result<Catalog
             "the header has a single column but contains ';' or tabs: use --delimiter ';' (or 'tab') for this file",
         ));
     }
+    if names.len() == 1 && opts.delimiter != b',' && names[0].contains(',') {
+        return Err(Error::input(
+            Location::in_file(file).with_line(line),
+            format!(
+                "the header has a single column when split at '{}' (--delimiter) but contains commas: leave --delimiter out for a comma-separated file",
+                if opts.delimiter == b'\t' {
+                    "tab".to_string()
+                } else {
+                    (opts.delimiter as char).to_string()
+                }
+            ),
+        ));
+    }
     let schema = Schema::parse(&names, &Location::in_file(file).with_line(1))?;
     Ok(Catalog {
         file: file.to_string(),

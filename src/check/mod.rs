@@ -1432,6 +1432,9 @@ impl Prepared {
             }),
         }
         v.push("every support restrains the member laterally and against twist".into());
+        if !c.self_weight {
+            v.push("the section's self-weight is not included (by the user's choice)".into());
+        }
         if c.braced_flange == BracedFlange::Top
             && matches!(c.bracing, Bracing::Continuous | Bracing::Spacing(_))
         {

@@ -13,7 +13,7 @@ use beamsift::units::{self, Dim, Show};
 use serde::Serialize;
 
 pub const EXAMPLES: &str = "Examples:
-  beamsift analyse --span 5m,5m --dead 2kN/m --live 3kN/m --E 200GPa --Fb 165MPa --Ix 8356cm4
+  beamsift analyse --span 5m,5m --dead 2kN/m --live 3kN/m --E 200GPa --Ix 8356cm4
   beamsift analyse --job catalogs/demo-job.toml rolled-i d=300mm bf=150mm tf=10.7mm tw=7.1mm r=15mm
   beamsift analyse --job job.toml --Ix 120e6mm4 --stations --format csv";
 
@@ -41,7 +41,16 @@ struct Analysed {
 }
 
 pub fn run(a: Args, out: &Out) -> Result<i32> {
-    let job = a.job.load()?;
+    let job = a.job.load_for_analysis()?;
+    if a.section.is_empty() {
+        let sw = a.job.self_weight_flags();
+        if !sw.is_empty() {
+            return Err(Error::msg(format!(
+                "{} set(s) the self-weight, which needs a section (its area): give a section after the options, or leave them out",
+                sw.join(", ")
+            )));
+        }
+    }
     let sys = out.units;
     let (ix, mass, section) = if let Some((fam, dims)) = a.section.split_first() {
         if a.ix.is_some() {
@@ -249,6 +258,9 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
             "δ down and δ up: the largest downward and the largest upward movement in each part (δ up printed as a positive magnitude)".into(),
         ],
     );
+    if !job.notes.is_empty() {
+        doc.list("Notes:", job.notes.clone());
+    }
     doc.caution(vec![
         "any section strength, stability or serviceability (use `check`)".into(),
     ]);

@@ -37,12 +37,13 @@ pub struct Args {
     /// Rationalise for least total mass or least total cost.
     #[arg(long, value_parser = ["mass", "cost"], default_value = "mass")]
     pub objective: String,
-    /// Deflection limit under variable load (when the template has no service preset).
-    #[arg(long = "limit-live", default_value = "L/360")]
-    pub limit_live: String,
-    /// Deflection limit under total load (when the template has no service preset).
-    #[arg(long = "limit-total", default_value = "L/240")]
-    pub limit_total: String,
+    /// Deflection limit under variable load, for members without a service
+    /// preset (refused when the template has one) [default: L/360].
+    #[arg(long = "limit-live")]
+    pub limit_live: Option<String>,
+    /// Deflection limit under total load, likewise [default: L/240].
+    #[arg(long = "limit-total")]
+    pub limit_total: Option<String>,
 }
 
 #[derive(Serialize)]
@@ -134,8 +135,16 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     let shown = a.job.display().to_string();
     let text = beamsift::job::read_text(&a.job, &shown)?;
     let template = job::from_toml(&text, &shown)?;
-    let n_live = job::parse_ratio(&a.limit_live).map_err(|e| e.in_field("--limit-live"))?;
-    let n_total = job::parse_ratio(&a.limit_total).map_err(|e| e.in_field("--limit-total"))?;
+    if template.presets.1.is_some() && (a.limit_live.is_some() || a.limit_total.is_some()) {
+        return Err(Error::msg(format!(
+            "the template's [presets] service = \"{}\" sets the deflection limits: remove it from {shown}, or leave out --limit-live/--limit-total",
+            template.presets.1.as_deref().unwrap_or("")
+        )));
+    }
+    let n_live = job::parse_ratio(a.limit_live.as_deref().unwrap_or("L/360"))
+        .map_err(|e| e.in_field("--limit-live"))?;
+    let n_total = job::parse_ratio(a.limit_total.as_deref().unwrap_or("L/240"))
+        .map_err(|e| e.in_field("--limit-total"))?;
     let sched_shown = a.schedule.display().to_string();
     let f = std::fs::File::open(&a.schedule).map_err(|e| Error::io(&sched_shown, e))?;
     let members = batch::read_schedule(
@@ -156,9 +165,9 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         base: &template.material,
         grades: &template.grades,
     };
-    let filters = a.cat.filters()?;
-    let (rows, _counts, _skipped) = search::load_rows(cats, &mats, a.cat.skip_bad_rows, &filters)?;
-    let results = batch::size(&members, &rows, &mats, &filters)?;
+    let filters = a.cat.filters_for(&template)?;
+    let (rows, counts, _skipped) = search::load_rows(cats, &mats, a.cat.skip_bad_rows, &filters)?;
+    let results = batch::size(&members, &rows, &mats, &filters, a.objective == "cost")?;
     let choice: Vec<Option<usize>> = results.iter().map(|r| r.chosen).collect();
     let bill = batch::bill(&results, &choice, &rows);
     let (total_mass, total_cost) = totals(&bill);
@@ -211,14 +220,29 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     };
     let mut doc = Document::new(format!("Schedule {}", sched_shown));
     doc.para(format!(
-        "{} member mark(s) sized against {} section(s); template {} ({}).",
+        "{} member mark(s) sized against {} section(s){}{}; template {} ({}).",
         members.len(),
         rows.len(),
+        if counts.filtered > 0 {
+            format!(" ({} row(s) left out by the filters)", counts.filtered)
+        } else {
+            String::new()
+        },
+        if a.cat.skip_bad_rows {
+            format!(", {} bad row(s) skipped", counts.bad)
+        } else {
+            String::new()
+        },
         shown,
         template.material.name
     ));
+    let mut legend = super::select::Legend::default();
     let mut t = Table::new(
-        "Members (lightest passing section each)",
+        if a.objective == "cost" {
+            "Members (cheapest passing section each)"
+        } else {
+            "Members (lightest passing section each)"
+        },
         &[
             ("Mark", Align::Left),
             ("Count", Align::Right),
@@ -228,6 +252,8 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
             ("Utilisation", Align::Right),
             ("Governed by", Align::Left),
             ("Passing sections", Align::Right),
+            ("Lighter, not verified", Align::Right),
+            ("Not checked", Align::Left),
         ],
     );
     for m in &result.members {
@@ -245,9 +271,24 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
                 .unwrap_or_else(|| "—".into()),
             m.result.governing.clone().unwrap_or_default(),
             m.result.passing.len().to_string(),
+            m.result.lighter_not_verified.to_string(),
+            legend.keys(&m.result.not_checked),
         ]);
     }
     doc.table(t);
+    if let Some(m) = result
+        .members
+        .iter()
+        .find(|m| m.result.lighter_not_verified > 0)
+    {
+        doc.list(
+            format!(
+                "Lighter sections that are not verified were not chosen (a limit state that applies could not be evaluated), e.g. for {}:",
+                m.result.mark
+            ),
+            m.result.not_verified_reasons.clone(),
+        );
+    }
     doc.table(bill_table("Bill of quantities", &result.bill, sys, &cur));
     if let Some(r) = &result.rationalised {
         doc.heading(format!(
@@ -285,10 +326,36 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
             if a.max_sizes.is_some() { " (rationalisation needs every member sized)" } else { "" }
         ));
     }
-    doc.caution(vec![
-        "lateral stability of members whose bracing the schedule and template leave unstated".into(),
-        "bearing and web crippling at supports and point loads, connections, vibration, fire resistance, durability, combined axial load and torsion".into(),
-    ]);
+    // Each distinct assumption or note once, with the marks it concerns.
+    let grouped = |pick: &dyn Fn(&MemberResult) -> &Vec<String>| -> Vec<String> {
+        let mut out: Vec<(String, Vec<String>)> = Vec::new();
+        for m in &results {
+            for x in pick(m) {
+                match out.iter_mut().find(|(t, _)| t == x) {
+                    Some((_, marks)) => marks.push(m.mark.clone()),
+                    None => out.push((x.clone(), vec![m.mark.clone()])),
+                }
+            }
+        }
+        out.into_iter()
+            .map(|(t, marks)| {
+                if marks.len() == results.len() {
+                    t
+                } else {
+                    format!("{}: {t}", marks.join(", "))
+                }
+            })
+            .collect()
+    };
+    let assumptions = grouped(&|m| &m.assumptions);
+    let notes = grouped(&|m| &m.notes);
+    super::select::finish_doc(
+        &mut doc,
+        &template.criteria.exclude.list(),
+        &assumptions,
+        &notes,
+        legend,
+    );
     emit(out, &report::render(out.format, &result, &doc))?;
     Ok(if not_sized.is_empty() { 0 } else { EXIT_FAILS })
 }

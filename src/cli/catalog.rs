@@ -311,7 +311,7 @@ fn generate(a: GenerateArgs, out: &Out) -> Result<i32> {
                     .transpose()?;
             let (df, dw) = fy
                 .map(|fy| {
-                    beamsift::optimise::default_slenderness(
+                    beamsift::optimise::compact_slenderness(
                         beamsift::optimise::Family::WeldedI,
                         e,
                         fy,

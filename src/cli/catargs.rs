@@ -60,6 +60,22 @@ impl CatalogArgs {
         Ok(ReadOptions { delimiter: d })
     }
 
+    /// The filters, checked against the job: a grade the job does not
+    /// define can match no row (rows naming it are refused), so it is
+    /// refused here rather than filtering everything out silently.
+    pub fn filters_for(&self, job: &beamsift::job::Job) -> Result<Filters> {
+        if let Some(g) = &self.grade
+            && !job.grades.iter().any(|(n, _)| n.eq_ignore_ascii_case(g))
+        {
+            let known: Vec<&str> = job.grades.iter().map(|(n, _)| n.as_str()).collect();
+            return Err(Error::msg(format!(
+                "--grade {g}: the job defines no such grade (expected one of [{}]; grades are [materials.NAME] tables)",
+                known.join(", ")
+            )));
+        }
+        self.filters()
+    }
+
     pub fn filters(&self) -> Result<Filters> {
         let len = |v: &Option<String>, n: &str| -> Result<Option<f64>> {
             v.as_deref()

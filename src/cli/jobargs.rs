@@ -120,6 +120,65 @@ impl JobArgs {
         v
     }
 
+    /// The options that only matter to section checks (refused by
+    /// `analyse`, which checks no section).
+    fn check_flags(&self) -> Vec<&'static str> {
+        let mut v = Vec::new();
+        for (given, name) in [
+            (self.fb.is_some(), "--Fb"),
+            (self.fv.is_some(), "--Fv"),
+            (self.fy.is_some(), "--Fy"),
+            (self.e_min.is_some(), "--Emin"),
+            (self.kind.is_some(), "--kind"),
+            (self.bracing.is_some(), "--bracing"),
+            (self.braced_flange.is_some(), "--braced-flange"),
+            (self.load_height.is_some(), "--load-height"),
+            (self.exclude.is_some(), "--exclude"),
+        ] {
+            if given {
+                v.push(name);
+            }
+        }
+        v
+    }
+
+    /// Build the job for `analyse`: options that only affect section checks
+    /// are refused, and the allowable bending stress is not needed.
+    pub fn load_for_analysis(&self) -> Result<Job> {
+        let refused = self.check_flags();
+        if !refused.is_empty() {
+            return Err(Error::msg(format!(
+                "{} only affect(s) section checks: analyse checks no section (use `beamsift check`)",
+                refused.join(", ")
+            )));
+        }
+        if self.job.is_some() {
+            return self.load();
+        }
+        // An allowable is needed to build a material; it is never used here.
+        let mut me = self.clone();
+        me.fb = Some("1MPa".into());
+        let mut job = me.build_from_flags()?;
+        job.material.fb_tension = None;
+        job.material.fb_compression = None;
+        job.material.name = "as given by flags (stiffness and density only)".into();
+        job.notes.retain(|n| !n.contains("--kind"));
+        Ok(job)
+    }
+
+    /// Whether the options ask for self-weight settings (which need a
+    /// section's area to mean anything).
+    pub fn self_weight_flags(&self) -> Vec<&'static str> {
+        let mut v = Vec::new();
+        if self.density.is_some() {
+            v.push("--density");
+        }
+        if self.no_self_weight {
+            v.push("--no-self-weight");
+        }
+        v
+    }
+
     /// Build the job (reading the job file if one is named).
     pub fn load(&self) -> Result<Job> {
         if let Some(path) = &self.job {
@@ -181,6 +240,12 @@ impl JobArgs {
             set.push(format!("--Fy {}", self.fy.as_deref().unwrap_or("")));
         }
         if let Some(v) = stress(&self.e_min, "--Emin")? {
+            if m.kind != beamsift::check::MaterialKind::Timber {
+                return Err(Error::msg(format!(
+                    "--Emin is a timber value, but the material is {}: give --kind timber too, or leave --Emin out",
+                    m.kind.name()
+                )));
+            }
             m.timber.e_min = Some(v);
             set.push(format!("--Emin {}", self.e_min.as_deref().unwrap_or("")));
         }
@@ -296,16 +361,18 @@ impl JobArgs {
             job::parse_ratio(self.limit_total.as_deref().unwrap_or("L/240")),
             "--limit-total",
         )?;
-        flag(
+        let mut notes = flag(
             job::standard_combinations(&mut beam, self.preset.as_deref(), None, n_live, n_total),
             "--preset",
         )?;
+        if beamsift::beam::presets::partial_snow(self.preset.as_deref()) {
+            job::set_partial_snow(&mut beam, &[], &mut notes);
+        }
         let stress = |v: &Option<String>, name: &str| -> Result<Option<f64>> {
             v.as_deref()
                 .map(|t| flag(units::parse(t, Dim::Stress), name))
                 .transpose()
         };
-        let mut notes = Vec::new();
         let e = stress(&self.e, "--E")?.ok_or_else(|| {
             Error::msg("missing the modulus of elasticity: add --E (e.g. --E 200GPa)")
         })?;
@@ -349,6 +416,13 @@ impl JobArgs {
             timber: Default::default(),
         };
         material.timber.e_min = stress(&self.e_min, "--Emin")?;
+        if material.timber.e_min.is_some() && material.kind != beamsift::check::MaterialKind::Timber
+        {
+            return Err(Error::msg(format!(
+                "--Emin is a timber value, but the material is {}: leave --kind out or give --kind timber",
+                material.kind.name()
+            )));
+        }
         let mut criteria = Criteria::default();
         if let Some(b) = &self.bracing {
             criteria.bracing = flag(job::parse_bracing(b), "--bracing")?;

@@ -20,8 +20,16 @@ use beamsift::report::Format;
 use beamsift::units::System;
 use clap::{Parser, Subcommand};
 
+/// Exit code when everything asked for was done (and a checked section passes).
+pub const EXIT_OK: i32 = 0;
 /// Exit code when a check or a selection finds no passing section.
 pub const EXIT_FAILS: i32 = 1;
+/// Exit code for bad input (the message names the file, line, column or field).
+pub const EXIT_INPUT: i32 = 2;
+/// Exit code when a file could not be read or written.
+pub const EXIT_IO: i32 = 3;
+/// Exit code for a bug (a panic or a broken invariant).
+pub const EXIT_INTERNAL: i32 = 4;
 /// Exit code when a checked section is not verified: nothing evaluated
 /// fails, but a limit state that applies could not be evaluated.
 pub const EXIT_NOT_VERIFIED: i32 = 5;
@@ -103,7 +111,7 @@ pub fn main() -> i32 {
     let cli = Cli::parse();
     let outcome = std::panic::catch_unwind(std::panic::AssertUnwindSafe(|| run(cli)));
     let Ok(outcome) = outcome else {
-        return 4;
+        return EXIT_INTERNAL;
     };
     match outcome {
         Ok(code) => code,
@@ -111,7 +119,7 @@ pub fn main() -> i32 {
             if let Error::Io { source, .. } = &e
                 && source.kind() == std::io::ErrorKind::BrokenPipe
             {
-                return 0;
+                return EXIT_OK;
             }
             eprintln!("beamsift: error: {e}");
             let mut src = std::error::Error::source(&e);
@@ -119,8 +127,18 @@ pub fn main() -> i32 {
                 eprintln!("  caused by: {s}");
                 src = s.source();
             }
-            e.exit_code()
+            exit_code(&e)
         }
+    }
+}
+
+/// The documented exit code of an error.
+pub fn exit_code(e: &Error) -> i32 {
+    match e {
+        Error::Input { .. } | Error::Many(_) => EXIT_INPUT,
+        Error::NoSolution(_) => EXIT_FAILS,
+        Error::Io { .. } => EXIT_IO,
+        Error::Internal(_) => EXIT_INTERNAL,
     }
 }
 

@@ -40,24 +40,32 @@ pub struct Args {
     /// Largest d/b of a rectangle.
     #[arg(long)]
     pub aspect: Option<f64>,
-    /// Flange slenderness limit bf/(2tf) (default AISC 360-16 Table B4.1b 0.38√(E/Fy)).
+    /// Flange slenderness limit bf/(2tf) of I-shapes (default none: flange
+    /// local buckling is a constraint by AISC 360-16 F3/F4/F5).
     #[arg(long = "lambda-f")]
     pub lambda_f: Option<f64>,
-    /// Web slenderness limit hw/tw (default 3.76√(E/Fy)); wall (b−2t)/t for rhs (1.12√(E/Fy)).
+    /// Web slenderness limit hw/tw of I-shapes (default the AISC 360-16 F13.2
+    /// limit of unstiffened webs, min(0.40·E/Fy, 260)); wall (b−2t)/t of rhs
+    /// (default 5.70√(E/Fy), the end of the webs implemented by F7).
     #[arg(long = "lambda-w")]
     pub lambda_w: Option<f64>,
+    /// Keep flanges and webs compact (AISC 360-16 Table B4.1b λp), as some
+    /// fabricators prefer.
+    #[arg(long)]
+    pub compact: bool,
     /// What to minimise.
     #[arg(long, value_enum, default_value_t = Objective::Area)]
     pub objective: Objective,
-    /// Plate thicknesses available (a list with one unit at the end).
-    #[arg(long, default_value = "6,8,10,12,15,20,25,30,35,40,45,50mm")]
-    pub plates: String,
+    /// Plate thicknesses available (a list with one unit at the end)
+    /// [default: 6,8,10,12,15,20,25,30,35,40,45,50mm].
+    #[arg(long)]
+    pub plates: Option<String>,
     /// Price per kg of each plate thickness, same order as --plates (for --objective cost).
     #[arg(long = "plate-prices", value_name = "LIST")]
     pub plate_prices: Option<String>,
-    /// Step of plate widths and of depths other than thicknesses.
-    #[arg(long, default_value = "10mm")]
-    pub step: String,
+    /// Step of plate widths and of depths other than thicknesses [default: 10mm].
+    #[arg(long)]
+    pub step: Option<String>,
     /// Rectangle widths available (list with a unit), instead of --step.
     #[arg(long = "b-sizes", value_name = "LIST")]
     pub b_sizes: Option<String>,
@@ -331,7 +339,50 @@ fn sensitivities(
     out
 }
 
+/// Options that do not apply to the chosen family (or objective) are
+/// refused, never ignored.
+fn refuse_inapplicable(a: &Args) -> Result<()> {
+    let fam = a.family;
+    let mut bad = Vec::new();
+    let rect = fam == Family::Rect;
+    let i_shape = matches!(fam, Family::WeldedI | Family::MonoI);
+    if a.aspect.is_some() && !rect {
+        bad.push("--aspect (rectangles only)");
+    }
+    if (a.b_sizes.is_some() || a.d_sizes.is_some()) && !rect {
+        bad.push("--b-sizes/--d-sizes (rectangles only)");
+    }
+    if a.plates.is_some() && rect {
+        bad.push("--plates (a rectangle has no plate thickness: use --b-sizes/--d-sizes)");
+    }
+    if a.lambda_f.is_some() && !i_shape {
+        bad.push("--lambda-f (I-shapes only)");
+    }
+    if a.lambda_w.is_some() && rect {
+        bad.push("--lambda-w (I-shapes and rhs only)");
+    }
+    if a.compact && rect {
+        bad.push("--compact (a solid rectangle has no slender plates)");
+    }
+    if a.plate_prices.is_some() && a.objective != Objective::Cost {
+        bad.push("--plate-prices (only used with --objective cost)");
+    }
+    if a.step.is_some() && rect && a.b_sizes.is_some() && a.d_sizes.is_some() {
+        bad.push("--step (both --b-sizes and --d-sizes are given)");
+    }
+    if bad.is_empty() {
+        Ok(())
+    } else {
+        Err(Error::msg(format!(
+            "these options do not apply to optimising a {}: {}",
+            fam.variables().join("/"),
+            bad.join("; ")
+        )))
+    }
+}
+
 pub fn run(a: Args, out: &Out) -> Result<i32> {
+    refuse_inapplicable(&a)?;
     let job = a.job.load()?;
     let sys = out.units;
     let prep = Prepared::new(&job.beam, job.material.clone(), job.criteria.clone())?;
@@ -364,6 +415,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
             .transpose()
     };
     let (df, dw) = match job.material.fy {
+        Some(fy) if a.compact => optimise::compact_slenderness(fam, job.material.e, fy),
         Some(fy) => optimise::default_slenderness(fam, job.material.e, fy),
         None => (None, None),
     };
@@ -374,7 +426,12 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     {
         notes.push("no yield stress Fy in the job: no default slenderness limits were applied (give --lambda-f and --lambda-w)".to_string());
     }
-    let plates = parse_list(&a.plates, "--plates")?;
+    let plates = parse_list(
+        a.plates
+            .as_deref()
+            .unwrap_or("6,8,10,12,15,20,25,30,35,40,45,50mm"),
+        "--plates",
+    )?;
     let plate_prices = match &a.plate_prices {
         Some(t) => {
             let prices: Vec<f64> = t
@@ -405,7 +462,8 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     };
     let cont = optimise::continuous(&prob, &prep, a.starts)?;
     // Fabrication grid.
-    let step = units::parse(&a.step, Dim::Length).map_err(|e| e.in_field("--step"))?;
+    let step = units::parse(a.step.as_deref().unwrap_or("10mm"), Dim::Length)
+        .map_err(|e| e.in_field("--step"))?;
     let mut values = Vec::new();
     for (i, &(lo, hi)) in prob.bounds.iter().enumerate() {
         let v = if fam == Family::Rect && i == 0 && a.b_sizes.is_some() {
@@ -499,8 +557,10 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
             "Flange limit bf/(2·tf)".into(),
             format!(
                 "{l:.2}{}",
-                if a.lambda_f.is_none() {
-                    " (AISC 360-16 B4.1b compact, 0.38√(E/Fy))"
+                if a.lambda_f.is_some() {
+                    " (as given)"
+                } else if a.compact {
+                    " (compact, AISC 360-16 Table B4.1b λp = 0.38√(E/Fy))"
                 } else {
                     ""
                 }
@@ -516,10 +576,14 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
             },
             format!(
                 "{l:.2}{}",
-                if a.lambda_w.is_none() {
-                    " (AISC 360-16 B4.1b compact)"
+                if a.lambda_w.is_some() {
+                    " (as given)"
+                } else if a.compact {
+                    " (compact, AISC 360-16 Table B4.1b λp)"
+                } else if fam == Family::Rhs {
+                    " (5.70√(E/Fy): the webs AISC 360-16 F7 covers here)"
                 } else {
-                    ""
+                    " (AISC 360-16 F13.2, unstiffened web: min(0.40·E/Fy, 260))"
                 }
             ),
         ]);

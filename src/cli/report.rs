@@ -75,13 +75,18 @@ pub fn write(
     sys: System,
     prefix: &Path,
     material: Option<&beamsift::check::Material>,
-) -> Result<(PathBuf, PathBuf, beamsift::check::Verdict)> {
+) -> Result<(
+    PathBuf,
+    PathBuf,
+    beamsift::report::calc::Sheet,
+    beamsift::check::Verdict,
+)> {
     let r = member::member_check(job, prep, name, props, mass, material);
     let s = sheet::build(job, prep, &r, source, alternatives, sys);
     let (md, html) = report_paths(prefix);
     write_atomic(&md, sheet::markdown(&s).as_bytes())?;
     write_atomic(&html, sheet::html(&s).as_bytes())?;
-    Ok((md, html, r.verdict))
+    Ok((md, html, s, r.verdict))
 }
 
 /// A table of alternatives from a scan.
@@ -111,6 +116,15 @@ pub fn alternatives(list: &[Candidate], skip: &str, sys: System) -> Option<Table
 }
 
 pub fn run(a: Args, out: &Out) -> Result<i32> {
+    if matches!(
+        out.format,
+        beamsift::report::Format::Csv | beamsift::report::Format::Markdown
+    ) {
+        return Err(Error::msg(
+            "report writes PREFIX.md and PREFIX.html (--to): --format csv or markdown has no meaning here (use --format json for the sheet's data on standard output)",
+        )
+        .in_field("--format"));
+    }
     let mut inputs = a.catalog.clone();
     inputs.extend(a.job.job.clone());
     check_paths(&a.to, out.force, &inputs)?;
@@ -160,7 +174,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         let opts = ScanOptions {
             ranks: vec![(Rank::Mass, 6)],
             near: 1,
-            filters: cat.filters()?,
+            filters: cat.filters_for(&job)?,
             ..ScanOptions::default()
         };
         let (sel, _) = run_scan(&job, &prep, &cat, &opts)?;
@@ -176,7 +190,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         };
         let c = pick.ok_or_else(|| match &a.section {
             Some(n) => Error::msg(format!("no section named '{n}' in the catalogue")),
-            None => Error::msg("no catalogue section passes: nothing to report (see `beamsift select` for the nearest misses)"),
+            None => Error::NoSolution("no catalogue section passes: nothing to report (see `beamsift select` for the nearest misses, and the sections not verified)".into()),
         })?;
         let src = format!(
             "catalogue {} line {}; {}",
@@ -203,7 +217,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         )
     };
     let row_material = row_mat.as_ref().map(|m| mats.get(m).clone());
-    let (md, html, verdict) = write(
+    let (md, html, sheet, verdict) = write(
         &job,
         &prep,
         &name,
@@ -215,14 +229,22 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         &a.to,
         row_material.as_ref(),
     )?;
-    emit(
-        out,
-        &format!(
-            "Wrote {} and {} for {name}: {}.\n",
-            md.display(),
-            html.display(),
-            verdict.word()
-        ),
-    )?;
+    let summary = format!(
+        "Wrote {} and {} for {name}: {}.\n",
+        md.display(),
+        html.display(),
+        verdict.word()
+    );
+    if out.format == beamsift::report::Format::Json {
+        emit(
+            out,
+            &format!(
+                "{}\n",
+                serde_json::to_string_pretty(&sheet).unwrap_or_default()
+            ),
+        )?;
+    } else {
+        emit(out, &summary)?;
+    }
     Ok(super::check::verdict_code(verdict))
 }

@@ -255,7 +255,7 @@ fn table(title: &str, rows: &[RankedRow], sys: System, cur: &str, legend: &mut L
     t
 }
 
-fn counts_line(sel: &Selection) -> String {
+fn counts_line(sel: &Selection, skip_bad_rows: bool) -> String {
     let c = &sel.counts;
     let mut s = format!(
         "{} row(s) read from {}: {} checked, {} pass, {} fail, {} not verified",
@@ -269,7 +269,7 @@ fn counts_line(sel: &Selection) -> String {
     if c.filtered > 0 {
         s.push_str(&format!(", {} left out by the filters", c.filtered));
     }
-    if c.bad > 0 {
+    if c.bad > 0 || skip_bad_rows {
         s.push_str(&format!(", {} bad row(s) skipped", c.bad));
     }
     s.push('.');
@@ -288,7 +288,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     let opts = ScanOptions {
         ranks: vec![(a.rank, top)],
         near: a.near,
-        filters: a.cat.filters()?,
+        filters: a.cat.filters_for(&job)?,
         skip_bad_rows: a.cat.skip_bad_rows,
         include_unverified: a.include_unverified,
         ..ScanOptions::default()
@@ -319,7 +319,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     for t in member::job_tables(&job, sys) {
         doc.table(t);
     }
-    doc.para(counts_line(&sel));
+    doc.para(counts_line(&sel, a.cat.skip_bad_rows));
     let rank_word = match a.rank {
         Rank::Mass => "lightest first",
         Rank::Cost => "cheapest first",
@@ -471,6 +471,9 @@ struct ShortlistResult {
     by_cost: Vec<PricedRow>,
     by_mass: Vec<PricedRow>,
     counts: search::Counts,
+    excluded: Vec<String>,
+    assumptions: Vec<String>,
+    notes: Vec<String>,
     caution: &'static str,
 }
 
@@ -487,7 +490,7 @@ pub fn run_shortlist(a: ShortlistArgs, out: &Out) -> Result<i32> {
     let top = a.top.max(1);
     let opts = ScanOptions {
         ranks: vec![(Rank::Cost, top), (Rank::Mass, top)],
-        filters: a.cat.filters()?,
+        filters: a.cat.filters_for(&job)?,
         skip_bad_rows: a.cat.skip_bad_rows,
         ..ScanOptions::default()
     };
@@ -513,6 +516,9 @@ pub fn run_shortlist(a: ShortlistArgs, out: &Out) -> Result<i32> {
         by_cost: priced(&sel.lists[0].items),
         by_mass: priced(&sel.lists[1].items),
         counts: sel.counts.clone(),
+        excluded: prep.criteria.exclude.list(),
+        assumptions: prep.assumptions(),
+        notes: job.notes.clone(),
         caution: report::CAUTION,
     };
     let mut doc = Document::new(format!("Shortlist for {}", job.title));
@@ -521,7 +527,7 @@ pub fn run_shortlist(a: ShortlistArgs, out: &Out) -> Result<i32> {
         a.count,
         Show::Span.fmt(length, sys),
         Show::Span.fmt(total_len, sys),
-        counts_line(&sel)
+        counts_line(&sel, a.cat.skip_bad_rows)
     ));
     let mut legend = Legend::default();
     let w = if sys == System::Si { "kg" } else { "lb" };
@@ -591,9 +597,9 @@ pub fn run_shortlist(a: ShortlistArgs, out: &Out) -> Result<i32> {
     }
     finish_doc(
         &mut doc,
-        &prep.criteria.exclude.list(),
-        &prep.assumptions(),
-        &job.notes,
+        &result.excluded,
+        &result.assumptions,
+        &result.notes,
         legend,
     );
     emit(out, &report::render(out.format, &result, &doc))?;

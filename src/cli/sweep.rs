@@ -69,12 +69,41 @@ pub struct TableArgs {
     /// Round spans down to a multiple of this (e.g. 10mm, 1in), as publishers do.
     #[arg(long)]
     pub round: Option<String>,
-    /// Bisection tolerance where no closed form applies.
-    #[arg(long, default_value = "1mm")]
-    pub tolerance: String,
+    /// Bisection tolerance where no closed form applies [default: 1mm].
+    #[arg(long)]
+    pub tolerance: Option<String>,
     /// Write the chart (SVG) here.
     #[arg(long, value_name = "FILE")]
     pub chart: Option<PathBuf>,
+}
+
+/// The job's exclusions and assumptions (for the result and its document).
+fn context(job: &beamsift::job::Job) -> Result<(Vec<String>, Vec<String>)> {
+    let prep = Prepared::new(&job.beam, job.material.clone(), job.criteria.clone())?;
+    Ok((prep.criteria.exclude.list(), prep.assumptions()))
+}
+
+/// Exclusions, assumptions, notes and what is not checked (per section
+/// kind, as a legend), then the caution.
+fn finish(
+    doc: &mut Document,
+    job: &beamsift::job::Job,
+    rows: &[Candidate],
+    mats: &Materials<'_>,
+) -> Result<()> {
+    let prep = Prepared::new(&job.beam, job.material.clone(), job.criteria.clone())?;
+    let mut legend = super::select::Legend::default();
+    for r in rows {
+        legend.keys(&prep.not_checked(&r.properties, Some(mats.get(&r.material))));
+    }
+    super::select::finish_doc(
+        doc,
+        &prep.criteria.exclude.list(),
+        &prep.assumptions(),
+        &job.notes,
+        legend,
+    );
+    Ok(())
 }
 
 fn parse_spans(text: &str) -> Result<Vec<f64>> {
@@ -121,20 +150,31 @@ struct LightestOut {
 #[derive(Serialize)]
 struct LightestResult {
     title: String,
+    excluded: Vec<String>,
+    assumptions: Vec<String>,
+    notes: Vec<String>,
     rows: Vec<LightestOut>,
     chart: Option<String>,
     caution: &'static str,
 }
 
-fn load(job: &beamsift::job::Job, cat: &CatalogArgs) -> Result<Vec<Candidate>> {
+fn load(job: &beamsift::job::Job, cat: &CatalogArgs) -> Result<(Vec<Candidate>, String)> {
     cat.setup_threads()?;
     let (cats, _) = cat.open()?;
     let mats = Materials {
         base: &job.material,
         grades: &job.grades,
     };
-    let (rows, _, _) = search::load_rows(cats, &mats, cat.skip_bad_rows, &cat.filters()?)?;
-    Ok(rows)
+    let (rows, c, _) = search::load_rows(cats, &mats, cat.skip_bad_rows, &cat.filters_for(job)?)?;
+    let mut line = format!("{} section(s) read", c.rows);
+    if c.filtered > 0 {
+        line.push_str(&format!(", {} left out by the filters", c.filtered));
+    }
+    if c.bad > 0 || cat.skip_bad_rows {
+        line.push_str(&format!(", {} bad row(s) skipped", c.bad));
+    }
+    line.push('.');
+    Ok((rows, line))
 }
 
 pub fn run(cmd: Cmd, out: &Out) -> Result<i32> {
@@ -152,7 +192,7 @@ fn run_lightest(a: LightestArgs, out: &Out) -> Result<i32> {
     }
     let job = a.job.load()?;
     let spans = parse_spans(&a.spans)?;
-    let rows = load(&job, &a.cat)?;
+    let (rows, rows_line) = load(&job, &a.cat)?;
     let mats = Materials {
         base: &job.material,
         grades: &job.grades,
@@ -239,13 +279,18 @@ fn run_lightest(a: LightestArgs, out: &Out) -> Result<i32> {
     if let (Some(p), Some(s)) = (&a.chart, &svg) {
         write_atomic(p, s.as_bytes())?;
     }
+    let (excluded, assumptions) = context(&job)?;
     let result = LightestResult {
         title: job.title.clone(),
+        excluded,
+        assumptions,
+        notes: job.notes.clone(),
         rows: out_rows,
         chart: a.chart.as_ref().map(|p| p.display().to_string()),
         caution: report::CAUTION,
     };
     let mut doc = Document::new(format!("Lightest section by span — {}", job.title));
+    doc.para(rows_line);
     let mut hs = vec![
         (format!("Span [{}]", Show::Span.label(sys)), Align::Right),
         ("Lightest passing".to_string(), Align::Left),
@@ -300,12 +345,7 @@ fn run_lightest(a: LightestArgs, out: &Out) -> Result<i32> {
             r.not_verified_reasons.clone(),
         );
     }
-    let nc = rows.first().map(|r| {
-        Prepared::new(&job.beam, job.material.clone(), job.criteria.clone())
-            .map(|p| p.not_checked(&r.properties, Some(mats.get(&r.material))))
-            .unwrap_or_default()
-    });
-    doc.caution(nc.unwrap_or_default());
+    finish(&mut doc, &job, &rows, &mats)?;
     emit(out, &report::render(out.format, &result, &doc))?;
     Ok(0)
 }
@@ -321,6 +361,9 @@ struct TableRow {
 #[derive(Serialize)]
 struct TableResult {
     title: String,
+    excluded: Vec<String>,
+    assumptions: Vec<String>,
+    notes: Vec<String>,
     /// Column labels.
     columns: Vec<String>,
     rows: Vec<TableRow>,
@@ -387,14 +430,14 @@ fn run_table(a: TableArgs, out: &Out) -> Result<i32> {
         .as_deref()
         .map(|t| units::parse(t, Dim::Length).map_err(|e| e.in_field("--round")))
         .transpose()?;
-    let tolerance =
-        units::parse(&a.tolerance, Dim::Length).map_err(|e| e.in_field("--tolerance"))?;
+    let tolerance = units::parse(a.tolerance.as_deref().unwrap_or("1mm"), Dim::Length)
+        .map_err(|e| e.in_field("--tolerance"))?;
     let opts = TableOptions {
         tolerance,
         round,
         ..TableOptions::default()
     };
-    let rows = load(&job, &a.cat)?;
+    let (rows, rows_line) = load(&job, &a.cat)?;
     let mats = Materials {
         base: &job.material,
         grades: &job.grades,
@@ -440,8 +483,12 @@ fn run_table(a: TableArgs, out: &Out) -> Result<i32> {
     if let (Some(p), Some(s)) = (&a.chart, &svg) {
         write_atomic(p, s.as_bytes())?;
     }
+    let (excluded, assumptions) = context(&job)?;
     let result = TableResult {
         title: job.title.clone(),
+        excluded,
+        assumptions,
+        notes: job.notes.clone(),
         columns: labels.clone(),
         rows: result_rows,
         rounded_to: round,
@@ -449,6 +496,7 @@ fn run_table(a: TableArgs, out: &Out) -> Result<i32> {
         caution: report::CAUTION,
     };
     let mut doc = Document::new(format!("Span table — {}", job.title));
+    doc.para(rows_line);
     let mut hs: Vec<(String, Align)> = vec![
         ("Section".into(), Align::Left),
         (format!("Mass [{}]", Show::Mass.label(sys)), Align::Right),
@@ -498,6 +546,9 @@ fn run_table(a: TableArgs, out: &Out) -> Result<i32> {
         },
         if methods.contains(&Method::Bisection) { format!("Found by bisection to {}. ", Show::Dimension.fmt(tolerance, sys)) } else { String::new() }
     ));
+    if a.tolerance.is_some() && !methods.contains(&Method::Bisection) {
+        doc.para("--tolerance was not used: every cell was found in closed form, exactly.");
+    }
     if let Some(r) = round {
         doc.para(format!(
             "Spans are rounded down to a multiple of {}.",
@@ -507,12 +558,7 @@ fn run_table(a: TableArgs, out: &Out) -> Result<i32> {
     if let Some(p) = &a.chart {
         doc.para(format!("Chart written to {}.", p.display()));
     }
-    let nc = rows.first().map(|r| {
-        Prepared::new(&job.beam, job.material.clone(), job.criteria.clone())
-            .map(|p| p.not_checked(&r.properties, Some(mats.get(&r.material))))
-            .unwrap_or_default()
-    });
-    doc.caution(nc.unwrap_or_default());
+    finish(&mut doc, &job, &rows, &mats)?;
     emit(out, &report::render(out.format, &result, &doc))?;
     Ok(0)
 }

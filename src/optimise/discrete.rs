@@ -136,7 +136,9 @@ pub fn search(
         let ranges: Vec<(usize, usize)> = grid.values.iter().map(|v| (0, v.len() - 1)).collect();
         let (best, count) = search_box(prob, prep, grid, &ranges);
         let best = best.ok_or_else(|| {
-            Error::msg("no point of the fabrication grid passes every check and limit")
+            Error::NoSolution(
+                "no point of the fabrication grid passes every check and limit".into(),
+            )
         })?;
         return Ok(DiscreteOptimum {
             x: best.2,
@@ -192,6 +194,6 @@ pub fn search(
     }
     // Still moving after several re-centrings: return the best seen.
     last.map(|b| DiscreteOptimum { x: b.2, area: b.1, objective: b.0, evaluated, whole_grid: false }).ok_or_else(|| {
-        Error::msg("no point of the fabrication grid near the continuous optimum passes: narrow the bounds or refine the steps")
+        Error::NoSolution("no point of the fabrication grid near the continuous optimum passes: narrow the bounds or refine the steps".into())
     })
 }

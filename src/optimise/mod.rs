@@ -190,11 +190,25 @@ pub struct Problem {
     pub plate_prices: Vec<(f64, f64)>,
 }
 
-/// Default slenderness limits: AISC 360-16 Table B4.1b compact limits,
-/// flanges of I-shapes in flexure (case 10) λp = 0.38√(E/Fy) and webs
-/// (case 15) λp = 3.76√(E/Fy); walls of rectangular HSS in flexure (case
-/// 17) λp = 1.12√(E/Fy), used for both walls (conservative).
+/// Default slenderness limits: the proportioning limits the methods need,
+/// nothing stricter — local buckling enters as a constraint through the
+/// exact piecewise capacities of AISC 360-16 F3–F5 and F7. I-shapes: webs
+/// h/t_w ≤ min(0.40·E/F_y, 260) (§F13.2, unstiffened webs), flanges
+/// unlimited; rectangular HSS: walls up to 5.70√(E/F_y) (the end of the
+/// webs F7 covers here).
 pub fn default_slenderness(family: Family, e: f64, fy: f64) -> (Option<f64>, Option<f64>) {
+    match family {
+        Family::WeldedI | Family::MonoI => (None, Some((0.40 * e / fy).min(260.0))),
+        Family::Rhs => (None, Some(5.70 * (e / fy).sqrt())),
+        Family::Rect => (None, None),
+    }
+}
+
+/// Compact limits (`--compact`): AISC 360-16 Table B4.1b λp, flanges of
+/// I-shapes in flexure (case 10) 0.38√(E/Fy) and webs (case 15)
+/// 3.76√(E/Fy); walls of rectangular HSS in flexure (case 17)
+/// 1.12√(E/Fy), used for both walls (conservative).
+pub fn compact_slenderness(family: Family, e: f64, fy: f64) -> (Option<f64>, Option<f64>) {
     let r = (e / fy).sqrt();
     match family {
         Family::WeldedI | Family::MonoI => (Some(0.38 * r), Some(3.76 * r)),
@@ -602,7 +616,21 @@ fn infeasible(prob: &Problem, prep: &Prepared, best: &Optimum) -> Error {
             )
         })
         .collect();
-    Error::msg(format!(
+    // A limit state that cannot be evaluated: say which and why.
+    let unverified = best
+        .constraints
+        .iter()
+        .any(|(c, g)| *c == Constraint::NotVerified && *g > 0.0);
+    if unverified && let Ok(p) = best.shape.properties() {
+        let s = prep.check(SectionInput::new(
+            &p,
+            p.mass_per_length(prep.material.density),
+        ));
+        for r in s.gaps.describe() {
+            lines.push(format!("not verified: {r}"));
+        }
+    }
+    Error::NoSolution(format!(
         "no shape within the bounds ({}) satisfies every constraint; the closest the optimiser came still violates the {worst}.{}\nTo make it feasible: raise the upper bounds{}, relax the limit named, or choose a stronger material.",
         bounds.join(", "),
         if lines.is_empty() {

@@ -323,10 +323,10 @@ pub fn job_tables(job: &Job, sys: System) -> Vec<Table> {
                 )
             }
         };
-        let pat = if c.pattern && b.stretches().len() > 1 {
-            " (patterned by span)"
+        let pat = if c.pattern.is_on() && b.stretches().len() > 1 {
+            format!(" ({})", c.pattern.words())
         } else {
-            ""
+            String::new()
         };
         loads.row(vec![
             c.name.clone(),
@@ -348,6 +348,7 @@ pub fn job_tables(job: &Job, sys: System) -> Vec<Table> {
             ("Kind", Align::Left),
             ("Factors", Align::Left),
             ("Limit", Align::Left),
+            ("Source", Align::Left),
         ],
     );
     for c in &b.combinations {
@@ -377,6 +378,7 @@ pub fn job_tables(job: &Job, sys: System) -> Vec<Table> {
             },
             f.join(" + "),
             limit,
+            c.source.clone().unwrap_or_else(|| "as given".into()),
         ]);
     }
     vec![member, loads, combos]

@@ -278,7 +278,7 @@ fn member_of(
         let ci = case_of(&mut beam, c);
         beam.load(ci, LoadKind::Point { x, p });
     }
-    job::standard_combinations(
+    let mut notes = job::standard_combinations(
         &mut beam,
         template.presets.0.as_deref(),
         service.as_deref().or(template.presets.1.as_deref()),
@@ -286,6 +286,9 @@ fn member_of(
         n_total,
     )
     .map_err(|e| (0, e))?;
+    if crate::beam::presets::partial_snow(template.presets.0.as_deref()) {
+        job::set_partial_snow(&mut beam, &[], &mut notes);
+    }
     beam.validate()
         .map_err(|e| (0, e.in_field(&format!("member {mark}"))))?;
     let mut criteria = template.criteria.clone();
@@ -296,7 +299,7 @@ fn member_of(
         title: mark.clone(),
         beam,
         criteria,
-        notes: Vec::new(),
+        notes,
         ..template.clone()
     };
     Ok(Member {
@@ -326,6 +329,16 @@ pub struct MemberResult {
     /// Utilisation of each passing row (same order).
     #[serde(skip)]
     pub utilisations: Vec<f64>,
+    /// Rows lighter than the chosen one that are not verified (never
+    /// chosen), and the reasons of the lightest of them.
+    pub lighter_not_verified: u64,
+    pub not_verified_reasons: Vec<String>,
+    /// What beamsift does not check for the chosen section.
+    pub not_checked: Vec<String>,
+    /// The member's assumptions (bracing, effective lengths, load height).
+    pub assumptions: Vec<String>,
+    /// How the member's job was interpreted.
+    pub notes: Vec<String>,
 }
 
 /// A line of the bill of quantities.
@@ -343,12 +356,15 @@ pub struct BoqLine {
 }
 
 /// Size every member against the loaded catalogue rows (in parallel over
-/// members). Rows are expected sorted by mass (then name).
+/// members): the lightest passing row, or with `by_cost` the cheapest
+/// (rows without a price last; ties to the lighter). Rows are expected
+/// sorted by mass (then name).
 pub fn size(
     members: &[Member],
     rows: &[Candidate],
     mats: &Materials<'_>,
     filters: &Filters,
+    by_cost: bool,
 ) -> Result<Vec<MemberResult>> {
     members
         .par_iter()
@@ -358,6 +374,7 @@ pub fn size(
             let mut passing = Vec::new();
             let mut utils = Vec::new();
             let mut best: Option<(usize, crate::check::Summary)> = None;
+            let mut unverified: Vec<(usize, crate::check::Summary)> = Vec::new();
             for (j, r) in rows.iter().enumerate() {
                 if m.max_depth.is_some_and(|d| r.depth > d * (1.0 + 1e-12))
                     || filters
@@ -371,11 +388,28 @@ pub fn size(
                 if s.passes {
                     passing.push(j);
                     utils.push(s.utilisation);
-                    if best.is_none() {
+                    let better = match &best {
+                        None => true,
+                        Some((b, _)) if by_cost => {
+                            rows[j].cost.unwrap_or(f64::INFINITY)
+                                < rows[*b].cost.unwrap_or(f64::INFINITY)
+                        }
+                        Some(_) => false,
+                    };
+                    if better {
                         best = Some((j, s));
                     }
+                } else if s.verdict == crate::check::Verdict::NotVerified {
+                    unverified.push((j, s));
                 }
             }
+            let lighter: Vec<&(usize, crate::check::Summary)> = unverified
+                .iter()
+                .filter(|(j, _)| {
+                    best.as_ref()
+                        .is_none_or(|(b, _)| rows[*j].mass < rows[*b].mass)
+                })
+                .collect();
             Ok(MemberResult {
                 mark: m.mark.clone(),
                 count: m.count,
@@ -387,6 +421,19 @@ pub fn size(
                     .map(|g| format!("{} ({})", g.kind.label(), prep.demand.combos[g.combo].name)),
                 passing,
                 utilisations: utils,
+                lighter_not_verified: lighter.len() as u64,
+                not_verified_reasons: lighter
+                    .first()
+                    .map(|(_, s)| s.gaps.describe())
+                    .unwrap_or_default(),
+                not_checked: best
+                    .as_ref()
+                    .map(|(j, _)| {
+                        prep.not_checked(&rows[*j].properties, Some(mats.get(&rows[*j].material)))
+                    })
+                    .unwrap_or_default(),
+                assumptions: prep.assumptions(),
+                notes: m.job.notes.clone(),
             })
         })
         .collect()
