@@ -98,8 +98,27 @@ fn section_checks(c: &mut Criterion) {
         tw: 8.0,
     };
     let p = shape.properties().unwrap();
-    let simple = Prepared::new(&simple_job(), steel(), Criteria::default()).unwrap();
-    let three = Prepared::new(&three_span_job(), steel(), Criteria::default()).unwrap();
+    // Both flanges continuously braced: bending (Fb and AISC F2 yielding),
+    // shear (Fv and G2), deflection.
+    let unbraced_free = Criteria {
+        bracing: Bracing::Continuous,
+        braced_flange: BracedFlange::Both,
+        ..Criteria::default()
+    };
+    let simple = Prepared::new(&simple_job(), steel(), unbraced_free.clone()).unwrap();
+    let three = Prepared::new(&three_span_job(), steel(), unbraced_free.clone()).unwrap();
+    let mut sprung = three_span_job();
+    sprung.supports[1] = Support::Spring(5000.0);
+    sprung.supports[2] = Support::Spring(5000.0);
+    let three_springs = Prepared::new(&sprung, steel(), unbraced_free.clone()).unwrap();
+    let mut one_spring = simple_job();
+    one_spring.spans = vec![4500.0, 4500.0];
+    one_spring.supports = vec![Support::Pinned, Support::Spring(5000.0), Support::Pinned];
+    for c in one_spring.cases.iter_mut() {
+        c.pattern = Pattern::None;
+    }
+    let simple_spring = Prepared::new(&one_spring, steel(), unbraced_free.clone()).unwrap();
+    let supports = Prepared::new(&simple_job(), steel(), Criteria::default()).unwrap();
     let braced = Prepared::new(
         &simple_job(),
         steel(),
@@ -112,9 +131,19 @@ fn section_checks(c: &mut Criterion) {
     c.bench_function("check/simple span, 2 combinations", |b| {
         b.iter(|| black_box(simple.check(SectionInput::new(black_box(&p), 60.0))))
     });
+    c.bench_function("check/simple span braced at the supports (F2 LTB)", |b| {
+        b.iter(|| black_box(supports.check(SectionInput::new(black_box(&p), 60.0))))
+    });
+    c.bench_function("check/two spans on a middle spring, 2 combinations", |b| {
+        b.iter(|| black_box(simple_spring.check(SectionInput::new(black_box(&p), 60.0))))
+    });
     c.bench_function("check/3 spans patterned, 6 combinations", |b| {
         b.iter(|| black_box(three.check(SectionInput::new(black_box(&p), 60.0))))
     });
+    c.bench_function(
+        "check/3 spans patterned on two springs, 6 combinations",
+        |b| b.iter(|| black_box(three_springs.check(SectionInput::new(black_box(&p), 60.0)))),
+    );
     c.bench_function("check/simple span with lateral buckling, 3 segments", |b| {
         b.iter(|| black_box(braced.check(SectionInput::new(black_box(&p), 60.0))))
     });
@@ -295,7 +324,11 @@ fn drivers(c: &mut Criterion) {
     let members = batch::read_schedule(text.as_bytes(), "s.csv", &tmpl, 360.0, 240.0).unwrap();
     g.bench_function(
         format!("schedule of 200 members x {} sections", rows.len()),
-        |b| b.iter(|| black_box(batch::size(&members, &rows, &mats, &Filters::default(), false).unwrap())),
+        |b| {
+            b.iter(|| {
+                black_box(batch::size(&members, &rows, &mats, &Filters::default(), false).unwrap())
+            })
+        },
     );
     g.finish();
 }

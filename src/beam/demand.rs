@@ -24,9 +24,8 @@
 //! reaction at spring i for a unit settlement of spring j (ρ is negative
 //! semi-definite, so the matrix is positive definite for k > 0). Every
 //! coefficient of the combined response is then c₀ + Σ_j u_j·c_j; the
-//! small inverse is formed once per section ([`Demand::section`]) and
-//! applied per combination ([`Demand::apply`]): no re-analysis and no
-//! allocation. k → ∞ gives u → 0 (rigid); k → 0 gives zero reaction at the
+//! small system is solved, on the stack, when a combination is applied to
+//! a section ([`Demand::apply`]): no re-analysis and no allocation. k → ∞ gives u → 0 (rigid); k → 0 gives zero reaction at the
 //! spring (support removed). Deflections stay measured from the chord of
 //! each span's displaced supports; the settlements are reported apart.
 
@@ -55,8 +54,8 @@ pub struct SpringBasis {
 }
 
 /// What the demand needs to know of one section: its self-weight
-/// intensity and, with springs, the inverse of its compatibility matrix.
-/// Built once per section by [`Demand::section`].
+/// intensity and bending stiffness. Built once per section by
+/// [`Demand::section`].
 #[derive(Clone, Debug)]
 pub struct SectionLoad {
     /// Self-weight intensity, N/mm.
@@ -64,11 +63,8 @@ pub struct SectionLoad {
     /// Bending stiffness E·I, N·mm² (only needed with springs and for
     /// deflections).
     pub ei: f64,
-    /// Number of springs (0: the fields below are unused).
+    /// Number of springs.
     ns: usize,
-    /// (diag(k/(E·I)) − ρ)⁻¹, row-major ns × ns; None without springs, so
-    /// the common case copies nothing.
-    ainv: Option<[f64; MAX_SPRINGS * MAX_SPRINGS]>,
 }
 
 /// One combination applied to one section: the self-weight scale and the
@@ -101,6 +97,87 @@ pub struct ComboDemand {
     /// The section-independent part of the pattern envelope, per quantity
     /// (moment, shear, deflection); empty without patterns.
     pub env: Vec<PatternEnv>,
+    /// Per element and quantity, the extremes precomputed for every section
+    /// where they can be (no patterns, no springs); empty otherwise.
+    pub pre: Vec<[Pre; 3]>,
+}
+
+/// An element's extremes, known before any section is checked.
+///
+/// The combined polynomial of an element is fixed + s·unit, s the
+/// section's self-weight intensity (times the combination's factor). When
+/// the combination has no self-weight, it is fixed for every section; when
+/// fixed = a·unit on the element (a uniform load over the whole beam, the
+/// commonest job), it is (a + s)·unit, whose extremes are those of unit
+/// scaled by a + s (max and min swap when a + s < 0). Only the remaining
+/// elements are solved per section.
+#[derive(Clone, Copy, Debug)]
+pub enum Pre {
+    /// Depends on the section: solved per section.
+    Solve,
+    /// fixed = a·unit: the extremes of unit (local positions).
+    Scaled { a: f64, ex: Extremes },
+    /// No self-weight in the combination: the extremes of fixed.
+    Fixed(Extremes),
+}
+
+impl Pre {
+    /// The extremes for self-weight scale `s` (local positions), if known.
+    #[inline]
+    fn at(&self, s: f64) -> Option<Extremes> {
+        match *self {
+            Pre::Solve => None,
+            Pre::Fixed(ex) => Some(ex),
+            Pre::Scaled { a, ex } => {
+                let k = a + s;
+                Some(if k >= 0.0 {
+                    Extremes {
+                        max: k * ex.max,
+                        x_max: ex.x_max,
+                        min: k * ex.min,
+                        x_min: ex.x_min,
+                    }
+                } else {
+                    Extremes {
+                        max: k * ex.min,
+                        x_max: ex.x_min,
+                        min: k * ex.max,
+                        x_min: ex.x_max,
+                    }
+                })
+            }
+        }
+    }
+}
+
+/// Is `f` = a·`u` as a polynomial of quantity `q` on [0, l]? Compared at
+/// seven stations (more than the six coefficients of a quintic), to 1e-12
+/// of the largest value.
+fn proportional(q: Quantity, f: &Coef, u: &Coef, l: f64) -> Option<f64> {
+    let mut fv = [0.0; NST];
+    let mut uv = [0.0; NST];
+    for k in 0..NST {
+        let s = l * k as f64 / (NST - 1) as f64;
+        fv[k] = eval(q, f, s);
+        uv[k] = eval(q, u, s);
+    }
+    let (uu, fu): (f64, f64) = uv
+        .iter()
+        .zip(&fv)
+        .fold((0.0, 0.0), |(a, b), (u, f)| (a + u * u, b + f * u));
+    if uu == 0.0 {
+        return None;
+    }
+    let a = fu / uu;
+    let big = fv
+        .iter()
+        .zip(&uv)
+        .fold(0.0f64, |m, (f, u)| m.max(f.abs()).max((a * u).abs()));
+    let ok = fv
+        .iter()
+        .zip(&uv)
+        .all(|(f, u)| (f - a * u).abs() <= 1e-12 * big);
+    ok.then_some(a)
 }
 
 /// Stations per element, ends included, for pattern envelopes.
@@ -605,7 +682,30 @@ impl Demand {
                         patterns.len()
                     )));
                 }
+                let pre = if patterns.is_empty() && springs.is_empty() {
+                    (0..ne)
+                        .map(|e| {
+                            let l = len[e];
+                            [Quantity::Moment, Quantity::Shear, Quantity::Deflection].map(|q| {
+                                if sw_factor == 0.0 {
+                                    Pre::Fixed(element_extremes(q, &fixed.elems[e], l))
+                                } else {
+                                    match proportional(q, &fixed.elems[e], &unit_sw.elems[e], l) {
+                                        Some(a) => Pre::Scaled {
+                                            a,
+                                            ex: element_extremes(q, &unit_sw.elems[e], l),
+                                        },
+                                        None => Pre::Solve,
+                                    }
+                                }
+                            })
+                        })
+                        .collect()
+                } else {
+                    Vec::new()
+                };
                 Ok(ComboDemand {
+                    pre,
                     name: c.name.clone(),
                     kind: c.kind,
                     limit: c.limit,
@@ -632,75 +732,58 @@ impl Demand {
     }
 
     /// Prepare a section: self-weight intensity `w_sw` (N/mm) and bending
-    /// stiffness `ei` (N·mm²). With springs, forms the inverse of
-    /// diag(k/(E·I)) − ρ (Gauss–Jordan with partial pivoting on the stack).
+    /// stiffness `ei` (N·mm²). Small and cheap: the spring compatibility is
+    /// solved when a combination is applied.
+    #[inline]
     pub fn section(&self, w_sw: f64, ei: f64) -> SectionLoad {
-        let ns = self.springs.len();
-        if ns == 0 {
-            return SectionLoad {
-                w_sw,
-                ei,
-                ns,
-                ainv: None,
-            };
-        }
-        let mut a = [0.0f64; MAX_SPRINGS * MAX_SPRINGS];
-        let mut inv = [0.0f64; MAX_SPRINGS * MAX_SPRINGS];
-        for i in 0..ns {
-            for j in 0..ns {
-                a[i * ns + j] = -self.rho[i * ns + j];
-            }
-            a[i * ns + i] += self.springs[i].k / ei;
-            inv[i * ns + i] = 1.0;
-        }
-        for c in 0..ns {
-            let p = (c..ns)
-                .max_by(|&x, &y| a[x * ns + c].abs().total_cmp(&a[y * ns + c].abs()))
-                .unwrap_or(c);
-            if p != c {
-                for j in 0..ns {
-                    a.swap(c * ns + j, p * ns + j);
-                    inv.swap(c * ns + j, p * ns + j);
-                }
-            }
-            let d = a[c * ns + c];
-            for j in 0..ns {
-                a[c * ns + j] /= d;
-                inv[c * ns + j] /= d;
-            }
-            for r in 0..ns {
-                if r != c {
-                    let f = a[r * ns + c];
-                    if f != 0.0 {
-                        for j in 0..ns {
-                            a[r * ns + j] -= f * a[c * ns + j];
-                            inv[r * ns + j] -= f * inv[c * ns + j];
-                        }
-                    }
-                }
-            }
-        }
         SectionLoad {
             w_sw,
             ei,
-            ns,
-            ainv: Some(inv),
+            ns: self.springs.len(),
         }
     }
 
-    /// The spring correction u = A⁻¹·R₀ for a response (scaled by `f`).
-    #[inline]
+    /// The spring correction u for a response (scaled by `f`): the
+    /// solution of (diag(k/(E·I)) − ρ)·u = f·R₀ by Gaussian elimination with
+    /// partial pivoting, on the stack (the system is a few springs wide).
+    #[allow(clippy::needless_range_loop)]
     fn spring_u(&self, sect: &SectionLoad, r: &Response, f: f64) -> [f64; MAX_SPRINGS] {
-        let mut u = [0.0; MAX_SPRINGS];
         let ns = sect.ns;
-        if let Some(ainv) = &sect.ainv {
-            for i in 0..ns {
-                let mut acc = 0.0;
-                for j in 0..ns {
-                    acc += ainv[i * ns + j] * r.reaction[self.springs[j].node];
-                }
-                u[i] = f * acc;
+        let mut u = [0.0; MAX_SPRINGS];
+        if ns == 0 {
+            return u;
+        }
+        let mut a = [[0.0f64; MAX_SPRINGS]; MAX_SPRINGS];
+        for i in 0..ns {
+            for j in 0..ns {
+                a[i][j] = -self.rho[i * ns + j];
             }
+            a[i][i] += self.springs[i].k / sect.ei;
+            u[i] = f * r.reaction[self.springs[i].node];
+        }
+        for c in 0..ns {
+            let p = (c..ns)
+                .max_by(|&x, &y| a[x][c].abs().total_cmp(&a[y][c].abs()))
+                .unwrap_or(c);
+            a.swap(c, p);
+            u.swap(c, p);
+            let d = a[c][c];
+            for r in c + 1..ns {
+                let m = a[r][c] / d;
+                if m != 0.0 {
+                    for j in c..ns {
+                        a[r][j] -= m * a[c][j];
+                    }
+                    u[r] -= m * u[c];
+                }
+            }
+        }
+        for i in (0..ns).rev() {
+            let mut v = u[i];
+            for j in i + 1..ns {
+                v -= a[i][j] * u[j];
+            }
+            u[i] = v / a[i][i];
         }
         u
     }
@@ -805,21 +888,24 @@ impl Demand {
     ) -> Extremes {
         let combo = a.combo;
         let mut ex = Extremes::EMPTY;
+        let qi = match q {
+            Quantity::Moment => 0,
+            Quantity::Shear => 1,
+            Quantity::Deflection => 2,
+        };
         if combo.patterns.is_empty() {
+            let pre = &combo.pre;
             for e in elems {
-                let c = self.base_coef(a, e);
-                let mut el = element_extremes(q, &c, self.len[e]);
+                let mut el = match pre.get(e).and_then(|p| p[qi].at(a.s)) {
+                    Some(el) => el,
+                    None => element_extremes(q, &self.base_coef(a, e), self.len[e]),
+                };
                 el.x_max += self.mesh.x[e];
                 el.x_min += self.mesh.x[e];
                 ex.merge(&el);
             }
             return ex.cleaned();
         }
-        let qi = match q {
-            Quantity::Moment => 0,
-            Quantity::Shear => 1,
-            Quantity::Deflection => 2,
-        };
         let Some(env) = combo.env.get(qi) else {
             return self.extremes_per_section(a, q, elems).cleaned();
         };

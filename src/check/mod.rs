@@ -960,12 +960,24 @@ impl Prepared {
         p: &Properties,
         m: &Material,
     ) -> Option<std::result::Result<steel::Steel, Gap>> {
+        self.steel_for(p, m, true)
+    }
+
+    /// The steel strengths, with lateral-torsional buckling constants only
+    /// when asked for.
+    #[inline]
+    fn steel_for(
+        &self,
+        p: &Properties,
+        m: &Material,
+        with_ltb: bool,
+    ) -> Option<std::result::Result<steel::Steel, Gap>> {
         if m.kind != MaterialKind::Steel {
             return None;
         }
         Some(match m.fy {
             None => Err(Gap::NoYieldStress),
-            Some(fy) => steel::strengths(p, fy, m.e).map_err(|e| match e {
+            Some(fy) => steel::strengths_for(p, fy, m.e, with_ltb).map_err(|e| match e {
                 steel::Missing::Properties => Gap::SteelProperties,
                 steel::Missing::Range => Gap::SteelRange,
                 steel::Missing::Shape => Gap::ShapeUnknown,
@@ -984,10 +996,12 @@ impl Prepared {
         let ei = m.e_eff() * p.ix;
         let sl = d.section(w, ei);
         let timber = m.kind == MaterialKind::Timber;
-        let steel = match self.steel(p, m) {
+        let need_ltb = !self.segments.is_empty() && !ex.lateral_torsional_buckling;
+        let steel_res = self.steel_for(p, m, need_ltb);
+        let steel = match &steel_res {
             Some(Ok(s)) => Some(s),
             Some(Err(g)) => {
-                sink.gap(g);
+                sink.gap(*g);
                 None
             }
             None => None,
@@ -1078,7 +1092,7 @@ impl Prepared {
                     ));
                 }
             }
-            if let Some(st) = &steel {
+            if let Some(st) = steel {
                 for (sense, m0, x) in [
                     (Sense::Sagging, mx.max, mx.x_max),
                     (Sense::Hogging, mx.min, mx.x_min),
@@ -1184,7 +1198,7 @@ impl Prepared {
                 }
             }
             if !ex.lateral_torsional_buckling {
-                self.stability(p, m, &a, ci, cd, steel.as_ref(), sink);
+                self.stability(p, m, &a, ci, cd, steel, sink);
             }
         }
         if !ex.deflection {

@@ -138,6 +138,8 @@ pub struct Nominal {
 pub enum Ltb {
     /// No lateral-torsional buckling (closed round sections).
     None,
+    /// Not asked for (the job has no unbraced segment).
+    NotComputed,
     /// §F2.2 (also for §F3): M_p, 0.7·F_y·S_x, L_p, L_r, r_ts, J·c/(S_x·h_0), S_x.
     F2 {
         mp: f64,
@@ -195,6 +197,10 @@ impl Ltb {
             Ltb::None => Nominal {
                 mn: f64::INFINITY,
                 eq: "no lateral-torsional buckling",
+            },
+            Ltb::NotComputed => Nominal {
+                mn: f64::NAN,
+                eq: "not computed",
             },
             Ltb::F2 {
                 mp,
@@ -430,9 +436,17 @@ fn plastic_axis(g: &IGeometry) -> f64 {
 
 /// The steel strengths of a section, or why they cannot be evaluated.
 pub fn strengths(p: &Properties, fy: f64, e: f64) -> Result<Steel, Missing> {
+    strengths_for(p, fy, e, true)
+}
+
+/// As [`strengths`]; with `with_ltb` false the lateral-torsional buckling
+/// constants of I-shapes are left out (`Ltb::NotComputed`), for jobs with
+/// no unbraced segment.
+#[inline]
+pub fn strengths_for(p: &Properties, fy: f64, e: f64, with_ltb: bool) -> Result<Steel, Missing> {
     match p.form {
-        Form::RolledI | Form::WeldedI => i_shape(p, fy, e, p.form == Form::RolledI),
-        Form::Given if p.i_geometry.is_some() => i_shape(p, fy, e, false),
+        Form::RolledI | Form::WeldedI => i_shape(p, fy, e, p.form == Form::RolledI, with_ltb),
+        Form::Given if p.i_geometry.is_some() => i_shape(p, fy, e, false, with_ltb),
         Form::Rhs { b, h, t, r_out } => rhs(p, fy, e, b, h, t, r_out),
         Form::Chs { d, t } => chs(p, fy, e, d, t),
         Form::Rect { b, d } => bar(p, fy, e, Some((b, d))),
@@ -441,7 +455,14 @@ pub fn strengths(p: &Properties, fy: f64, e: f64) -> Result<Steel, Missing> {
     }
 }
 
-fn i_shape(p: &Properties, fy: f64, e: f64, rolled: bool) -> Result<Steel, Missing> {
+#[inline]
+fn i_shape(
+    p: &Properties,
+    fy: f64,
+    e: f64,
+    rolled: bool,
+    with_ltb: bool,
+) -> Result<Steel, Missing> {
     let g = p.i_geometry.ok_or(Missing::Shape)?;
     let (iy, zx) = (
         p.iy.ok_or(Missing::Properties)?,
@@ -543,22 +564,26 @@ fn i_shape(p: &Properties, fy: f64, e: f64, rolled: bool) -> Result<Steel, Missi
         let rt = bfc / (12.0 * (1.0 + aw / 6.0)).sqrt();
         if sym && web_class.class == Class::Compact {
             let sx = sx_min;
-            let cw = p.cw.unwrap_or(f64::NAN);
-            let ry = (iy / p.area).sqrt();
-            let lp = 1.76 * ry * sq;
-            let rts = ((iy * cw).sqrt() / sx).sqrt();
-            let jc = j / (sx * g.h0);
-            let lr = 1.95 * rts * e / (0.7 * fy)
-                * (jc + (jc * jc + 6.76 * (0.7 * fy / e).powi(2)).sqrt()).sqrt();
             let mp2 = fy * zx;
-            let ltb = Ltb::F2 {
-                mp: mp2,
-                mr: 0.7 * fy * sx,
-                lp,
-                lr,
-                rts,
-                jc,
-                sx,
+            let ltb = if with_ltb {
+                let cw = p.cw.unwrap_or(f64::NAN);
+                let ry = (iy / p.area).sqrt();
+                let lp = 1.76 * ry * sq;
+                let rts = ((iy * cw).sqrt() / sx).sqrt();
+                let jc = j / (sx * g.h0);
+                let lr = 1.95 * rts * e / (0.7 * fy)
+                    * (jc + (jc * jc + 6.76 * (0.7 * fy / e).powi(2)).sqrt()).sqrt();
+                Ltb::F2 {
+                    mp: mp2,
+                    mr: 0.7 * fy * sx,
+                    lp,
+                    lr,
+                    rts,
+                    jc,
+                    sx,
+                }
+            } else {
+                Ltb::NotComputed
             };
             let flange = match flange_class.class {
                 Class::Compact => None,
@@ -639,14 +664,18 @@ fn i_shape(p: &Properties, fy: f64, e: f64, rolled: bool) -> Result<Steel, Missi
                 flange,
                 web: None,
                 tension_flange,
-                ltb: Ltb::F4 {
-                    mmax: rpc * myc,
-                    mr: fl * sxc,
-                    lp,
-                    lr,
-                    rt,
-                    jc,
-                    sxc,
+                ltb: if with_ltb {
+                    Ltb::F4 {
+                        mmax: rpc * myc,
+                        mr: fl * sxc,
+                        lp,
+                        lr,
+                        rt,
+                        jc,
+                        sxc,
+                    }
+                } else {
+                    Ltb::NotComputed
                 },
                 flange_class: Some(flange_class),
                 web_class: Some(web_class),
@@ -693,7 +722,8 @@ fn i_shape(p: &Properties, fy: f64, e: f64, rolled: bool) -> Result<Steel, Missi
         }
     };
     let sag = sense(true);
-    let hog = sense(false);
+    // A doubly symmetric section bends the same way either way.
+    let hog = if sym { sag } else { sense(false) };
     if (sag.provision == Provision::F2 || sag.provision == Provision::F3) && p.cw.is_none() {
         return Err(Missing::Properties);
     }
@@ -839,8 +869,10 @@ fn rhs(
         (1.51 * kv * e / (lam * lam * fy), "G4-1 with C_v2 by G2-11")
     };
     let aw = 2.0 * h * t;
+    // The section is symmetric about its mid-depth: both senses alike.
+    let f = sense(true);
     Ok(Steel {
-        flexure: [sense(true), sense(false)],
+        flexure: [f, f],
         shear: Shear {
             vn: 0.6 * fy * aw * cv,
             omega: OMEGA_V,

@@ -9,7 +9,7 @@ use beamsift::catalog::Materials;
 use beamsift::check::Prepared;
 use beamsift::error::{Error, Result};
 use beamsift::optimise::{self, Family, Objective, Problem};
-use beamsift::report::{self, Align, Document, Table, chart};
+use beamsift::report::{self, Align, Document, Table, chart, member};
 use beamsift::search::{self, Candidate};
 use beamsift::sweep::{self, Cell, Method, TableOptions};
 use beamsift::units::{self, Dim, Show};
@@ -290,6 +290,9 @@ fn run_lightest(a: LightestArgs, out: &Out) -> Result<i32> {
         caution: report::CAUTION,
     };
     let mut doc = Document::new(format!("Lightest section by span — {}", job.title));
+    for t in member::job_tables(&job, sys) {
+        doc.table(t);
+    }
     doc.para(rows_line);
     let mut hs = vec![
         (format!("Span [{}]", Show::Span.label(sys)), Align::Right),
@@ -496,6 +499,9 @@ fn run_table(a: TableArgs, out: &Out) -> Result<i32> {
         caution: report::CAUTION,
     };
     let mut doc = Document::new(format!("Span table — {}", job.title));
+    for t in member::job_tables(&job, sys) {
+        doc.table(t);
+    }
     doc.para(rows_line);
     let mut hs: Vec<(String, Align)> = vec![
         ("Section".into(), Align::Left),

@@ -132,6 +132,8 @@ pub enum Constraint {
     WebSlenderness,
     /// (b − 2t)/t ≤ λ for a hollow section.
     WallSlenderness,
+    /// 0.1 ≤ Iyc/Iy ≤ 0.9 (AISC 360-16 F13.2) for a mono-symmetric I.
+    FlangeProportion,
     Lower(usize),
     Upper(usize),
 }
@@ -153,6 +155,9 @@ impl Constraint {
             Constraint::FlangeSlenderness => "flange slenderness bf/(2·tf)".into(),
             Constraint::WebSlenderness => "web slenderness hw/tw".into(),
             Constraint::WallSlenderness => "wall slenderness (b − 2t)/t".into(),
+            Constraint::FlangeProportion => {
+                "flange proportion 0.1 ≤ Iyc/Iy ≤ 0.9 (AISC 360-16 F13.2)".into()
+            }
             Constraint::Lower(i) => format!("lower bound on {}", vars[i]),
             Constraint::Upper(i) => format!("upper bound on {}", vars[i]),
         }
@@ -343,6 +348,15 @@ impl Problem {
                 }
                 if let Some(lw) = self.lambda_w {
                     g.push((Constraint::WebSlenderness, hw / tw / lw - 1.0));
+                }
+                if self.family == Family::MonoI {
+                    // AISC 360-16 F13-2: 0.1 ≤ Iyc/Iy ≤ 0.9 for either flange
+                    // in compression (as a bound the solver can follow;
+                    // beyond it the check is not verified anyway).
+                    let it = x[1] * x[0].powi(3);
+                    let ib = x[3] * x[2].powi(3);
+                    let r = it / (it + ib);
+                    g.push((Constraint::FlangeProportion, (0.1 - r).max(r - 0.9) / 0.1));
                 }
             }
             Family::Rhs => {

@@ -1,0 +1,331 @@
+//! Timber by the ANSI/AWC National Design Specification (NDS) 2018 (from
+//! memory; verify against the edition in force): the beam stability factor
+//! C_L (§3.3.3, eq. 3.3-5 and 3.3-6, ℓe by Table 3.3.3), load duration C_D
+//! per combination (Table 2.3.2), the adjustment factors of Table 4.3.1 and
+//! long-term deflection with K_cr (§3.5.2). Values are worked by hand in the
+//! tests from those equations (round-off tolerance).
+
+mod common;
+
+use beamsift::beam::*;
+use beamsift::catalog::Materials;
+use beamsift::check::timber::{effective_length, stability};
+use beamsift::check::*;
+use beamsift::search::{self, Rank, ScanOptions};
+use beamsift::section::Shape;
+
+fn span(l: f64) -> (Beam, usize, usize) {
+    let mut b = Beam::new(vec![l], vec![Support::Pinned, Support::Roller]);
+    let d = b.case("D", Category::Dead);
+    let lv = b.case("L", Category::Live);
+    b.udl(d, 0.5).udl(lv, 1.5);
+    (b, d, lv)
+}
+
+#[test]
+fn beam_stability_factor_by_hand() {
+    // 38 × 286 (a 2×12 dressed), ℓu = 2.4 m: ℓu/d = 8.39, so Table 3.3.3
+    // (single span or cantilever, any load) gives ℓe = 1.63ℓu + 3d =
+    // 4770 mm; RB = √(ℓe·d/b²) = 30.74 (3.3-5); FbE = 1.20·Emin′/RB²;
+    // CL by 3.3-6.
+    let (b, d, lu) = (38.0, 286.0, 2400.0);
+    let le = 1.63 * lu + 3.0 * d;
+    assert!((effective_length(lu, d) - le).abs() < 1e-9);
+    let rb2 = le * d / (b * b);
+    let (fb_star, emin) = (10.0, 4400.0);
+    let fbe = 1.20 * emin / rb2;
+    let x = fbe / fb_star;
+    let a = (1.0 + x) / 1.9;
+    let cl = a - (a * a - x / 0.95).sqrt();
+    let s = stability(lu, b, d, fb_star, emin).unwrap();
+    common::close("RB", s.rb, rb2.sqrt(), 1e-12);
+    common::close("CL", s.cl, cl, 1e-12);
+    assert!((0.5..0.55).contains(&cl), "CL {cl}");
+    // The other rows of the table's "any load" entry.
+    common::close(
+        "ℓu/d < 7",
+        effective_length(1000.0, 286.0),
+        2.06 * 1000.0,
+        1e-12,
+    );
+    common::close(
+        "ℓu/d > 14.3",
+        effective_length(5000.0, 286.0),
+        1.84 * 5000.0,
+        1e-12,
+    );
+    // d ≤ b: CL = 1 (3.3.3.1); RB > 50 is outside the method (3.3.3.7).
+    assert_eq!(
+        stability(3000.0, 100.0, 100.0, 10.0, 4400.0).unwrap().cl,
+        1.0
+    );
+    assert!(stability(20_000.0, 20.0, 400.0, 10.0, 4400.0).is_none());
+}
+
+#[test]
+fn the_stability_line_in_a_member_check() {
+    // Simply supported 2.4 m, braced at the supports only: one segment of
+    // ℓu = 2.4 m; fb = M/S against Fb′ = Fb·CD·CL (CD = 1.0 fixed here).
+    let (beam, d, lv) = span(2400.0);
+    let mut beam = beam;
+    beam.combo("D+L", ComboKind::Strength, &[(d, 1.0), (lv, 1.0)]);
+    beam.service(
+        "L",
+        &[(lv, 1.0)],
+        DeflectionLimit {
+            ratio: Some(360.0),
+            absolute: None,
+        },
+    );
+    let m = common::timber(11_000.0, 10.0, 1.0, 4400.0, 1.0, 0.0);
+    let prep = Prepared::new(
+        &beam,
+        m,
+        Criteria {
+            bracing: Bracing::Supports,
+            self_weight: false,
+            ..Criteria::default()
+        },
+    )
+    .unwrap();
+    let p = Shape::Rect { b: 38.0, d: 286.0 }.properties().unwrap();
+    let (items, gaps) = prep.check_all(SectionInput::new(&p, 0.0));
+    assert!(gaps.is_empty(), "{:?}", gaps.describe());
+    let st = items
+        .iter()
+        .find(|i| i.kind == CheckKind::LateralTorsional)
+        .unwrap();
+    let cl = stability(2400.0, 38.0, 286.0, 10.0, 4400.0).unwrap().cl;
+    common::close("Fb′ = Fb·CL", st.capacity, 10.0 * cl, 1e-12);
+    let mmax = 2.0 * 2400.0f64.powi(2) / 8.0;
+    common::close("fb", st.demand, mmax / p.s_top, 1e-9);
+    // Continuously braced compression edge: CL = 1, no stability line.
+    let prep = Prepared::new(
+        &beam,
+        common::timber(11_000.0, 10.0, 1.0, 4400.0, 1.0, 0.0),
+        Criteria {
+            bracing: Bracing::Continuous,
+            self_weight: false,
+            ..Criteria::default()
+        },
+    )
+    .unwrap();
+    let (items, gaps) = prep.check_all(SectionInput::new(&p, 0.0));
+    assert!(gaps.is_empty());
+    assert!(!items.iter().any(|i| i.kind == CheckKind::LateralTorsional));
+}
+
+#[test]
+fn load_duration_per_combination_nds_table_2_3_2() {
+    // Permanent (dead) 0.9, ten years (live) 1.0, two months (snow) 1.15,
+    // ten minutes (wind) 1.6: the shortest-duration load in the combination
+    // decides (from memory).
+    let mut b = Beam::new(vec![3000.0], vec![Support::Pinned, Support::Roller]);
+    let d = b.case("D", Category::Dead);
+    let l = b.case("L", Category::Live);
+    let s = b.case("S", Category::Snow);
+    let w = b.case("W", Category::Wind);
+    b.udl(d, 1.0);
+    b.combo("D", ComboKind::Strength, &[(d, 1.0)]);
+    b.combo("D+L", ComboKind::Strength, &[(d, 1.0), (l, 1.0)]);
+    b.combo("D+S", ComboKind::Strength, &[(d, 1.0), (s, 1.0)]);
+    b.combo(
+        "D+0.75L+0.45W+0.75S",
+        ComboKind::Strength,
+        &[(d, 1.0), (l, 0.75), (w, 0.45), (s, 0.75)],
+    );
+    b.service(
+        "L",
+        &[(l, 1.0)],
+        DeflectionLimit {
+            ratio: Some(360.0),
+            absolute: None,
+        },
+    );
+    let mut m = common::timber(11_000.0, 10.0, 1.0, 4400.0, 1.0, 0.0);
+    m.timber.cd = None;
+    let prep = Prepared::new(
+        &b,
+        m.clone(),
+        Criteria {
+            bracing: Bracing::Continuous,
+            self_weight: false,
+            ..Criteria::default()
+        },
+    )
+    .unwrap();
+    assert_eq!(&prep.duration[..4], &[0.9, 1.0, 1.15, 1.6]);
+    // The bending line of combination D carries Fb·0.9.
+    let p = Shape::Rect { b: 50.0, d: 200.0 }.properties().unwrap();
+    let (items, _) = prep.check_all(SectionInput::new(&p, 0.0));
+    let bd = items
+        .iter()
+        .find(|i| i.kind == CheckKind::BendingSaggingBottom && i.combo == 0)
+        .unwrap();
+    common::close("Fb′ under D", bd.capacity, 10.0 * 0.9, 1e-12);
+}
+
+#[test]
+fn adjustment_factors_multiply_the_reference_values() {
+    // Fb′ = Fb·CD·CM·Ct·CF·Cfu·Ci·Cr and Fv′ = Fv·CD·CM·Ct·Ci (Table 4.3.1);
+    // E′ = E·CM·Ct·Ci for deflection.
+    let (mut beam, d, lv) = span(3000.0);
+    beam.combo("D+L", ComboKind::Strength, &[(d, 1.0), (lv, 1.0)]);
+    beam.service(
+        "L",
+        &[(lv, 1.0)],
+        DeflectionLimit {
+            ratio: Some(360.0),
+            absolute: None,
+        },
+    );
+    let mut m = common::timber(11_000.0, 10.0, 1.0, 4400.0, 1.0, 0.0);
+    m.timber = TimberFactors {
+        e_min: Some(4400.0),
+        cd: Some(1.0),
+        cm_fb: Some(0.85),
+        cm_fv: Some(0.97),
+        cm_e: Some(0.9),
+        ct: None,
+        ci: None,
+        cf: Some(1.1),
+        cr: Some(1.15),
+        cfu: None,
+    };
+    let prep = Prepared::new(
+        &beam,
+        m,
+        Criteria {
+            bracing: Bracing::Continuous,
+            self_weight: false,
+            ..Criteria::default()
+        },
+    )
+    .unwrap();
+    let p = Shape::Rect { b: 50.0, d: 200.0 }.properties().unwrap();
+    let (items, _) = prep.check_all(SectionInput::new(&p, 0.0));
+    let get = |k: CheckKind| items.iter().find(|i| i.kind == k).unwrap();
+    common::close(
+        "Fb′",
+        get(CheckKind::BendingSaggingBottom).capacity,
+        10.0 * 0.85 * 1.1 * 1.15,
+        1e-12,
+    );
+    common::close("Fv′", get(CheckKind::Shear).capacity, 1.0 * 0.97, 1e-12);
+    // δ = 5wL⁴/(384E′I), E′ = 0.9E.
+    let i = 50.0 * 200.0f64.powi(3) / 12.0;
+    let want = 5.0 * 1.5 * 3000.0f64.powi(4) / (384.0 * 11_000.0 * 0.9 * i);
+    common::close("δ with E′", get(CheckKind::Deflection).demand, want, 1e-9);
+}
+
+#[test]
+fn long_term_deflection_with_the_creep_factor() {
+    // NDS §3.5.2: ΔT = Kcr·ΔLT + ΔST; Kcr = 1.5 (seasoned lumber, dry), dead
+    // load long-term, 30 % of live sustained: the D+L check carries
+    // 1.5·δD + (1 + 0.5·0.3)·δL.
+    let (mut beam, d, lv) = span(3000.0);
+    beam.combo("D+L", ComboKind::Strength, &[(d, 1.0), (lv, 1.0)]);
+    beam.service(
+        "D+L",
+        &[(d, 1.0), (lv, 1.0)],
+        DeflectionLimit {
+            ratio: Some(240.0),
+            absolute: None,
+        },
+    );
+    beam.service(
+        "L",
+        &[(lv, 1.0)],
+        DeflectionLimit {
+            ratio: Some(360.0),
+            absolute: None,
+        },
+    );
+    let crit = Criteria {
+        bracing: Bracing::Continuous,
+        self_weight: false,
+        long_term: Some(LongTerm {
+            creep_factor: 1.5,
+            sustained_live: 0.3,
+        }),
+        ..Criteria::default()
+    };
+    let prep = Prepared::new(
+        &beam,
+        common::timber(11_000.0, 10.0, 1.0, 4400.0, 1.0, 0.0),
+        crit,
+    )
+    .unwrap();
+    let p = Shape::Rect { b: 50.0, d: 200.0 }.properties().unwrap();
+    let (items, _) = prep.check_all(SectionInput::new(&p, 0.0));
+    let i = 50.0 * 200.0f64.powi(3) / 12.0;
+    let delta = |w: f64| 5.0 * w * 3000.0f64.powi(4) / (384.0 * 11_000.0 * i);
+    let total = items
+        .iter()
+        .find(|it| {
+            it.kind == CheckKind::Deflection && prep.demand.combos[it.combo].name.starts_with("D+L")
+        })
+        .unwrap();
+    common::close(
+        "long-term D+L",
+        total.demand,
+        1.5 * delta(0.5) + 1.15 * delta(1.5),
+        1e-9,
+    );
+    assert!(prep.demand.combos[total.combo].name.contains("long-term"));
+    // The live-only check is instantaneous.
+    let live = items
+        .iter()
+        .find(|it| it.kind == CheckKind::Deflection && prep.demand.combos[it.combo].name == "L")
+        .unwrap();
+    common::close("L alone", live.demand, delta(1.5), 1e-9);
+}
+
+#[test]
+fn catalogue_rows_bring_their_own_factors() {
+    // A row's CF and Cr columns override its grade's: Fb′ = Fb·CF·Cr.
+    let text = "name,shape,b [mm],d [mm],CF,Cr\nA,rect,50,200,1.2,1.15\nB,rect,50,200,,\n";
+    let (mut beam, d, lv) = span(3000.0);
+    beam.combo("D+L", ComboKind::Strength, &[(d, 1.0), (lv, 1.0)]);
+    beam.service(
+        "L",
+        &[(lv, 1.0)],
+        DeflectionLimit {
+            ratio: Some(360.0),
+            absolute: None,
+        },
+    );
+    let m = common::timber(11_000.0, 10.0, 1.0, 4400.0, 1.0, 450.0);
+    let prep = Prepared::new(
+        &beam,
+        m.clone(),
+        Criteria {
+            bracing: Bracing::Continuous,
+            ..Criteria::default()
+        },
+    )
+    .unwrap();
+    let mats = Materials {
+        base: &m,
+        grades: &[],
+    };
+    let cat = beamsift::catalog::read::open(text.as_bytes(), "t.csv", &Default::default()).unwrap();
+    let opts = ScanOptions {
+        ranks: vec![(Rank::Mass, 10)],
+        ..ScanOptions::default()
+    };
+    let sel = search::scan(&prep, vec![cat], &mats, &opts, &|_, _| {}).unwrap();
+    let cap = |name: &str| {
+        let c = sel.lists[0].items.iter().find(|c| c.name == name).unwrap();
+        let mat = mats.get(&c.material);
+        let (items, _) =
+            prep.check_all(SectionInput::new(&c.properties, c.mass).with_material(mat));
+        items
+            .iter()
+            .find(|i| i.kind == CheckKind::BendingSaggingBottom)
+            .unwrap()
+            .capacity
+    };
+    common::close("row A: Fb·CF·Cr", cap("A"), 10.0 * 1.2 * 1.15, 1e-12);
+    common::close("row B: Fb", cap("B"), 10.0, 1e-12);
+}
