@@ -375,7 +375,16 @@ fn optimise_girder(c: &mut Criterion) {
                     })
                     .collect(),
             };
-            black_box(optimise::discrete::search(&prob, &prep, &grid, &o.x, 20_000).unwrap())
+            black_box(
+                optimise::discrete::search(
+                    &prob,
+                    &prep,
+                    &grid,
+                    &o.x,
+                    optimise::discrete::EXHAUSTIVE_POINTS,
+                )
+                .unwrap(),
+            )
         })
     });
 }

@@ -607,6 +607,19 @@ pub fn fmt_num(v: f64) -> String {
     if s == "-0" { "0".into() } else { s }
 }
 
+/// A whole count with thousands separators (`910,656`).
+pub fn count(n: impl Into<u128>) -> String {
+    let digits = n.into().to_string();
+    let mut out = String::new();
+    for (i, ch) in digits.chars().enumerate() {
+        if i > 0 && (digits.len() - i) % 3 == 0 {
+            out.push(',');
+        }
+        out.push(ch);
+    }
+    out
+}
+
 fn group_thousands(r: f64) -> String {
     let neg = r < 0.0;
     let digits = format!("{:.0}", r.abs());

@@ -23,8 +23,9 @@
 //!   otherwise: see [`partial_snow`].
 //!
 //! Service — IBC 2018 Table 1604.3: `floor` L/360 under live load, L/240
-//! under dead + live; `roof` (non-plaster ceiling) L/240 under roof live or
-//! snow, L/180 under dead plus that load.
+//! under the total load; `roof` (non-plaster ceiling) L/240 under roof live
+//! or snow, L/180 under the total load. The total takes every gravity case
+//! of the job (see [`service`]).
 
 use super::model::{Category, Combination, ComboKind, DeflectionLimit, LoadCase};
 use crate::error::{Error, Result};
@@ -196,23 +197,23 @@ pub fn strength(cases: &[LoadCase], name: &str) -> Result<Preset> {
     Ok(out)
 }
 
-/// Serviceability combinations of a named preset.
+/// Serviceability combinations of a named preset. The variable load of the
+/// member's kind has its own limit; the total-load limit takes every
+/// gravity case of the job (dead, live, roof live, snow, rain, other), so a
+/// load the preset does not name is never left out (conservative where the
+/// standard would take one variable load at a time). Wind deflection is not
+/// part of these presets, and a note says so when the job has wind.
 pub fn service(cases: &[LoadCase], name: &str) -> Result<Preset> {
     let key = name.trim().to_ascii_lowercase();
-    let d = cases_of(cases, Category::Dead);
+    let gravity: Vec<usize> = (0..cases.len())
+        .filter(|&i| cases[i].category != Category::Wind)
+        .collect();
     let mut out = Preset::default();
-    let mut add = |label: String, idx: Vec<usize>, with_dead: bool, n: f64| {
-        if idx.is_empty() {
-            return;
-        }
-        let mut factors: Vec<(usize, f64)> = idx.iter().map(|&i| (i, 1.0)).collect();
-        if with_dead {
-            factors.extend(d.iter().map(|&i| (i, 1.0)));
-        }
+    let mut add = |label: String, idx: Vec<usize>, n: f64| {
         out.combinations.push(Combination {
             name: format!("{label} ≤ L/{}", crate::units::fmt_num(n)),
             kind: ComboKind::Service,
-            factors,
+            factors: idx.iter().map(|&i| (i, 1.0)).collect(),
             limit: Some(DeflectionLimit {
                 ratio: Some(n),
                 absolute: None,
@@ -220,29 +221,65 @@ pub fn service(cases: &[LoadCase], name: &str) -> Result<Preset> {
             source: Some("IBC 2018 Table 1604.3 (from memory)".into()),
         });
     };
-    match key.as_str() {
-        "floor" => {
-            let l = cases_of(cases, Category::Live);
-            add("L".into(), l.clone(), false, 360.0);
-            add("D+L".into(), l, true, 240.0);
+    let symbol = |c: Category| match c {
+        Category::Dead => "D",
+        Category::Live => "L",
+        Category::RoofLive => "Lr",
+        Category::Snow => "S",
+        Category::Rain => "R",
+        Category::Other => "other",
+        Category::Wind => "W",
+    };
+    let mut present: Vec<Category> = Vec::new();
+    for &i in &gravity {
+        if !present.contains(&cases[i].category) {
+            present.push(cases[i].category);
         }
-        "roof" => {
-            for (n, c) in [("Lr", Category::RoofLive), ("S", Category::Snow)] {
-                let v = cases_of(cases, c);
-                add(n.into(), v.clone(), false, 240.0);
-                add(format!("D+{n}"), v, true, 180.0);
-            }
-        }
+    }
+    let total_name = present
+        .iter()
+        .map(|c| symbol(*c))
+        .collect::<Vec<_>>()
+        .join("+");
+    let (own, n_own, n_total): (Vec<Category>, f64, f64) = match key.as_str() {
+        "floor" => (vec![Category::Live], 360.0, 240.0),
+        "roof" => (vec![Category::RoofLive, Category::Snow], 240.0, 180.0),
         _ => {
             return Err(Error::msg(format!(
                 "unknown service preset '{name}': expected floor or roof"
             )));
         }
+    };
+    let mut any = false;
+    for c in &own {
+        let v = cases_of(cases, *c);
+        if !v.is_empty() {
+            add(symbol(*c).to_string(), v, n_own);
+            any = true;
+        }
     }
-    if out.combinations.is_empty() {
+    if !any {
         return Err(Error::msg(format!(
             "service preset '{name}' found no load case of its category (live for floor; roof_live or snow for roof)"
         )));
+    }
+    add(total_name, gravity.clone(), n_total);
+    let others: Vec<&str> = present
+        .iter()
+        .filter(|c| !own.contains(c) && **c != Category::Dead)
+        .map(|c| symbol(*c))
+        .collect();
+    if !others.is_empty() {
+        out.notes.push(format!(
+            "service preset '{key}': {} have no limit of their own in it; they are in the total-load limit L/{}",
+            others.join(", "),
+            crate::units::fmt_num(n_total)
+        ));
+    }
+    if cases.iter().any(|c| c.category == Category::Wind) {
+        out.notes.push(format!(
+            "service preset '{key}': deflection under wind is not checked (add a service combination with its limit)"
+        ));
     }
     Ok(out)
 }

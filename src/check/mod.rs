@@ -529,10 +529,13 @@ pub enum Gap {
     TimberSlenderness,
     /// Timber stability is implemented for rectangles only.
     TimberShape,
+    /// No support or brace restrains the member laterally (springs and
+    /// free ends do not).
+    NoLateralRestraint,
 }
 
 impl Gap {
-    const ALL: [Gap; 13] = [
+    const ALL: [Gap; 14] = [
         Gap::NoBendingMethod,
         Gap::NoShearMethod,
         Gap::ShearProperties,
@@ -546,6 +549,7 @@ impl Gap {
         Gap::NoEmin,
         Gap::TimberSlenderness,
         Gap::TimberShape,
+        Gap::NoLateralRestraint,
     ];
     fn bit(self) -> u16 {
         1 << (self as u16)
@@ -589,6 +593,9 @@ impl Gap {
             }
             Gap::TimberShape => {
                 "timber lateral stability (NDS 3.3.3) is implemented for rectangular sections only"
+            }
+            Gap::NoLateralRestraint => {
+                "lateral stability: no support or brace restrains the member laterally (spring supports and free ends do not)"
             }
         }
     }
@@ -698,6 +705,9 @@ pub struct Segment {
     pub hogging: bool,
     /// Effective-length factor on x2 − x1.
     pub k: f64,
+    /// Neither end is restrained laterally (no rigid support, no brace):
+    /// lateral stability cannot be assessed.
+    pub unrestrained: bool,
 }
 
 /// Receives what a section's check produces.
@@ -728,15 +738,50 @@ pub struct Prepared {
     service: Vec<usize>,
 }
 
-/// Lateral restraint segments: (x1, x2, free end, sagging, hogging, k).
-type RawSegment = (f64, f64, bool, bool, bool, f64);
+/// Lateral restraint segments: (x1, x2, free end, sagging, hogging, k,
+/// unrestrained at both ends).
+type RawSegment = (f64, f64, bool, bool, bool, f64, bool);
+
+/// The pieces of the beam between lateral restraints: rigid supports
+/// (pinned, roller, fixed) restrain the member laterally and against
+/// twist; a spring support does not (it may be another flexible member:
+/// conservative), nor does a free end. (x1, x2, left end free, right end
+/// free).
+fn lateral_pieces(beam: &Beam) -> Vec<(f64, f64, bool, bool)> {
+    use crate::beam::Support;
+    let xs = beam.node_x();
+    let rigid: Vec<f64> = beam
+        .supports
+        .iter()
+        .zip(&xs)
+        .filter(|(s, _)| matches!(s, Support::Pinned | Support::Roller | Support::Fixed))
+        .map(|(_, x)| *x)
+        .collect();
+    let length = beam.length();
+    let mut out = Vec::new();
+    match (rigid.first(), rigid.last()) {
+        (Some(&first), Some(&last)) => {
+            if first > 0.0 {
+                out.push((0.0, first, true, false));
+            }
+            for w in rigid.windows(2) {
+                out.push((w[0], w[1], false, false));
+            }
+            if last < length {
+                out.push((last, length, false, true));
+            }
+        }
+        _ => out.push((0.0, length, true, true)),
+    }
+    out
+}
 
 fn segments_of(beam: &Beam, c: &Criteria) -> Vec<RawSegment> {
     let mut out = Vec::new();
     let both = c.braced_flange == BracedFlange::Both;
-    for s in beam.stretches() {
-        let len = s.x2 - s.x1;
-        let from_right = s.cantilever && s.left_node.is_none();
+    for (x1, x2, free_l, free_r) in lateral_pieces(beam) {
+        let len = x2 - x1;
+        let from_right = free_l && !free_r;
         let k_of = |free: bool| {
             if free {
                 c.overhang_factor()
@@ -744,34 +789,39 @@ fn segments_of(beam: &Beam, c: &Criteria) -> Vec<RawSegment> {
                 c.span_factor()
             }
         };
-        // Split the stretch at `spacing` from its supported end.
-        let mut split = |spacing: f64, sag: bool, hog: bool| {
+        // Split the piece at `spacing` from its restrained end.
+        let mut split = |spacing: f64, sag: bool, hog: bool, braces: bool| {
             let n = (len / spacing - 1e-9).ceil().max(1.0) as usize;
             for k in 0..n {
                 let (a, b) = if from_right {
-                    let b = s.x2 - k as f64 * spacing;
-                    ((b - spacing).max(s.x1), b)
+                    let b = x2 - k as f64 * spacing;
+                    ((b - spacing).max(x1), b)
                 } else {
-                    let a = s.x1 + k as f64 * spacing;
-                    (a, (a + spacing).min(s.x2))
+                    let a = x1 + k as f64 * spacing;
+                    (a, (a + spacing).min(x2))
                 };
-                let free = s.cantilever && k == n - 1;
-                out.push((a, b, free, sag, hog, k_of(free)));
+                let at_left = if from_right { k == n - 1 } else { k == 0 };
+                let at_right = if from_right { k == 0 } else { k == n - 1 };
+                let free = (free_l && at_left) || (free_r && at_right);
+                // Free at both ends and no brace in between: nothing holds
+                // it laterally.
+                let unrestrained = free_l && free_r && n == 1 && !braces;
+                out.push((a, b, free, sag, hog, k_of(free), unrestrained));
             }
         };
         match c.bracing {
             Bracing::Continuous => {
                 if !both {
-                    split(len, false, true);
+                    split(len, false, true, false);
                 }
             }
-            Bracing::Supports | Bracing::NotGiven => split(len, true, true),
+            Bracing::Supports | Bracing::NotGiven => split(len, true, true, false),
             Bracing::Spacing(sp) => {
                 if both || sp >= len {
-                    split(sp.min(len), true, true);
+                    split(sp.min(len), true, true, sp < len);
                 } else {
-                    split(sp, true, false);
-                    split(len, false, true);
+                    split(sp, true, false, true);
+                    split(len, false, true, false);
                 }
             }
         }
@@ -873,7 +923,7 @@ impl Prepared {
         };
         let segments = segs
             .iter()
-            .map(|&(a, b, free, sagging, hogging, k)| {
+            .map(|&(a, b, free, sagging, hogging, k, unrestrained)| {
                 let nodes = [0, 1, 2, 3, 4].map(|q| node_of(a + (b - a) * q as f64 / 4.0));
                 let top_braced_between = criteria.braced_flange == BracedFlange::Top
                     && matches!(criteria.bracing, Bracing::Continuous | Bracing::Spacing(_));
@@ -887,6 +937,7 @@ impl Prepared {
                     sagging,
                     hogging,
                     k,
+                    unrestrained,
                 }
             })
             .collect();
@@ -945,11 +996,17 @@ impl Prepared {
         }
     }
 
-    /// C_D of combination `ci` for a material (1 for non-timber).
+    /// C_D of combination `ci` for a material (1 for non-timber): the
+    /// combination's NDS Table 2.3.2 value, capped by the C_D the material
+    /// or row gives (a given C_D never raises the factor of a combination of
+    /// longer loads: dead load alone stays at 0.9).
     #[inline]
     pub fn cd(&self, m: &Material, ci: usize) -> f64 {
         match m.kind {
-            MaterialKind::Timber => m.timber.cd.unwrap_or(self.duration[ci]),
+            MaterialKind::Timber => match m.timber.cd {
+                Some(cap) => cap.min(self.duration[ci]),
+                None => self.duration[ci],
+            },
             _ => 1.0,
         }
     }
@@ -1271,6 +1328,10 @@ impl Prepared {
                     continue;
                 }
                 let len = seg.x2 - seg.x1;
+                if seg.unrestrained {
+                    sink.gap(Gap::NoLateralRestraint);
+                    continue;
+                }
                 match m.kind {
                     MaterialKind::Steel => {
                         // A steel gap (no Fy, range, properties) was recorded.
@@ -1280,7 +1341,16 @@ impl Prepared {
                             continue;
                         }
                         if cb.is_nan() {
-                            cb = if seg.cb_unity {
+                            // A singly symmetric section in reverse
+                            // curvature: C_b = 1.0 (conservative; the
+                            // Commentary to F1 warns that F1-1 can
+                            // overstate it for the smaller flange).
+                            let reverse = ex.max > 0.0 && ex.min < 0.0;
+                            let mono = p.i_geometry.is_some_and(|g| {
+                                (g.bf_top - g.bf_bot).abs() > 1e-9 * g.bf_top
+                                    || (g.tf_top - g.tf_bot).abs() > 1e-9 * g.tf_top
+                            });
+                            cb = if seg.cb_unity || (reverse && mono) {
                                 1.0
                             } else {
                                 let q = |k: usize| d.abs_moment_at_node(a, seg.nodes[k]);
@@ -1445,7 +1515,7 @@ impl Prepared {
                 ),
             }),
         }
-        v.push("every support restrains the member laterally and against twist".into());
+        v.push("every pinned, roller or fixed support restrains the member laterally and against twist; spring supports and free ends do not (conservative)".into());
         if !c.self_weight {
             v.push("the section's self-weight is not included (by the user's choice)".into());
         }

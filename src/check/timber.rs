@@ -31,7 +31,8 @@ use serde::{Deserialize, Serialize};
 pub struct TimberFactors {
     /// Reference modulus for stability E_min, MPa (needed for C_L).
     pub e_min: Option<f64>,
-    /// Load duration factor C_D; None = per combination (Table 2.3.2).
+    /// Upper bound on the load duration factor C_D: each combination uses
+    /// the smaller of it and its Table 2.3.2 value (None: the table value).
     pub cd: Option<f64>,
     /// Wet service factors on F_b, F_v and E (and E_min).
     pub cm_fb: Option<f64>,
@@ -87,7 +88,7 @@ impl TimberFactors {
                 v.push(format!("{name} = {}", crate::units::fmt_num(x)));
             }
         };
-        add("C_D", self.cd);
+        add("C_D ≤", self.cd);
         add("C_M (F_b)", self.cm_fb);
         add("C_M (F_v)", self.cm_fv);
         add("C_M (E)", self.cm_e);

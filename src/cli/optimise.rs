@@ -149,6 +149,8 @@ struct OptimiseResult {
     evaluations: u64,
     grid_points_checked: u64,
     whole_grid: bool,
+    /// Windowed search only: the bound on its gap to the grid optimum.
+    gap_bound: Option<f64>,
     not_checked: Vec<String>,
     caution: &'static str,
 }
@@ -494,7 +496,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         values.push(v);
     }
     let grid = Grid { values };
-    let disc = discrete::search(&prob, &prep, &grid, &cont.x, 20_000)?;
+    let disc = discrete::search(&prob, &prep, &grid, &cont.x, discrete::EXHAUSTIVE_POINTS)?;
     let c_var = variant(&prob, &prep, &cont.x, sys);
     let d_var = variant(&prob, &prep, &disc.x, sys);
     let gap = (disc.objective - cont.objective) / cont.objective;
@@ -517,6 +519,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         evaluations: cont.evaluations,
         grid_points_checked: disc.evaluated,
         whole_grid: disc.whole_grid,
+        gap_bound: disc.gap_bound,
         not_checked: prep.not_checked(&d_props, None),
         caution: report::CAUTION,
     };
@@ -650,7 +653,22 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     doc.para(format!(
         "Fabrication sizes: {} — {}; it is {:.1} % above the continuous optimum in {}. Governing: {}.",
         result.discrete.description,
-        if disc.whole_grid { format!("the best of all {} grid points", disc.evaluated) } else { format!("the best of {} grid points searched around the continuous optimum", disc.evaluated) },
+        if disc.whole_grid {
+            format!(
+                "the optimum of all {} grid points (visited in order of {}; {} checked before the first that passes)",
+                beamsift::units::count(grid.size()),
+                objective_words(prob.objective),
+                beamsift::units::count(disc.evaluated)
+            )
+        } else {
+            format!(
+                "the best of {} grid points searched around the continuous optimum (the grid has {}, more than the {} searched exhaustively: at most {:.1} % above the grid optimum)",
+                beamsift::units::count(disc.evaluated),
+                beamsift::units::count(grid.size()),
+                beamsift::units::count(discrete::EXHAUSTIVE_POINTS as u64),
+                100.0 * disc.gap_bound.unwrap_or(f64::NAN)
+            )
+        },
         100.0 * gap,
         objective_words(prob.objective),
         result.discrete.governing.clone().unwrap_or_default()

@@ -1,12 +1,16 @@
 //! Rounding a continuous optimum to fabrication sizes: widths and depths
 //! on a step, thicknesses from a plate list, timber from size lists.
 //!
-//! The search is exhaustive: over the whole grid when it is small enough,
-//! otherwise over a window of grid values around the continuous optimum,
-//! re-centred while the best point lies on the window's edge. Every
-//! candidate is judged by the real check (utilisation ≤ 1) and the
-//! geometric limits; ties go to the smaller area, then the smaller
-//! dimensions in order.
+//! The result is provably the grid optimum: every grid point's objective
+//! (area, cost or depth) is computed — cheap, no check — and the points are
+//! visited in increasing order of (objective, area, dimensions); the first
+//! that passes the real check (verdict passes) and the geometric limits is
+//! the optimum, since every point before it failed and every point after it
+//! costs at least as much. Feasibility is tested in parallel batches in
+//! that order, so the answer does not depend on the thread count. Only a
+//! grid larger than `EXHAUSTIVE_POINTS` falls back to a window around the
+//! continuous optimum, and then says so, with the bound on its gap: the
+//! continuous optimum is a lower bound of every grid point.
 
 use super::{Eval, Problem};
 use crate::check::Prepared;
@@ -57,8 +61,12 @@ pub struct DiscreteOptimum {
     pub objective: f64,
     /// Grid points checked.
     pub evaluated: u64,
-    /// True when the whole grid was searched.
+    /// True when the result is the optimum of the whole grid.
     pub whole_grid: bool,
+    /// For a windowed search (grids beyond `EXHAUSTIVE_POINTS`): at most
+    /// this fraction above the grid optimum (from the continuous optimum,
+    /// a lower bound). None when exhaustive.
+    pub gap_bound: Option<f64>,
 }
 
 fn better(a: &(f64, f64, Vec<f64>), b: &(f64, f64, Vec<f64>)) -> bool {
@@ -76,6 +84,67 @@ fn better(a: &(f64, f64, Vec<f64>), b: &(f64, f64, Vec<f64>)) -> bool {
 
 fn feasible(e: &Eval) -> bool {
     e.g.iter().all(|(_, g)| *g <= 1e-12)
+}
+
+/// Grids up to this many points are searched exhaustively (about 48 MB of
+/// sort keys at the limit).
+pub const EXHAUSTIVE_POINTS: u128 = 2_000_000;
+
+/// The grid point of flat index `flat` (variable 0 most significant, so
+/// that ascending flat order is ascending lexicographic order of x).
+fn point(grid: &Grid, mut flat: u64, x: &mut [f64]) {
+    for k in (0..grid.values.len()).rev() {
+        let n = grid.values[k].len() as u64;
+        x[k] = grid.values[k][(flat % n) as usize];
+        flat /= n;
+    }
+}
+
+/// The exhaustive search in objective order.
+fn exhaustive(prob: &Problem, prep: &Prepared, grid: &Grid) -> Result<DiscreteOptimum> {
+    let total = grid.size() as u64;
+    let n = grid.values.len();
+    // (objective, area, flat index) of every point with a valid shape.
+    let mut keys: Vec<(f64, f64, u64)> = (0..total)
+        .into_par_iter()
+        .filter_map(|flat| {
+            let mut x = vec![0.0; n];
+            point(grid, flat, &mut x);
+            prob.objective_at(&x, prep.material.density)
+                .map(|(f, a)| (f, a, flat))
+        })
+        .collect();
+    keys.par_sort_unstable_by(|a, b| {
+        a.0.total_cmp(&b.0)
+            .then(a.1.total_cmp(&b.1))
+            .then(a.2.cmp(&b.2))
+    });
+    let mut evaluated = 0u64;
+    for batch in keys.chunks(2048) {
+        evaluated += batch.len() as u64;
+        let hit = batch.par_iter().position_first(|&(_, _, flat)| {
+            let mut x = vec![0.0; n];
+            point(grid, flat, &mut x);
+            prob.eval(prep, &x).is_some_and(|e| feasible(&e))
+        });
+        if let Some(i) = hit {
+            let (f, area, flat) = batch[i];
+            let mut x = vec![0.0; n];
+            point(grid, flat, &mut x);
+            evaluated -= (batch.len() - i - 1) as u64;
+            return Ok(DiscreteOptimum {
+                x,
+                area,
+                objective: f,
+                evaluated,
+                whole_grid: true,
+                gap_bound: None,
+            });
+        }
+    }
+    Err(Error::NoSolution(format!(
+        "none of the {total} points of the fabrication grid passes every check and limit"
+    )))
 }
 
 /// A feasible grid point: (objective, area, x, grid indices).
@@ -117,8 +186,10 @@ fn search_box(
     (best, total as u64)
 }
 
-/// Find the best grid point near `around` (mm). Grids of at most
-/// `whole_limit` points are searched whole.
+/// The best grid point: the exhaustive optimum for grids of at most
+/// `whole_limit` points (use [`EXHAUSTIVE_POINTS`]), otherwise the best of a
+/// window around `around` (mm, the continuous optimum, whose objective
+/// `lower_bound` bounds the gap).
 pub fn search(
     prob: &Problem,
     prep: &Prepared,
@@ -132,22 +203,12 @@ pub fn search(
         ));
     }
     let n = grid.values.len();
-    if grid.size() <= whole_limit {
-        let ranges: Vec<(usize, usize)> = grid.values.iter().map(|v| (0, v.len() - 1)).collect();
-        let (best, count) = search_box(prob, prep, grid, &ranges);
-        let best = best.ok_or_else(|| {
-            Error::NoSolution(
-                "no point of the fabrication grid passes every check and limit".into(),
-            )
-        })?;
-        return Ok(DiscreteOptimum {
-            x: best.2,
-            area: best.1,
-            objective: best.0,
-            evaluated: count,
-            whole_grid: true,
-        });
+    if grid.size() <= whole_limit.min(EXHAUSTIVE_POINTS) {
+        return exhaustive(prob, prep, grid);
     }
+    let lower_bound = prob
+        .objective_at(around, prep.material.density)
+        .map(|o| o.0);
     let w = if n <= 4 { 3 } else { 2 };
     let mut centre: Vec<usize> = (0..n)
         .map(|k| {
@@ -182,6 +243,7 @@ pub fn search(
         });
         if !on_edge {
             return Ok(DiscreteOptimum {
+                gap_bound: lower_bound.map(|lb| (best.0 - lb) / lb),
                 x: best.2,
                 area: best.1,
                 objective: best.0,
@@ -193,7 +255,7 @@ pub fn search(
         last = Some(best);
     }
     // Still moving after several re-centrings: return the best seen.
-    last.map(|b| DiscreteOptimum { x: b.2, area: b.1, objective: b.0, evaluated, whole_grid: false }).ok_or_else(|| {
+    last.map(|b| DiscreteOptimum { gap_bound: lower_bound.map(|lb| (b.0 - lb) / lb), x: b.2, area: b.1, objective: b.0, evaluated, whole_grid: false }).ok_or_else(|| {
         Error::NoSolution("no point of the fabrication grid near the continuous optimum passes: narrow the bounds or refine the steps".into())
     })
 }

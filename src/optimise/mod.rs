@@ -288,6 +288,19 @@ impl Problem {
         }
     }
 
+    /// The objective and the area at x (mm), without any check (None:
+    /// impossible geometry).
+    pub fn objective_at(&self, x: &[f64], density: f64) -> Option<(f64, f64)> {
+        let shape = self.family.shape(x);
+        let p = shape.properties().ok()?;
+        let f = match self.objective {
+            Objective::Area => p.area,
+            Objective::Cost => self.cost_of(x, density),
+            Objective::Depth => shape.depth() + 1e-6 * p.area,
+        };
+        Some((f, p.area))
+    }
+
     /// Evaluate objective and constraints at x (mm). None: impossible geometry.
     pub fn eval(&self, prep: &Prepared, x: &[f64]) -> Option<Eval> {
         let shape = self.family.shape(x);

@@ -312,6 +312,63 @@ pub fn reaction_tables(
     vec![t, t2]
 }
 
+/// Extremes per combination and span, with both deflection extremes (the
+/// largest downward and the largest upward movement, e.g. a back span
+/// lifted by its overhang), from the analysis of this section.
+pub fn extremes_table(job: &Job, prep: &Prepared, r: &MemberCheck, sys: System) -> Table {
+    let d = &prep.demand;
+    let sect = d.section(r.self_weight, prep.material.e_eff() * r.properties.ix);
+    let a = crate::beam::analysis::analyse(&job.beam, d, &sect, prep_sw_case(job), true, false);
+    let (ml, fl, dl, sl) = (
+        Show::Moment.label(sys),
+        Show::Force.label(sys),
+        Show::Deflection.label(sys),
+        Show::Span.label(sys),
+    );
+    let heads = [
+        "Combination".to_string(),
+        "Part".into(),
+        format!("M+ [{ml}]"),
+        format!("M− [{ml}]"),
+        format!("|V| [{fl}]"),
+        format!("δ down [{dl}] at x [{sl}]"),
+        format!("δ up [{dl}] at x [{sl}]"),
+    ];
+    let refs: Vec<(&str, Align)> = heads
+        .iter()
+        .enumerate()
+        .map(|(i, h)| (h.as_str(), if i < 2 { Align::Left } else { Align::Right }))
+        .collect();
+    let mut t = Table::new(
+        "Extremes per combination and span (envelope over load patterns; deflection from the chord of the span's supports)",
+        &refs,
+    );
+    let at = |v: Option<crate::beam::analysis::At>, show: Show, neg: bool| match v {
+        Some(a) => format!(
+            "{} at {}",
+            show.num(if neg { -a.value } else { a.value }, sys),
+            Show::Span.num(a.x_mm, sys)
+        ),
+        None => "—".into(),
+    };
+    for e in &a.extremes {
+        t.row(vec![
+            e.combination.clone(),
+            e.part.clone(),
+            e.sagging_nmm
+                .map(|x| Show::Moment.num(x.value, sys))
+                .unwrap_or_else(|| "—".into()),
+            e.hogging_nmm
+                .map(|x| Show::Moment.num(x.value, sys))
+                .unwrap_or_else(|| "—".into()),
+            Show::Force.num(e.shear_n.value.abs(), sys),
+            at(e.deflection_down_mm, Show::Deflection, false),
+            at(e.deflection_up_mm, Show::Deflection, true),
+        ]);
+    }
+    t
+}
+
 fn prep_sw_case(job: &Job) -> Option<usize> {
     job.beam
         .self_weight_case

@@ -57,8 +57,22 @@ pub struct MemberCheck {
     pub not_checked: Vec<String>,
     /// Bracing, effective lengths, load height, springs.
     pub assumptions: Vec<String>,
+    /// Settlement of each spring support per combination, mm (downward;
+    /// min and max over the load patterns): not in the deflection checks,
+    /// which measure from the chord of the displaced supports.
+    pub settlements: Vec<Settlement>,
     pub notes: Vec<String>,
     pub caution: &'static str,
+}
+
+/// A spring's settlement under one combination.
+#[derive(Clone, Debug, Serialize)]
+pub struct Settlement {
+    pub combination: String,
+    /// Position of the spring from the left end, mm.
+    pub x: f64,
+    pub min: f64,
+    pub max: f64,
 }
 
 /// Where along the beam x lies, in words.
@@ -142,6 +156,27 @@ pub fn member_check(
         excluded: prep.criteria.exclude.list(),
         not_checked: prep.not_checked(props, material),
         assumptions: prep.assumptions(),
+        settlements: {
+            let d = &prep.demand;
+            let sl = d.section(
+                prep.self_weight(mass),
+                sec.material.unwrap_or(&prep.material).e_eff() * props.ix,
+            );
+            (0..d.combos.len())
+                .flat_map(|ci| {
+                    let a = d.apply(ci, &sl);
+                    d.settlements(&a)
+                        .into_iter()
+                        .map(|(n, lo, hi)| Settlement {
+                            combination: a.combo.name.clone(),
+                            x: d.node_x[n],
+                            min: lo,
+                            max: hi,
+                        })
+                        .collect::<Vec<_>>()
+                })
+                .collect()
+        },
         notes: job.notes.clone(),
         caution: super::CAUTION,
     }
@@ -446,6 +481,29 @@ pub fn document(job: &Job, r: &MemberCheck, sys: System) -> Document {
         ]);
     }
     doc.table(t);
+    if !r.settlements.is_empty() {
+        let dl = Show::Deflection.label(sys);
+        let mut st = Table::new(
+            format!(
+                "Spring settlements, downward [{dl}] (not in the deflection checks above, which measure from the chord of the displaced supports)"
+            ),
+            &[
+                ("Combination", Align::Left),
+                ("x", Align::Right),
+                ("min", Align::Right),
+                ("max", Align::Right),
+            ],
+        );
+        for x in &r.settlements {
+            st.row(vec![
+                x.combination.clone(),
+                Show::Span.fmt(x.x, sys),
+                Show::Deflection.num(x.min, sys),
+                Show::Deflection.num(x.max, sys),
+            ]);
+        }
+        doc.table(st);
+    }
     doc.para(
         "+M sagging, −M hogging; (C) fibre in compression, (T) in tension. Bending: f = M·c/I = M/S. \
 Utilisation = demand / capacity (allowable strength: nominal/Ω).",

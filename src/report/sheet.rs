@@ -35,6 +35,7 @@ pub fn build(
         .into_iter()
         .map(TableOut::from),
     );
+    tables.push(calc::extremes_table(job, prep, r, sys).into());
     tables.push(calc::section_table(r, sys).into());
     let verdict = match &r.governing {
         Some(g) => format!(

@@ -123,6 +123,12 @@ impl Given {
             i_geometry,
 
             form: super::Form::Given,
+            sy: match (self.iy, self.width.or(self.bf)) {
+                (Some(iy), Some(b)) => Some(iy / (b / 2.0)),
+                _ => None,
+            },
+            zy: None,
+            y_sc: None,
         })
     }
 }

@@ -151,6 +151,63 @@ pub(crate) fn composite(
     parts
 }
 
+/// Torsion constant of an I-shape by El Darwish & Johnston ("Torsion of
+/// structural shapes", J. Struct. Div. ASCE 91(ST1), 1965), the expression
+/// European section tables use for rolled shapes with root fillets:
+/// J = Σ_flanges [b·t³(1/3 − 0.21(t/b)(1 − t⁴/(12b⁴))) + α·D⁴] + (h − Σt)·t_w³/3,
+/// with, per flange, α = −0.042 + 0.2204(t_w/t) + 0.1355(r/t) −
+/// 0.0865(r·t_w/t²) − 0.0725(t_w/t)² and D = ((t + r)² + t_w(r + t_w/4))/(2r + t)
+/// the diameter of the circle inscribed at the junction. With r = 0 it is
+/// the junction correction of welded plates. Within 1 % of a
+/// finite-element value for a rolled IPE 300 and 0.1 % for welded plates
+/// (tests/sections.rs).
+pub fn i_torsion(
+    bf_top: f64,
+    tf_top: f64,
+    bf_bot: f64,
+    tf_bot: f64,
+    hw: f64,
+    tw: f64,
+    r: f64,
+) -> f64 {
+    let flange = |b: f64, t: f64| {
+        let j1 =
+            b * t.powi(3) * (1.0 / 3.0 - 0.21 * (t / b) * (1.0 - t.powi(4) / (12.0 * b.powi(4))));
+        let alpha = -0.042 + 0.2204 * (tw / t) + 0.1355 * (r / t)
+            - 0.0865 * (r * tw / (t * t))
+            - 0.0725 * (tw / t).powi(2);
+        let dd = ((t + r).powi(2) + tw * (r + tw / 4.0)) / (2.0 * r + t);
+        j1 + alpha * dd.powi(4)
+    };
+    flange(bf_top, tf_top) + flange(bf_bot, tf_bot) + hw * tw.powi(3) / 3.0
+}
+
+/// Plastic modulus about the vertical axis: the plates, and for rolled
+/// shapes four root fillets (each of area (1 − π/4)r², its centroid
+/// (10 − 3π)/(12 − 3π)·r from the web face).
+fn plastic_weak(
+    bf_top: f64,
+    tf_top: f64,
+    bf_bot: f64,
+    tf_bot: f64,
+    hw: f64,
+    tw: f64,
+    r: f64,
+) -> f64 {
+    let pi = std::f64::consts::PI;
+    let fillets =
+        4.0 * (1.0 - pi / 4.0) * r * r * (tw / 2.0 + (10.0 - 3.0 * pi) / (12.0 - 3.0 * pi) * r);
+    (tf_top * bf_top * bf_top + tf_bot * bf_bot * bf_bot + hw * tw * tw) / 4.0 + fillets
+}
+
+/// Height of the shear centre above the bottom fibre (thin-walled flanges:
+/// it divides h0 in the inverse ratio of the flanges' Iy).
+fn shear_centre(bf_top: f64, tf_top: f64, bf_bot: f64, tf_bot: f64, h0: f64) -> f64 {
+    let it = tf_top * bf_top.powi(3);
+    let ib = tf_bot * bf_bot.powi(3);
+    tf_bot / 2.0 + h0 * it / (it + ib)
+}
+
 pub(crate) fn properties_mono(
     bf_top: f64,
     tf_top: f64,
@@ -163,7 +220,7 @@ pub(crate) fn properties_mono(
     let c = composite(bf_top, tf_top, bf_bot, tf_bot, hw, tw, r);
     let depth = tf_top + hw + tf_bot;
     let h0 = depth - tf_top / 2.0 - tf_bot / 2.0;
-    let j = (bf_top * tf_top.powi(3) + bf_bot * tf_bot.powi(3) + hw * tw.powi(3)) / 3.0;
+    let j = i_torsion(bf_top, tf_top, bf_bot, tf_bot, hw, tw, r);
     let iyc = tf_top * bf_top.powi(3) / 12.0;
     let iyt = tf_bot * bf_bot.powi(3) / 12.0;
     let cw = h0 * h0 * iyc * iyt / (iyc + iyt);
@@ -178,7 +235,10 @@ pub(crate) fn properties_mono(
         h0,
         r,
     };
-    from_composite(&c, depth, bf_top.max(bf_bot), Some(j), Some(cw), Some(geom))
+    let mut p = from_composite(&c, depth, bf_top.max(bf_bot), Some(j), Some(cw), Some(geom));
+    p.zy = Some(plastic_weak(bf_top, tf_top, bf_bot, tf_bot, hw, tw, r));
+    p.y_sc = Some(shear_centre(bf_top, tf_top, bf_bot, tf_bot, h0));
+    p
 }
 
 /// Doubly symmetric welded I in closed form (the hot path of generated
@@ -212,7 +272,7 @@ pub(crate) fn properties_welded(bf: f64, tf: f64, hw: f64, tw: f64) -> Propertie
         ry: Some((iy / area).sqrt()),
         q_na: Some(zx / 2.0),
         t_na: Some(tw),
-        j: Some((2.0 * bf * tf.powi(3) + hw * tw.powi(3)) / 3.0),
+        j: Some(i_torsion(bf, tf, bf, tf, hw, tw, 0.0)),
         cw: Some(h0 * h0 * iyf / 2.0),
         web_area: Some(d * tw),
         i_geometry: Some(IGeometry {
@@ -227,6 +287,9 @@ pub(crate) fn properties_welded(bf: f64, tf: f64, hw: f64, tw: f64) -> Propertie
             r: 0.0,
         }),
         form: super::Form::Given,
+        sy: Some(iy / (bf / 2.0)),
+        zy: Some(plastic_weak(bf, tf, bf, tf, hw, tw, 0.0)),
+        y_sc: Some(c),
     }
 }
 

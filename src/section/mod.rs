@@ -99,8 +99,18 @@ pub struct Properties {
     pub t_na: Option<f64>,
     /// St Venant torsion constant J.
     pub j: Option<f64>,
-    /// Warping constant Cw (open thin-walled shapes).
+    /// Warping constant Cw.
     pub cw: Option<f64>,
+    /// Elastic section modulus about the vertical (weak) axis, Iy/(b/2).
+    #[serde(default)]
+    pub sy: Option<f64>,
+    /// Plastic section modulus about the vertical axis.
+    #[serde(default)]
+    pub zy: Option<f64>,
+    /// Height of the shear centre above the bottom fibre (on the vertical
+    /// axis of symmetry).
+    #[serde(default)]
+    pub y_sc: Option<f64>,
     /// Web area d·tw of an I-shape, for the average web shear V/(d·tw).
     pub web_area: Option<f64>,
     /// I-shape geometry, for the slenderness limits and lateral stability.
@@ -158,6 +168,15 @@ impl Properties {
         }
         if let Some(cw) = self.cw {
             v.push(("Warping constant Cw", cw, Show::Warping));
+        }
+        if let Some(sy) = self.sy {
+            v.push(("Elastic modulus Sy = Iy/(b/2)", sy, Show::SectionModulus));
+        }
+        if let Some(zy) = self.zy {
+            v.push(("Plastic modulus Zy", zy, Show::SectionModulus));
+        }
+        if let Some(y) = self.y_sc {
+            v.push(("Shear centre above bottom y_sc", y, Show::Dimension));
         }
         v
     }
@@ -454,5 +473,8 @@ pub(crate) fn from_composite(
         web_area: i_geometry.map(|g| g.d * g.tw),
         i_geometry,
         form: Form::Given,
+        sy: (width > 0.0).then(|| int.iy / (width / 2.0)),
+        zy: None,
+        y_sc: None,
     }
 }
