@@ -98,6 +98,10 @@ struct RawMaterial {
     ct: Option<Spanned<f64>>,
     #[serde(rename = "Ci")]
     ci: Option<Spanned<f64>>,
+    #[serde(rename = "Ct_E")]
+    ct_e: Option<Spanned<f64>>,
+    #[serde(rename = "Ci_E")]
+    ci_e: Option<Spanned<f64>>,
     #[serde(rename = "CF")]
     cf: Option<Spanned<f64>>,
     #[serde(rename = "Cr")]
@@ -501,6 +505,34 @@ pub fn from_toml(text: &str, file: &str) -> Result<Job> {
                 "a load needs exactly one of uniform, area (with width), linear, point or moment",
             );
         }
+        // Keys the load's kind does not use are refused, never ignored.
+        let distributed = l.uniform.is_some() || l.area.is_some() || l.linear.is_some();
+        let unused: [(&str, Option<std::ops::Range<usize>>, bool); 4] = [
+            ("at", l.at.as_ref().map(|v| v.span()), distributed),
+            ("from", l.from.as_ref().map(|v| v.span()), !distributed),
+            ("to", l.to.as_ref().map(|v| v.span()), !distributed),
+            (
+                "width",
+                l.width.as_ref().map(|v| v.span()),
+                l.area.is_none(),
+            ),
+        ];
+        for (key, sp, refused) in unused {
+            if let (Some(sp), true) = (sp, refused) {
+                let kind = ["uniform", "area", "linear", "point", "moment"]
+                    [kinds.iter().position(|k| *k).unwrap_or(0)];
+                let uses = match kind {
+                    "uniform" | "linear" => "from and to",
+                    "area" => "width, from and to",
+                    _ => "at",
+                };
+                return src.err(
+                    sp,
+                    &format!("{field}.{key}"),
+                    format!("a {kind} load does not use '{key}' (it takes {uses}): remove it, or give the load kind that uses it"),
+                );
+            }
+        }
         let kind = if let Some(u) = &l.uniform {
             let w = src.q(u, Dim::LineLoad, &format!("{field}.uniform"))?;
             LoadKind::Distributed {
@@ -752,6 +784,32 @@ pub fn from_toml(text: &str, file: &str) -> Result<Job> {
             (None, None) => {}
         }
     }
+    for (name, m) in
+        std::iter::once(("material", &material)).chain(grades.iter().map(|(n, m)| (n.as_str(), m)))
+    {
+        let what = if name == "material" {
+            "the job's material".to_string()
+        } else {
+            format!("the grade '{name}'")
+        };
+        if let Err(e) = criteria.fit(m.kind, &what) {
+            let key = match &raw.checks {
+                Some(c) if criteria.load_height == LoadHeight::TopFlange => c
+                    .load_height
+                    .as_ref()
+                    .map(|h| (h.span(), "checks.load_height")),
+                Some(c) => c
+                    .overhang_effective_length
+                    .as_ref()
+                    .map(|k| (k.span(), "checks.overhang_effective_length")),
+                None => None,
+            };
+            return Err(match key {
+                Some((span, f)) => e.at(&src.loc(span, f)),
+                None => e.at(&Location::in_file(file)),
+            });
+        }
+    }
     if criteria.self_weight && beam.self_weight_case.is_none() {
         notes.push("no dead load case: the section's self-weight is not included".into());
     }
@@ -817,6 +875,8 @@ fn parse_material(
         cm_e: factor(&m.cm_e),
         ct: factor(&m.ct),
         ci: factor(&m.ci),
+        ct_e: factor(&m.ct_e),
+        ci_e: factor(&m.ci_e),
         cf: factor(&m.cf),
         cr: factor(&m.cr),
         cfu: factor(&m.cfu),

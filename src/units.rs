@@ -563,6 +563,20 @@ impl Show {
         format!("{v:.decimals$}")
     }
 
+    /// As [`Show::fixed`] but rounded towards zero at the last decimal
+    /// shown, for capacities such as the longest passing span: a displayed
+    /// value never exceeds the computed one. (A value that is a whole
+    /// multiple of the last decimal to within 1e-9 of it stays itself.)
+    pub fn fixed_down(self, internal: f64, sys: System, decimals: usize) -> String {
+        let v = self.value(internal, sys);
+        let scale = 10f64.powi(decimals as i32);
+        let t = (v * scale + 1e-9 * v.signum()).trunc() / scale;
+        if t.abs() >= 1000.0 {
+            return fmt_num(t);
+        }
+        format!("{t:.decimals$}")
+    }
+
     /// Number and unit, e.g. `"12.5 kN·m"`.
     pub fn fmt(self, internal: f64, sys: System) -> String {
         let l = self.label(sys);

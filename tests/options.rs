@@ -175,6 +175,13 @@ fn table() -> BTreeMap<&'static str, (Expect, Vec<&'static str>)> {
     add("* --bracing", Changes, &["--bracing", "1m"]);
     add("* --braced-flange", Changes, &["--braced-flange", "both"]);
     add("* --load-height", Changes, &["--load-height", "top_flange"]);
+    // Timber beam stability uses NDS Table 3.3.3 effective lengths, which
+    // the steel load-height option would not change: refused.
+    add(
+        "sweep table --load-height",
+        Refused,
+        &["--load-height", "top_flange"],
+    );
     add("* --exclude", Changes, &["--exclude", "deflection"]);
     add("* --no-self-weight", Changes, &["--no-self-weight"]);
     // analyse checks no section: the check-only options are refused.

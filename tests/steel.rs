@@ -395,6 +395,41 @@ fn proportioning_limits_of_f13_2_are_not_verified_beyond() {
     // Singly symmetric: 0.1 ≤ Iyc/Iy ≤ 0.9 (F13-2).
     let lopsided = welded(80.0, 8.0, 400.0, 25.0, 600.0, 8.0);
     assert_eq!(strengths(&lopsided, fy, e), Err(steel::Missing::Range));
+    // §F5.2: R_pg (F5-6) is stated for a_w = h_c·t_w/(b_fc·t_fc) ≤ 10. A
+    // 1500 × 8 slender web on 125 × 10 flanges has a_w = 9.6 (evaluated);
+    // on 115 × 10 flanges a_w = 10.4 — outside the method, not verified
+    // (capping a_w at 10 would overstate R_pg).
+    let inside = welded(125.0, 10.0, 125.0, 10.0, 1500.0, 8.0);
+    let outside = welded(115.0, 10.0, 115.0, 10.0, 1500.0, 8.0);
+    assert_eq!(
+        strengths(&inside, fy, e).unwrap().flexure[0].provision,
+        Provision::F5
+    );
+    assert_eq!(strengths(&outside, fy, e), Err(steel::Missing::Range));
+}
+
+#[test]
+fn slender_web_flange_limit_uses_fl_of_0_7_fy() {
+    // AISC 360-16 Table B4.1b case 11 and its note [b]: F_L = 0.7·F_y for
+    // slender-web members; F_L = F_y·S_xt/S_xc ≥ 0.5F_y only for compact and
+    // noncompact webs with S_xt/S_xc < 0.7. A 1700 × 8 web with a 380 × 25
+    // top (compression, sagging) flange and a 300 × 12 bottom flange: by
+    // hand S_xt/S_xc = 0.649, h_c/t_w = 164.6 > 5.70√(E/F_y) = 137.2
+    // (slender), k_c = 4/√212.5 = 0.274 → 0.35. So
+    // λr = 0.95√(0.35·E/(0.7F_y)), not 0.95√(0.35·E/(0.649F_y)).
+    let (e, fy): (f64, f64) = (200_000.0, 345.0);
+    let p = welded(380.0, 25.0, 300.0, 12.0, 1700.0, 8.0);
+    let ratio = p.s_bot / p.s_top;
+    assert!((ratio - 0.649).abs() < 0.001, "S_xt/S_xc = {ratio}");
+    let st = strengths(&p, fy, e).unwrap();
+    let f = &st.flexure[0];
+    assert_eq!(f.provision, Provision::F5);
+    near(
+        "λr",
+        f.flange_class.unwrap().lambda_r,
+        0.95 * (0.35 * e / (0.7 * fy)).sqrt(),
+        1e-12,
+    );
 }
 
 #[test]
@@ -420,9 +455,27 @@ fn rectangular_hss_by_hand() {
     let want = (mp - (mp - fy * p.s_top) * (3.57 * bt * (fy / e).sqrt() - 4.0)).min(mp);
     near("F7-2", f.flange.unwrap().mn, want, 1e-12);
     assert!(f.web.is_none());
-    // G4: h = H − 2t, Aw = 2ht, kv = 5; h/t = 48 ≤ 1.10√(kv·E/Fy) = 59.2:
-    // Cv2 = 1, Vn = 0.6·Fy·Aw.
-    near("G4-1", st.shear.vn, 0.6 * fy * 2.0 * 288.0 * 6.0, 1e-12);
+    // G4: no corner radius given, so h = H − 3t (AISC 360-16 G4: "if the
+    // corner radius is not known, h shall be taken as the corresponding
+    // outside dimension minus three times the thickness") = 282; Aw = 2ht,
+    // kv = 5; h/t = 47 ≤ 1.10√(kv·E/Fy) = 59.2: Cv2 = 1, Vn = 0.6·Fy·Aw.
+    near("G4-1", st.shear.vn, 0.6 * fy * 2.0 * 282.0 * 6.0, 1e-12);
+    // With a known corner radius r_out = 15 mm: h = H − 2·r_out = 270.
+    let pr = Shape::Rhs {
+        b: 200.0,
+        h: 300.0,
+        t: 6.0,
+        r_out: 15.0,
+    }
+    .properties()
+    .unwrap();
+    let sr = strengths(&pr, fy, e).unwrap();
+    near(
+        "G4-1 (r known)",
+        sr.shear.vn,
+        0.6 * fy * 2.0 * 270.0 * 6.0,
+        1e-12,
+    );
     // A slender flange, 400 wide: be = 1.92t√(E/Fy)(1 − 0.38/(b/t)·√(E/Fy))
     // (F7-4), Se of the reduced section.
     let p = Shape::Rhs {

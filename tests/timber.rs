@@ -188,6 +188,8 @@ fn adjustment_factors_multiply_the_reference_values() {
         cm_e: Some(0.9),
         ct: None,
         ci: None,
+        ct_e: None,
+        ci_e: None,
         cf: Some(1.1),
         cr: Some(1.15),
         cfu: None,
@@ -328,4 +330,62 @@ fn catalogue_rows_bring_their_own_factors() {
     };
     common::close("row A: Fb·CF·Cr", cap("A"), 10.0 * 1.2 * 1.15, 1e-12);
     common::close("row B: Fb", cap("B"), 10.0, 1e-12);
+}
+
+#[test]
+fn steel_only_stability_options_are_refused_for_timber() {
+    // NDS 3.3.3: timber beam stability takes its effective length from
+    // Table 3.3.3, whatever the load position; the steel load-height and
+    // overhang effective-length options would change nothing, so they are
+    // refused rather than ignored (never ignored silently).
+    let job = |extra: &str| {
+        format!(
+            "[beam]\nspans = [\"4 m\"]\nsupports = [\"pinned\", \"roller\"]\n\
+             [material]\nkind = \"timber\"\nE = \"9 GPa\"\nEmin = \"3.3 GPa\"\nFb = \"8.5 MPa\"\n\
+             Fv = \"0.9 MPa\"\ndensity = \"420 kg/m3\"\n\
+             [[case]]\nname = \"dead\"\ncategory = \"dead\"\n\
+             [[load]]\ncase = \"dead\"\nuniform = \"1 kN/m\"\n\
+             [presets]\nstrength = \"asce7-16-asd\"\n\
+             [checks]\nlateral_bracing = \"none\"\n{extra}"
+        )
+    };
+    if let Err(e) = beamsift::job::from_toml(&job(""), "j.toml") {
+        panic!("the plain timber job is valid: {e}");
+    }
+    for (extra, key) in [
+        ("load_height = \"top_flange\"\n", "checks.load_height"),
+        (
+            "overhang_effective_length = 2.0\n",
+            "checks.overhang_effective_length",
+        ),
+    ] {
+        let e = beamsift::job::from_toml(&job(extra), "j.toml")
+            .expect_err("a steel-only option with a timber material")
+            .to_string();
+        assert!(e.contains("j.toml:") && e.contains(key), "{e}");
+        assert!(e.contains("NDS Table 3.3.3"), "{e}");
+    }
+}
+
+#[test]
+fn stiffness_takes_its_own_incising_and_temperature_factors() {
+    // NDS Table 4.3.8 (from memory): incising factor C_i = 0.80 on F_b and
+    // F_v, 0.95 on E and E_min. Without a stiffness value the strength
+    // factor is used for E too (conservative: a smaller E).
+    use beamsift::check::TimberFactors;
+    let only = TimberFactors {
+        ci: Some(0.80),
+        ..TimberFactors::default()
+    };
+    assert_eq!(only.fv_factor(), 0.80);
+    assert_eq!(only.e_factor(), 0.80);
+    let both = TimberFactors {
+        ci: Some(0.80),
+        ci_e: Some(0.95),
+        ct: Some(0.8),
+        ct_e: Some(0.9),
+        ..TimberFactors::default()
+    };
+    assert!((both.fb_factor() - 0.80 * 0.8).abs() < 1e-15);
+    assert!((both.e_factor() - 0.95 * 0.9).abs() < 1e-15);
 }

@@ -142,3 +142,18 @@ fn engineering_number_format() {
     assert_eq!(fmt_num(7.1), "7.1");
     assert_eq!(fmt_num(999.96), "1000");
 }
+
+#[test]
+fn capacities_are_shown_rounded_down() {
+    // A longest passing span of 4.2369 m shown to 0.01 m must read 4.23,
+    // never 4.24 (a span the section does not carry); 25.4·12·14.99 mm is
+    // 14.99 ft exactly and stays 14.99 (NIST SP 811: 1 ft = 304.8 mm).
+    assert_eq!(Show::Span.fixed_down(4236.9, System::Si, 2), "4.23");
+    assert_eq!(Show::Span.fixed(4236.9, System::Si, 2), "4.24");
+    assert_eq!(Show::Span.fixed_down(4200.0, System::Si, 2), "4.20");
+    assert_eq!(Show::Span.fixed_down(304.8 * 14.99, System::Us, 2), "14.99");
+    assert_eq!(
+        Show::Span.fixed_down(304.8 * 14.999, System::Us, 2),
+        "14.99"
+    );
+}

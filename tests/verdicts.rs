@@ -437,7 +437,7 @@ fn the_optimiser_treats_what_cannot_be_evaluated_as_infeasible() {
 fn selection_never_ranks_what_is_not_verified() {
     // Two rows given by properties only (shape unknown: local buckling
     // cannot be evaluated for an unstated material) and one rectangle.
-    let text = "name,A [mm2],Ix [mm4],d [mm],Q [mm3]\nG1,2000,400000000,300,100000\n";
+    let text = "name,A [mm2],Ix [mm4],d [mm],Q [mm3]\nG1,20000,400000000,300,100000\n";
     let text2 = "name,shape,b [mm],d [mm]\nR1,rect,100,400\n";
     let beam = span(4000.0, 2.0);
     let m = common::allowable(10_000.0, 10.0, Some(1.0), 450.0);

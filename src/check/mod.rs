@@ -140,6 +140,8 @@ impl Material {
             ("CM_E", t.cm_e),
             ("Ct", t.ct),
             ("Ci", t.ci),
+            ("Ct_E", t.ct_e),
+            ("Ci_E", t.ci_e),
             ("CF", t.cf),
             ("Cr", t.cr),
             ("Cfu", t.cfu),
@@ -338,6 +340,28 @@ impl Criteria {
             LoadHeight::TopFlange => 2.5,
         })
     }
+    /// Refuse the options that have no method for this material: timber
+    /// beam stability uses the effective lengths of NDS Table 3.3.3 (the
+    /// "any load" row, conservative for every load position), so the
+    /// steel load-height and overhang effective-length options would be
+    /// ignored there.
+    pub fn fit(&self, kind: MaterialKind, what: &str) -> Result<()> {
+        if kind != MaterialKind::Timber {
+            return Ok(());
+        }
+        if self.load_height == LoadHeight::TopFlange {
+            return Err(Error::msg(format!(
+                "load_height = \"top_flange\" applies to steel members; {what} is timber, whose beam stability factor uses the effective lengths of NDS Table 3.3.3 (any load, conservative for loads on the compression edge): leave load_height out"
+            )));
+        }
+        if self.overhang_k.is_some() {
+            return Err(Error::msg(format!(
+                "overhang_effective_length applies to steel members; {what} is timber, whose cantilever effective length comes from NDS Table 3.3.3: leave it out"
+            )));
+        }
+        Ok(())
+    }
+
     /// Effective-length factor of a segment between restraints: 1.0, or
     /// 1.2 for destabilising loads (from memory of BS 5950-1:2000 Table 13,
     /// ends free to rotate on plan; AISC 360-16 has no such factor).
@@ -863,6 +887,7 @@ impl Prepared {
     /// Analyse the beam once for these criteria.
     pub fn new(beam: &Beam, material: Material, criteria: Criteria) -> Result<Prepared> {
         material.validate()?;
+        criteria.fit(material.kind, &format!("the material '{}'", material.name))?;
         if let Bracing::Spacing(s) = criteria.bracing
             && !(s.is_finite() && s >= 1e-3 * beam.length().max(1.0) && s > 0.0)
         {
@@ -1483,6 +1508,9 @@ impl Prepared {
         ];
         if matches!(p.form, Form::WeldedI) {
             v.push("welds between the plates, and stiffeners (webs taken as unstiffened)".into());
+        }
+        if matches!(p.form, Form::Rhs { .. } | Form::Chs { .. }) && m.kind == MaterialKind::Steel {
+            v.push("the design wall thickness: t is used as given (AISC 360-16 B4.2 takes 0.93 × the nominal thickness for electric-resistance-welded HSS: enter that as t)".into());
         }
         if m.kind == MaterialKind::Timber {
             v.push("notches, holes, and the volume factor C_V of glulam (enter it in the adjustment factors)".into());

@@ -498,7 +498,7 @@ fn i_shape(
     let sx_min = p.s_top.min(p.s_bot);
     let mp = (fy * zx).min(1.6 * fy * sx_min);
     let my = fy * sx_min;
-    let sense = |sag: bool| -> Flexure {
+    let sense = |sag: bool| -> Result<Flexure, Missing> {
         let (bfc, tfc) = if sag {
             (g.bf_top, g.tf_top)
         } else {
@@ -546,10 +546,12 @@ fn i_shape(
         };
         let lam_f = bfc / (2.0 * tfc);
         let lam_pf = 0.38 * sq;
+        // Table B4.1b note [b]: F_L = 0.7·F_y for slender-web members.
+        let fl_flange = if lam_w > lam_rw { 0.7 * fy } else { fl };
         let lam_rf = if rolled {
             sq
         } else {
-            0.95 * (kc * e / fl).sqrt()
+            0.95 * (kc * e / fl_flange).sqrt()
         };
         let flange_class = Slenderness {
             ratio: "b_f/(2·t_f)",
@@ -596,7 +598,7 @@ fn i_shape(
                     eq: "F3-2",
                 }),
             };
-            return Flexure {
+            return Ok(Flexure {
                 provision: if flange.is_none() {
                     Provision::F2
                 } else {
@@ -612,7 +614,7 @@ fn i_shape(
                 ltb,
                 flange_class: Some(flange_class),
                 web_class: Some(web_class),
-            };
+            });
         }
         let myc = fy * sxc;
         let myt = fy * sxt;
@@ -644,7 +646,11 @@ fn i_shape(
                 }),
             };
             let tension_flange = (sxt < sxc).then(|| {
-                let rpt = if lam_w <= lam_pw {
+                // As for R_pc, R_pt = 1.0 when I_yc/I_y ≤ 0.23 (conservative,
+                // from memory of F4.4).
+                let rpt = if iyc / iy <= 0.23 {
+                    1.0
+                } else if lam_w <= lam_pw {
                     mp / myt
                 } else {
                     (mp / myt - (mp / myt - 1.0) * (lam_w - lam_pw) / (lam_rw - lam_pw))
@@ -655,7 +661,7 @@ fn i_shape(
                     eq: "F4-15",
                 }
             });
-            return Flexure {
+            return Ok(Flexure {
                 provision: Provision::F4,
                 yielding: Nominal {
                     mn: rpc * myc,
@@ -679,11 +685,15 @@ fn i_shape(
                 },
                 flange_class: Some(flange_class),
                 web_class: Some(web_class),
-            };
+            });
         }
-        // §F5.
-        let aw5 = aw.min(10.0);
-        let rpg = (1.0 - aw5 / (1200.0 + 300.0 * aw5) * (lam_w - 5.7 * sq)).min(1.0);
+        // §F5. R_pg (F5-6) is stated for a_w ≤ 10; a web larger than ten
+        // times the compression flange is outside the method (F5.2), so it
+        // is not verified rather than capped.
+        if aw > 10.0 {
+            return Err(Missing::Range);
+        }
+        let rpg = (1.0 - aw / (1200.0 + 300.0 * aw) * (lam_w - 5.7 * sq)).min(1.0);
         let lp = 1.1 * rt * sq;
         let lr = PI * rt * (e / (0.7 * fy)).sqrt();
         let flange = match flange_class.class {
@@ -697,7 +707,7 @@ fn i_shape(
                 eq: "F5-7 with F5-9",
             }),
         };
-        Flexure {
+        Ok(Flexure {
             provision: Provision::F5,
             yielding: Nominal {
                 mn: rpg * fy * sxc,
@@ -719,11 +729,11 @@ fn i_shape(
             },
             flange_class: Some(flange_class),
             web_class: Some(web_class),
-        }
+        })
     };
-    let sag = sense(true);
+    let sag = sense(true)?;
     // A doubly symmetric section bends the same way either way.
-    let hog = if sym { sag } else { sense(false) };
+    let hog = if sym { sag } else { sense(false)? };
     if (sag.provision == Provision::F2 || sag.provision == Provision::F3) && p.cw.is_none() {
         return Err(Missing::Properties);
     }
@@ -857,8 +867,15 @@ fn rhs(
             web_class: Some(web_class),
         }
     };
-    // §G4: h as above, A_w = 2·h·t, k_v = 5, C_v2 by G2-9 to G2-11.
+    // §G4: A_w = 2·h·t, k_v = 5, C_v2 by G2-9 to G2-11. h as above, but
+    // G4 takes h = H − 3t where the corner radius is not known: with no
+    // radius given (r_out = 0) that is used, which is conservative for a
+    // truly sharp-cornered box too (its h is H − 2t).
     let kv = 5.0;
+    let h = ho - 2.0 * r_out.max(1.5 * t);
+    if h <= 0.0 {
+        return Err(Missing::Range);
+    }
     let lam = h / t;
     let r = (kv * e / fy).sqrt();
     let (cv, eq) = if lam <= 1.10 * r {

@@ -38,10 +38,19 @@ pub struct TimberFactors {
     pub cm_fb: Option<f64>,
     pub cm_fv: Option<f64>,
     pub cm_e: Option<f64>,
-    /// Temperature factor (every property).
+    /// Temperature factor on F_b and F_v (and on E, E_min unless `ct_e`
+    /// is given: NDS Table 2.3.3 gives E a factor at least as large, so
+    /// using the strength factor for E is conservative).
     pub ct: Option<f64>,
-    /// Incising factor (every property).
+    /// Incising factor on F_b and F_v (and on E, E_min unless `ci_e` is
+    /// given; NDS Table 4.3.8: 0.80 on strengths, 0.95 on E and E_min).
     pub ci: Option<f64>,
+    /// Temperature factor on E and E_min.
+    #[serde(default)]
+    pub ct_e: Option<f64>,
+    /// Incising factor on E and E_min.
+    #[serde(default)]
+    pub ci_e: Option<f64>,
     /// Size factor on F_b.
     pub cf: Option<f64>,
     /// Repetitive member factor on F_b.
@@ -69,15 +78,19 @@ impl TimberFactors {
     pub fn fv_factor(&self) -> f64 {
         Self::f(self.cm_fv) * Self::f(self.ct) * Self::f(self.ci)
     }
+    /// E and E_min multiplier: C_M, C_t and C_i for stiffness (the
+    /// strength values of C_t and C_i when no stiffness value is given).
     pub fn e_factor(&self) -> f64 {
-        Self::f(self.cm_e) * Self::f(self.ct) * Self::f(self.ci)
+        Self::f(self.cm_e) * Self::f(self.ct_e.or(self.ct)) * Self::f(self.ci_e.or(self.ci))
     }
     /// Overlay the factors a catalogue row gives.
     pub fn with(mut self, o: &TimberFactors) -> TimberFactors {
         macro_rules! take {
             ($($f:ident),*) => { $( if o.$f.is_some() { self.$f = o.$f; } )* };
         }
-        take!(e_min, cd, cm_fb, cm_fv, cm_e, ct, ci, cf, cr, cfu);
+        take!(
+            e_min, cd, cm_fb, cm_fv, cm_e, ct, ci, ct_e, ci_e, cf, cr, cfu
+        );
         self
     }
     /// The factors given, in words (for the output).
@@ -92,8 +105,10 @@ impl TimberFactors {
         add("C_M (F_b)", self.cm_fb);
         add("C_M (F_v)", self.cm_fv);
         add("C_M (E)", self.cm_e);
-        add("C_t", self.ct);
-        add("C_i", self.ci);
+        add("C_t (F_b, F_v)", self.ct);
+        add("C_i (F_b, F_v)", self.ci);
+        add("C_t (E)", self.ct_e.or(self.ct));
+        add("C_i (E)", self.ci_e.or(self.ci));
         add("C_F", self.cf);
         add("C_r", self.cr);
         add("C_fu", self.cfu);

@@ -231,8 +231,30 @@ impl Prepared {
         };
         let (formula, n) = match it.kind {
             CheckKind::Yielding => {
-                if let Some(z) = p.zx {
+                // F5-1 uses S_xc only; F4-1 uses S_xc and, through
+                // R_pc = M_p/M_yc, Z_x; the others Z_x.
+                if f.provision != steel::Provision::F5
+                    && let Some(z) = p.zx
+                {
                     terms.push(t("Z_x", z, Show::SectionModulus));
+                }
+                if matches!(f.provision, steel::Provision::F4 | steel::Provision::F5) {
+                    let sxc = if it.sense == Sense::Hogging {
+                        p.s_bot
+                    } else {
+                        p.s_top
+                    };
+                    terms.push(t("S_xc", sxc, Show::SectionModulus));
+                    let r = f.yielding.mn / (fy * sxc);
+                    terms.push(t(
+                        if f.provision == steel::Provision::F4 {
+                            "R_pc"
+                        } else {
+                            "R_pg"
+                        },
+                        r,
+                        Show::Ratio,
+                    ));
                 }
                 slender(&f.web_class, &mut terms);
                 (

@@ -192,27 +192,43 @@ impl JobArgs {
             let shown = path.display().to_string();
             let text = beamsift::job::read_text(path, &shown)?;
             let mut job = job::from_toml(&text, &shown)?;
-            let grades = !job.grades.is_empty();
-            let overridden = self.apply_overrides(&mut job.material, &mut job.criteria)?;
-            if !overridden.is_empty() {
+            let (material, checks) = self.apply_overrides(&mut job.material, &mut job.criteria)?;
+            if !material.is_empty() {
                 job.notes.push(format!(
-                    "from the command line, replacing the job file's values: {}{}",
-                    overridden.join(", "),
-                    if grades {
-                        " (the job's material only: catalogue grades keep their own values)"
-                    } else {
+                    "from the command line, replacing the job file's material values: {}{}",
+                    material.join(", "),
+                    if job.grades.is_empty() {
                         ""
+                    } else {
+                        " (rows without a grade only: catalogue rows with a grade keep their grade's values)"
                     }
                 ));
+            }
+            if !checks.is_empty() {
+                job.notes.push(format!(
+                    "from the command line, replacing the job file's check settings: {}",
+                    checks.join(", ")
+                ));
+            }
+            for (name, g) in &job.grades {
+                job.criteria
+                    .fit(g.kind, &format!("the grade '{name}'"))
+                    .map_err(|e| e.in_field("--load-height"))?;
             }
             return Ok(job);
         }
         self.build_from_flags()
     }
 
-    /// Apply the material and check options; returns what was set, in words.
-    fn apply_overrides(&self, m: &mut Material, c: &mut Criteria) -> Result<Vec<String>> {
+    /// Apply the material and check options; returns what was set, in
+    /// words: (material options, check options).
+    fn apply_overrides(
+        &self,
+        m: &mut Material,
+        c: &mut Criteria,
+    ) -> Result<(Vec<String>, Vec<String>)> {
         let mut set = Vec::new();
+        let mut checks = Vec::new();
         let stress = |v: &Option<String>, name: &str| -> Result<Option<f64>> {
             v.as_deref()
                 .map(|t| flag(units::parse(t, Dim::Stress), name))
@@ -255,28 +271,28 @@ impl JobArgs {
         }
         if let Some(b) = &self.bracing {
             c.bracing = flag(job::parse_bracing(b), "--bracing")?;
-            set.push(format!("--bracing {b}"));
+            checks.push(format!("--bracing {b}"));
         }
         if let Some(b) = &self.braced_flange {
             c.braced_flange = flag(job::parse_braced_flange(b), "--braced-flange")?;
-            set.push(format!("--braced-flange {b}"));
+            checks.push(format!("--braced-flange {b}"));
         }
         if let Some(h) = &self.load_height {
             c.load_height = flag(job::parse_load_height(h), "--load-height")?;
-            set.push(format!("--load-height {h}"));
+            checks.push(format!("--load-height {h}"));
         }
         if let Some(list) = &self.exclude {
             for name in list.split(',').filter(|n| !n.trim().is_empty()) {
                 flag(c.exclude.add(name), "--exclude")?;
             }
-            set.push(format!("--exclude {list}"));
+            checks.push(format!("--exclude {list}"));
         }
         if self.no_self_weight {
             c.self_weight = false;
-            set.push("--no-self-weight".into());
+            checks.push("--no-self-weight".into());
         }
         flag(m.validate(), "material")?;
-        Ok(set)
+        Ok((set, checks))
     }
 
     fn build_from_flags(&self) -> Result<Job> {

@@ -313,7 +313,7 @@ fn run_lightest(a: LightestArgs, out: &Out) -> Result<i32> {
     let mut t = Table::new("", &refs);
     for r in &result.rows {
         let mut row = vec![
-            Show::Span.fixed(r.span, sys, 2),
+            Show::Span.fixed_down(r.span, sys, 2),
             r.section.clone().unwrap_or_else(|| "none passes".into()),
             r.mass
                 .map(|m| Show::Mass.fixed(m, sys, 1))
@@ -516,7 +516,11 @@ fn run_table(a: TableArgs, out: &Out) -> Result<i32> {
         let mut row = vec![r.section.clone(), Show::Mass.fixed(r.mass, sys, 1)];
         for c in &r.cells {
             row.push(match c.span {
-                Some(s) => format!("{} {}", Show::Span.fixed(s, sys, 2), short(c.governing)),
+                Some(s) => format!(
+                    "{} {}",
+                    Show::Span.fixed_down(s, sys, 2),
+                    short(c.governing)
+                ),
                 None if !c.not_verified.is_empty() => "not verified".into(),
                 None => "—".into(),
             });

@@ -481,27 +481,7 @@ pub fn document(job: &Job, r: &MemberCheck, sys: System) -> Document {
         ]);
     }
     doc.table(t);
-    if !r.settlements.is_empty() {
-        let dl = Show::Deflection.label(sys);
-        let mut st = Table::new(
-            format!(
-                "Spring settlements, downward [{dl}] (not in the deflection checks above, which measure from the chord of the displaced supports)"
-            ),
-            &[
-                ("Combination", Align::Left),
-                ("x", Align::Right),
-                ("min", Align::Right),
-                ("max", Align::Right),
-            ],
-        );
-        for x in &r.settlements {
-            st.row(vec![
-                x.combination.clone(),
-                Show::Span.fmt(x.x, sys),
-                Show::Deflection.num(x.min, sys),
-                Show::Deflection.num(x.max, sys),
-            ]);
-        }
+    if let Some(st) = settlements_table(r, sys) {
         doc.table(st);
     }
     doc.para(
@@ -546,4 +526,32 @@ Utilisation = demand / capacity (allowable strength: nominal/Ω).",
 /// Convenience: the kinds of section value a reader may want.
 pub fn section_input(props: &Properties, mass: f64) -> SectionInput<'_> {
     SectionInput::new(props, mass)
+}
+
+/// Each spring's settlement per combination (None without springs).
+pub fn settlements_table(r: &MemberCheck, sys: System) -> Option<Table> {
+    if r.settlements.is_empty() {
+        return None;
+    }
+    let dl = Show::Deflection.label(sys);
+    let mut st = Table::new(
+        format!(
+            "Spring settlements, downward [{dl}] (not in the deflection checks, which measure from the chord of the displaced supports)"
+        ),
+        &[
+            ("Combination", Align::Left),
+            ("x", Align::Right),
+            ("min", Align::Right),
+            ("max", Align::Right),
+        ],
+    );
+    for x in &r.settlements {
+        st.row(vec![
+            x.combination.clone(),
+            Show::Span.fmt(x.x, sys),
+            Show::Deflection.num(x.min, sys),
+            Show::Deflection.num(x.max, sys),
+        ]);
+    }
+    Some(st)
 }

@@ -36,6 +36,9 @@ pub fn build(
         .map(TableOut::from),
     );
     tables.push(calc::extremes_table(job, prep, r, sys).into());
+    if let Some(st) = super::member::settlements_table(r, sys) {
+        tables.push(st.into());
+    }
     tables.push(calc::section_table(r, sys).into());
     let verdict = match &r.governing {
         Some(g) => format!(

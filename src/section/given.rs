@@ -9,7 +9,7 @@
 //! and Cw enable lateral-torsional buckling.
 
 use super::{IGeometry, Properties, positive_value};
-use crate::error::{Error, Result};
+use crate::error::{Error, Location, Result};
 use serde::{Deserialize, Serialize};
 
 /// Table values of a section, internal units. `None` = not given.
@@ -41,7 +41,155 @@ fn opt_positive(name: &str, v: Option<f64>) -> Result<()> {
     }
 }
 
+/// Relative slack on the bounds below: tables round to three or four
+/// significant figures, so a bound is only enforced beyond 2 %.
+const BOUND_SLACK: f64 = 0.02;
+
 impl Given {
+    /// Bounds every cross-section obeys whatever its shape; a given value
+    /// outside them is a wrong unit or a wrong column, never a section.
+    ///
+    /// - I_x ≤ A·c_top·c_bot: the second moment about the centroid is the
+    ///   area times the variance of the fibre position, and a distribution
+    ///   on [−c_bot, c_top] with mean zero has variance at most
+    ///   c_top·c_bot (the Bhatia–Davis inequality).
+    /// - S = I_x/c at each extreme fibre (a definition; tables round).
+    /// - S_min ≤ Z_x ≤ A·d/2: the plastic moment is at least the first-yield
+    ///   moment, and Z = (A/2)·(ȳ_above + ȳ_below) with both distances
+    ///   within the depth.
+    /// - Q ≤ A·c_top·c_bot/d: Q is the first moment of the area on either
+    ///   side of the neutral axis, at most A_above·c_top and A_below·c_bot.
+    /// - I_y ≤ A·(b/2)² for a section symmetric about its vertical axis of
+    ///   width b (the same inequality across the width).
+    /// - J ≤ I_x + I_y: the torsion constant never exceeds the polar moment
+    ///   of area (Saint-Venant).
+    /// - t_w, t_f and b_f within the section: t_w ≤ b_f, 2·t_f < d.
+    fn physical_bounds(
+        &self,
+        area: f64,
+        ix: f64,
+        c_top: f64,
+        c_bot: f64,
+        depth: f64,
+    ) -> Result<()> {
+        let f = crate::units::fmt_num;
+        let over = |v: f64, bound: f64| v > bound * (1.0 + BOUND_SLACK);
+        let hint = "check the column's unit and that the value belongs to this row";
+        let cap = area * c_top * c_bot;
+        if over(ix, cap) {
+            return Err(Error::input(
+                Location::field("Ix"),
+                format!(
+                    "{} mm⁴ exceeds A·c_top·c_bot = {} mm⁴, which no section can: {hint}",
+                    f(ix),
+                    f(cap)
+                ),
+            ));
+        }
+        for (label, s, c) in [("S_top", self.s_top, c_top), ("S_bot", self.s_bot, c_bot)] {
+            if let Some(s) = s {
+                let def = ix / c;
+                if (s - def).abs() > BOUND_SLACK * def {
+                    return Err(Error::input(
+                        Location::field(label),
+                        format!(
+                            "{} mm³ but Ix/c = {} mm³ (c = {} mm from the centroid to that fibre): expected agreement within 2 %; {hint}",
+                            f(s),
+                            f(def),
+                            f(c)
+                        ),
+                    ));
+                }
+            }
+        }
+        if let Some(z) = self.zx {
+            let s_min = self
+                .s_top
+                .unwrap_or(ix / c_top)
+                .min(self.s_bot.unwrap_or(ix / c_bot));
+            if z < s_min * (1.0 - BOUND_SLACK) {
+                return Err(Error::input(
+                    Location::field("Zx"),
+                    format!(
+                        "{} mm³ is below the elastic modulus S = {} mm³; the plastic modulus is never smaller: {hint}",
+                        f(z),
+                        f(s_min)
+                    ),
+                ));
+            }
+            if over(z, area * depth / 2.0) {
+                return Err(Error::input(
+                    Location::field("Zx"),
+                    format!(
+                        "{} mm³ exceeds A·d/2 = {} mm³, which no section can: {hint}",
+                        f(z),
+                        f(area * depth / 2.0)
+                    ),
+                ));
+            }
+        }
+        if let Some(q) = self.q_na {
+            let qcap = area * c_top * c_bot / (c_top + c_bot);
+            if over(q, qcap) {
+                return Err(Error::input(
+                    Location::field("Q"),
+                    format!(
+                        "{} mm³ exceeds A·c_top·c_bot/d = {} mm³, which no section can: {hint}",
+                        f(q),
+                        f(qcap)
+                    ),
+                ));
+            }
+        }
+        if let (Some(iy), Some(b)) = (self.iy, self.width.or(self.bf)) {
+            let icap = area * b * b / 4.0;
+            if over(iy, icap) {
+                return Err(Error::input(
+                    Location::field("Iy"),
+                    format!(
+                        "{} mm⁴ exceeds A·(b/2)² = {} mm⁴ for a width of {} mm, which no section can: {hint}",
+                        f(iy),
+                        f(icap),
+                        f(b)
+                    ),
+                ));
+            }
+        }
+        if let (Some(j), Some(iy)) = (self.j, self.iy)
+            && over(j, ix + iy)
+        {
+            return Err(Error::input(
+                Location::field("J"),
+                format!(
+                    "{} mm⁴ exceeds the polar moment Ix + Iy = {} mm⁴, which no section can: {hint}",
+                    f(j),
+                    f(ix + iy)
+                ),
+            ));
+        }
+        if let (Some(tw), Some(bf)) = (self.tw, self.bf)
+            && tw > bf
+        {
+            return Err(Error::input(
+                Location::field("tw"),
+                format!("{} mm is wider than the flange bf = {} mm", f(tw), f(bf)),
+            ));
+        }
+        if let Some(tf) = self.tf
+            && 2.0 * tf >= depth
+        {
+            return Err(Error::input(
+                Location::field("tf"),
+                format!(
+                    "two flanges of {} mm do not fit in the depth d = {} mm",
+                    f(tf),
+                    f(depth)
+                ),
+            ));
+        }
+        Ok(())
+    }
+
     /// Build the properties, checking every given value.
     pub fn properties(&self) -> Result<Properties> {
         for (name, v) in [
@@ -87,6 +235,7 @@ impl Given {
                 crate::units::fmt_num(depth)
             )));
         }
+        self.physical_bounds(area, ix, c_top, c_bot, depth)?;
         let i_geometry = match (self.bf, self.tf, self.tw) {
             (Some(bf), Some(tf), Some(tw)) if 2.0 * tf < depth => Some(IGeometry {
                 d: depth,
