@@ -391,10 +391,10 @@ fn proportioning_limits_of_f13_2_are_not_verified_beyond() {
     let below = welded(400.0, 25.0, 400.0, 25.0, lim * tw * (1.0 - 1e-9), tw);
     let above = welded(400.0, 25.0, 400.0, 25.0, lim * tw * (1.0 + 1e-6), tw);
     assert!(strengths(&below, fy, e).is_ok());
-    assert_eq!(strengths(&above, fy, e), Err(steel::Missing::Range));
+    assert_eq!(strengths(&above, fy, e), Err(steel::Missing::SteelRange));
     // Singly symmetric: 0.1 ≤ Iyc/Iy ≤ 0.9 (F13-2).
     let lopsided = welded(80.0, 8.0, 400.0, 25.0, 600.0, 8.0);
-    assert_eq!(strengths(&lopsided, fy, e), Err(steel::Missing::Range));
+    assert_eq!(strengths(&lopsided, fy, e), Err(steel::Missing::SteelRange));
     // §F5.2: R_pg (F5-6) is stated for a_w = h_c·t_w/(b_fc·t_fc) ≤ 10. A
     // 1500 × 8 slender web on 125 × 10 flanges has a_w = 9.6 (evaluated);
     // on 115 × 10 flanges a_w = 10.4 — outside the method, not verified
@@ -405,7 +405,7 @@ fn proportioning_limits_of_f13_2_are_not_verified_beyond() {
         strengths(&inside, fy, e).unwrap().flexure[0].provision,
         Provision::F5
     );
-    assert_eq!(strengths(&outside, fy, e), Err(steel::Missing::Range));
+    assert_eq!(strengths(&outside, fy, e), Err(steel::Missing::SteelRange));
 }
 
 #[test]
@@ -522,7 +522,7 @@ fn round_hss_by_hand() {
     assert_eq!(st.flexure[0].ltb, Ltb::None);
     // D/t ≥ 0.45E/Fy is outside §F8.
     let thin = Shape::Chs { d: 600.0, t: 2.0 }.properties().unwrap();
-    assert_eq!(strengths(&thin, fy, e), Err(steel::Missing::Range));
+    assert_eq!(strengths(&thin, fy, e), Err(steel::Missing::SteelRange));
 }
 
 #[test]

@@ -1042,29 +1042,22 @@ impl Prepared {
         p: &Properties,
         m: &Material,
     ) -> Option<std::result::Result<steel::Steel, Gap>> {
-        self.steel_for(p, m, true)
+        (m.kind == MaterialKind::Steel).then(|| self.steel_for(p, m, true))
     }
 
-    /// The steel strengths, with lateral-torsional buckling constants only
-    /// when asked for.
+    /// The steel strengths of a steel material, with lateral-torsional
+    /// buckling constants only when asked for.
     #[inline]
     fn steel_for(
         &self,
         p: &Properties,
         m: &Material,
         with_ltb: bool,
-    ) -> Option<std::result::Result<steel::Steel, Gap>> {
-        if m.kind != MaterialKind::Steel {
-            return None;
-        }
-        Some(match m.fy {
+    ) -> std::result::Result<steel::Steel, Gap> {
+        match m.fy {
             None => Err(Gap::NoYieldStress),
-            Some(fy) => steel::strengths_for(p, fy, m.e, with_ltb).map_err(|e| match e {
-                steel::Missing::Properties => Gap::SteelProperties,
-                steel::Missing::Range => Gap::SteelRange,
-                steel::Missing::Shape => Gap::ShapeUnknown,
-            }),
-        })
+            Some(fy) => steel::strengths_for(p, fy, m.e, with_ltb),
+        }
     }
 
     /// Visit every check line of a section, and every gap (no allocation).
@@ -1079,16 +1072,23 @@ impl Prepared {
         let sl = d.section(w, ei);
         let timber = m.kind == MaterialKind::Timber;
         let need_ltb = !self.segments.is_empty() && !ex.lateral_torsional_buckling;
-        let steel_res = self.steel_for(p, m, need_ltb);
-        let steel = match &steel_res {
-            Some(Ok(s)) => Some(s),
-            Some(Err(g)) => {
-                sink.gap(*g);
-                None
-            }
-            None => None,
-        };
         let is_steel = m.kind == MaterialKind::Steel;
+        let mut st_buf = steel::Steel::EMPTY;
+        let steel_ok = is_steel
+            && match m.fy {
+                None => {
+                    sink.gap(Gap::NoYieldStress);
+                    false
+                }
+                Some(fy) => match steel::strengths_into(p, fy, m.e, need_ltb, &mut st_buf) {
+                    Ok(()) => true,
+                    Err(g) => {
+                        sink.gap(g);
+                        false
+                    }
+                },
+            };
+        let steel = steel_ok.then_some(&st_buf);
         // Sections whose plates can buckle locally.
         let plated = matches!(
             p.form,

@@ -48,17 +48,12 @@ pub fn cb(mmax: f64, ma: f64, mb: f64, mc: f64) -> f64 {
     if den <= 0.0 { 1.0 } else { 12.5 * mmax / den }
 }
 
-/// Why a steel limit state cannot be evaluated.
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
-pub enum Missing {
-    /// Iy, J, Cw or Zx not known (table values not given).
-    Properties,
-    /// Outside the range of the method (e.g. §F13.2, D/t of §F8, slender
-    /// HSS webs).
-    Range,
-    /// The shape is not known (table values only).
-    Shape,
-}
+/// Why a steel limit state cannot be evaluated: `Gap::SteelProperties`
+/// (Iy, J, Cw or Zx not known), `Gap::SteelRange` (outside the method's
+/// range, e.g. §F13.2, D/t of §F8, slender HSS webs) or `Gap::ShapeUnknown`
+/// (table values only). The check's own gap type, so the strengths reach
+/// the check without conversion or copying.
+pub type Missing = super::Gap;
 
 /// Compactness of an element (Table B4.1b).
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -409,6 +404,34 @@ pub struct Steel {
     pub shear: Shear,
 }
 
+impl Flexure {
+    /// A placeholder to be written over.
+    pub const EMPTY: Flexure = Flexure {
+        provision: Provision::F2,
+        yielding: Nominal { mn: 0.0, eq: "" },
+        flange: None,
+        web: None,
+        tension_flange: None,
+        ltb: Ltb::None,
+        flange_class: None,
+        web_class: None,
+    };
+}
+
+impl Steel {
+    /// A placeholder to be written over.
+    pub const EMPTY: Steel = Steel {
+        flexure: [Flexure::EMPTY; 2],
+        shear: Shear {
+            vn: 0.0,
+            omega: 1.0,
+            eq: "",
+            cv: 1.0,
+            area: 0.0,
+        },
+    };
+}
+
 /// A section as AISC sees it: doubly symmetric within round-off?
 fn doubly_symmetric(g: &IGeometry) -> bool {
     (g.bf_top - g.bf_bot).abs() <= 1e-9 * g.bf_top && (g.tf_top - g.tf_bot).abs() <= 1e-9 * g.tf_top
@@ -444,14 +467,41 @@ pub fn strengths(p: &Properties, fy: f64, e: f64) -> Result<Steel, Missing> {
 /// no unbraced segment.
 #[inline]
 pub fn strengths_for(p: &Properties, fy: f64, e: f64, with_ltb: bool) -> Result<Steel, Missing> {
+    let mut out = Steel::EMPTY;
+    strengths_into(p, fy, e, with_ltb, &mut out)?;
+    Ok(out)
+}
+
+/// As [`strengths_for`], written into `out` (the check's hot path: no
+/// copy of the result). On an error `out` is left partly written.
+#[inline]
+pub fn strengths_into(
+    p: &Properties,
+    fy: f64,
+    e: f64,
+    with_ltb: bool,
+    out: &mut Steel,
+) -> Result<(), Missing> {
     match p.form {
-        Form::RolledI | Form::WeldedI => i_shape(p, fy, e, p.form == Form::RolledI, with_ltb),
-        Form::Given if p.i_geometry.is_some() => i_shape(p, fy, e, false, with_ltb),
-        Form::Rhs { b, h, t, r_out } => rhs(p, fy, e, b, h, t, r_out),
-        Form::Chs { d, t } => chs(p, fy, e, d, t),
-        Form::Rect { b, d } => bar(p, fy, e, Some((b, d))),
-        Form::Round { .. } => bar(p, fy, e, None),
-        Form::Given => Err(Missing::Shape),
+        Form::RolledI | Form::WeldedI => i_shape(p, fy, e, p.form == Form::RolledI, with_ltb, out),
+        Form::Given if p.i_geometry.is_some() => i_shape(p, fy, e, false, with_ltb, out),
+        Form::Rhs { b, h, t, r_out } => {
+            *out = rhs(p, fy, e, b, h, t, r_out)?;
+            Ok(())
+        }
+        Form::Chs { d, t } => {
+            *out = chs(p, fy, e, d, t)?;
+            Ok(())
+        }
+        Form::Rect { b, d } => {
+            *out = bar(p, fy, e, Some((b, d)))?;
+            Ok(())
+        }
+        Form::Round { .. } => {
+            *out = bar(p, fy, e, None)?;
+            Ok(())
+        }
+        Form::Given => Err(Missing::ShapeUnknown),
     }
 }
 
@@ -462,20 +512,21 @@ fn i_shape(
     e: f64,
     rolled: bool,
     with_ltb: bool,
-) -> Result<Steel, Missing> {
-    let g = p.i_geometry.ok_or(Missing::Shape)?;
+    out: &mut Steel,
+) -> Result<(), Missing> {
+    let g = p.i_geometry.ok_or(Missing::ShapeUnknown)?;
     let (iy, zx) = (
-        p.iy.ok_or(Missing::Properties)?,
-        p.zx.ok_or(Missing::Properties)?,
+        p.iy.ok_or(Missing::SteelProperties)?,
+        p.zx.ok_or(Missing::SteelProperties)?,
     );
-    let j = p.j.ok_or(Missing::Properties)?;
+    let j = p.j.ok_or(Missing::SteelProperties)?;
     let sq = (e / fy).sqrt();
     let sym = doubly_symmetric(&g);
     // Web depth for slenderness: clear distance between the flanges less
     // the fillets (Table B4.1b, h).
     let h = g.hw - 2.0 * g.r;
     if h <= 0.0 {
-        return Err(Missing::Range);
+        return Err(Missing::SteelRange);
     }
     let lam_rw = 5.70 * sq;
     // §F13.2: proportioning limits.
@@ -488,17 +539,17 @@ fn i_shape(
             .iter()
             .any(|r| !(0.1..=0.9).contains(r))
         {
-            return Err(Missing::Range);
+            return Err(Missing::SteelRange);
         }
     }
     if h / g.tw > lam_rw && h / g.tw > (0.40 * e / fy).min(260.0) {
-        return Err(Missing::Range);
+        return Err(Missing::SteelRange);
     }
     let yp = plastic_axis(&g);
     let sx_min = p.s_top.min(p.s_bot);
     let mp = (fy * zx).min(1.6 * fy * sx_min);
     let my = fy * sx_min;
-    let sense = |sag: bool| -> Result<Flexure, Missing> {
+    let sense = |sag: bool, out: &mut Flexure| -> Result<(), Missing> {
         let (bfc, tfc) = if sag {
             (g.bf_top, g.tf_top)
         } else {
@@ -598,7 +649,7 @@ fn i_shape(
                     eq: "F3-2",
                 }),
             };
-            return Ok(Flexure {
+            *out = Flexure {
                 provision: if flange.is_none() {
                     Provision::F2
                 } else {
@@ -614,7 +665,8 @@ fn i_shape(
                 ltb,
                 flange_class: Some(flange_class),
                 web_class: Some(web_class),
-            });
+            };
+            return Ok(());
         }
         let myc = fy * sxc;
         let myt = fy * sxt;
@@ -661,7 +713,7 @@ fn i_shape(
                     eq: "F4-15",
                 }
             });
-            return Ok(Flexure {
+            *out = Flexure {
                 provision: Provision::F4,
                 yielding: Nominal {
                     mn: rpc * myc,
@@ -685,13 +737,14 @@ fn i_shape(
                 },
                 flange_class: Some(flange_class),
                 web_class: Some(web_class),
-            });
+            };
+            return Ok(());
         }
         // §F5. R_pg (F5-6) is stated for a_w ≤ 10; a web larger than ten
         // times the compression flange is outside the method (F5.2), so it
         // is not verified rather than capped.
         if aw > 10.0 {
-            return Err(Missing::Range);
+            return Err(Missing::SteelRange);
         }
         let rpg = (1.0 - aw / (1200.0 + 300.0 * aw) * (lam_w - 5.7 * sq)).min(1.0);
         let lp = 1.1 * rt * sq;
@@ -707,7 +760,7 @@ fn i_shape(
                 eq: "F5-7 with F5-9",
             }),
         };
-        Ok(Flexure {
+        *out = Flexure {
             provision: Provision::F5,
             yielding: Nominal {
                 mn: rpg * fy * sxc,
@@ -729,18 +782,24 @@ fn i_shape(
             },
             flange_class: Some(flange_class),
             web_class: Some(web_class),
-        })
+        };
+        Ok(())
     };
-    let sag = sense(true)?;
+    let [sag, hog] = &mut out.flexure;
+    sense(true, sag)?;
     // A doubly symmetric section bends the same way either way.
-    let hog = if sym { sag } else { sense(false)? };
+    if sym {
+        *hog = *sag;
+    } else {
+        sense(false, hog)?;
+    }
     if (sag.provision == Provision::F2 || sag.provision == Provision::F3) && p.cw.is_none() {
-        return Err(Missing::Properties);
+        return Err(Missing::SteelProperties);
     }
     // §G2.1: h as for slenderness, A_w = d·t_w, k_v = 5.34 (no stiffeners).
     let lam = h / g.tw;
     let aw = g.d * g.tw;
-    let shear = if rolled && lam <= 2.24 * sq {
+    out.shear = if rolled && lam <= 2.24 * sq {
         Shear {
             vn: 0.6 * fy * aw,
             omega: OMEGA_V_ROLLED,
@@ -763,10 +822,7 @@ fn i_shape(
             area: aw,
         }
     };
-    Ok(Steel {
-        flexure: [sag, hog],
-        shear,
-    })
+    Ok(())
 }
 
 #[allow(clippy::too_many_arguments)]
@@ -779,10 +835,10 @@ fn rhs(
     t: f64,
     r_out: f64,
 ) -> Result<Steel, Missing> {
-    let zx = p.zx.ok_or(Missing::Properties)?;
+    let zx = p.zx.ok_or(Missing::SteelProperties)?;
     let (iy, j) = (
-        p.iy.ok_or(Missing::Properties)?,
-        p.j.ok_or(Missing::Properties)?,
+        p.iy.ok_or(Missing::SteelProperties)?,
+        p.j.ok_or(Missing::SteelProperties)?,
     );
     let sq = (e / fy).sqrt();
     // Flat widths: the clear distance between the walls less the inside
@@ -791,7 +847,7 @@ fn rhs(
     let b = bo - 2.0 * corner;
     let h = ho - 2.0 * corner;
     if b <= 0.0 || h <= 0.0 {
-        return Err(Missing::Range);
+        return Err(Missing::SteelRange);
     }
     let s = p.s_top.min(p.s_bot);
     let mp = fy * zx;
@@ -811,7 +867,7 @@ fn rhs(
     };
     if web_class.class == Class::Slender {
         // Slender HSS webs (F7.3(c)) are not implemented.
-        return Err(Missing::Range);
+        return Err(Missing::SteelRange);
     }
     let sense = |sag: bool| -> Flexure {
         let flange = match flange_class.class {
@@ -874,7 +930,7 @@ fn rhs(
     let kv = 5.0;
     let h = ho - 2.0 * r_out.max(1.5 * t);
     if h <= 0.0 {
-        return Err(Missing::Range);
+        return Err(Missing::SteelRange);
     }
     let lam = h / t;
     let r = (kv * e / fy).sqrt();
@@ -901,11 +957,11 @@ fn rhs(
 }
 
 fn chs(p: &Properties, fy: f64, e: f64, d: f64, t: f64) -> Result<Steel, Missing> {
-    let zx = p.zx.ok_or(Missing::Properties)?;
+    let zx = p.zx.ok_or(Missing::SteelProperties)?;
     let dt = d / t;
     if dt >= 0.45 * e / fy {
         // Outside the scope of §F8.
-        return Err(Missing::Range);
+        return Err(Missing::SteelRange);
     }
     let s = p.s_top.min(p.s_bot);
     let lp = 0.07 * e / fy;
@@ -956,7 +1012,7 @@ fn chs(p: &Properties, fy: f64, e: f64, d: f64, t: f64) -> Result<Steel, Missing
 }
 
 fn bar(p: &Properties, fy: f64, _e: f64, rect: Option<(f64, f64)>) -> Result<Steel, Missing> {
-    let zx = p.zx.ok_or(Missing::Properties)?;
+    let zx = p.zx.ok_or(Missing::SteelProperties)?;
     let sx = p.s_top.min(p.s_bot);
     let mp = (fy * zx).min(1.6 * fy * sx);
     let ltb = match rect {
@@ -985,8 +1041,8 @@ fn bar(p: &Properties, fy: f64, _e: f64, rect: Option<(f64, f64)>) -> Result<Ste
     };
     // Elastic peak shear stress V·Q/(I·t) ≤ 0.6·F_y: V_n = 0.6·F_y·I·t/Q.
     let (q, t) = (
-        p.q_na.ok_or(Missing::Properties)?,
-        p.t_na.ok_or(Missing::Properties)?,
+        p.q_na.ok_or(Missing::SteelProperties)?,
+        p.t_na.ok_or(Missing::SteelProperties)?,
     );
     let area = p.ix * t / q;
     Ok(Steel {
