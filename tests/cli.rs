@@ -190,7 +190,7 @@ fn outputs_are_never_lost() {
         &["--json", "-o", out.to_str().unwrap()],
     ]
     .concat());
-    assert_eq!(o.status.code(), Some(2));
+    assert_eq!(o.status.code(), Some(3));
     assert!(text(&o).1.contains("--force"));
     assert_eq!(std::fs::read_to_string(&out).unwrap(), "precious");
     let o = run(&[
@@ -220,7 +220,7 @@ fn outputs_are_never_lost() {
         "-o",
         cat.to_str().unwrap(),
     ]);
-    assert_eq!(o.status.code(), Some(2));
+    assert_eq!(o.status.code(), Some(3));
     assert!(text(&o).1.contains("input"));
     assert_eq!(std::fs::read(&cat).unwrap(), before);
     // A folder that does not exist is a clear error.
@@ -230,6 +230,6 @@ fn outputs_are_never_lost() {
         &["-o", "/nonexistent-folder/x.txt"],
     ]
     .concat());
-    assert_eq!(o.status.code(), Some(2));
+    assert_eq!(o.status.code(), Some(3));
     assert!(text(&o).1.contains("does not exist"));
 }

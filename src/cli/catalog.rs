@@ -359,9 +359,9 @@ fn generate(a: GenerateArgs, out: &Out) -> Result<i32> {
     };
     let n = match &out.path {
         Some(p) => {
-            let mut f = super::output::AtomicFile::create(p)?;
+            let mut f = super::files::StreamFile::create(p)?;
             let n = generate::generate(&spec, &a.currency, f.writer())?;
-            f.commit()?;
+            f.commit(out.force)?;
             eprintln!("beamsift: wrote {n} rows to {}", p.display());
             n
         }

@@ -32,9 +32,6 @@ pub struct Args {
 
 pub fn run(a: Args, out: &Out) -> beamsift::Result<i32> {
     let shape = shape_from_pairs(&a.shape, &split_pairs(&a.dims)?)?;
-    if let Some(p) = &a.report {
-        super::report::check_paths(p, out.force, &a.job.job.iter().cloned().collect::<Vec<_>>())?;
-    }
     let job = a.job.load()?;
     let props = shape.properties()?;
     let mass = props.mass_per_length(job.material.density);

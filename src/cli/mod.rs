@@ -6,6 +6,7 @@ mod batch;
 mod catalog;
 mod catargs;
 mod check;
+mod files;
 mod jobargs;
 mod optimise;
 mod output;
@@ -108,6 +109,7 @@ pub fn main() -> i32 {
             "beamsift: internal error (please report it, with the command and input): {info}"
         );
     }));
+    files::install_signal_cleanup();
     let cli = Cli::parse();
     let outcome = std::panic::catch_unwind(std::panic::AssertUnwindSafe(|| run(cli)));
     let Ok(outcome) = outcome else {
@@ -144,23 +146,109 @@ pub fn exit_code(e: &Error) -> i32 {
 
 fn run(cli: Cli) -> beamsift::Result<i32> {
     let out = cli.out.resolve()?;
-    match cli.command {
-        Command::Section(a) => section::run(a, &out),
-        Command::Check(a) => check::run(a, &out),
-        Command::Analyse(a) => analyse::run(a, &out),
-        Command::Select(a) => select::run(a, &out),
-        Command::Shortlist(a) => select::run_shortlist(a, &out),
-        Command::Batch(a) => batch::run(a, &out),
-        Command::Catalog(c) => catalog::run(c, &out),
-        Command::Optimise(a) => optimise::run(a, &out),
-        Command::Sweep(c) => sweep::run(c, &out),
-        Command::Report(a) => report::run(a, &out),
+    let (inputs, outputs) = cli.command.files(&out);
+    files::check(&inputs, &outputs, out.force)?;
+    if out.path.is_none() && !files::stdout_is_open() {
+        return Err(Error::io(
+            "standard output",
+            std::io::Error::other(
+                "is closed: the result would be lost (redirect it, or use -o FILE)",
+            ),
+        ));
+    }
+    let result = run_command(cli.command, &out);
+    match result {
+        Ok(code) => {
+            files::commit_queued(out.force)?;
+            Ok(code)
+        }
+        Err(e) => {
+            files::discard();
+            Err(e)
+        }
+    }
+}
+
+impl Command {
+    /// The files this command reads and the files it writes, from its
+    /// parsed arguments.
+    fn files(&self, out: &Out) -> (Vec<std::path::PathBuf>, Vec<std::path::PathBuf>) {
+        let mut inputs: Vec<std::path::PathBuf> = Vec::new();
+        let mut outputs: Vec<std::path::PathBuf> = out.path.iter().cloned().collect();
+        let pair = |p: &std::path::Path, outputs: &mut Vec<std::path::PathBuf>| {
+            let (md, html) = report::report_paths(p);
+            outputs.push(md);
+            outputs.push(html);
+        };
+        match self {
+            Command::Section(_) | Command::Completions { .. } => {}
+            Command::Check(a) => {
+                inputs.extend(a.job.job.clone());
+                if let Some(p) = &a.report {
+                    pair(p, &mut outputs);
+                }
+            }
+            Command::Analyse(a) => inputs.extend(a.job.job.clone()),
+            Command::Select(a) => {
+                inputs.extend(a.job.job.clone());
+                inputs.extend(a.cat.catalog.clone());
+                if let Some(p) = &a.report {
+                    pair(p, &mut outputs);
+                }
+            }
+            Command::Shortlist(a) => {
+                inputs.extend(a.job.job.clone());
+                inputs.extend(a.cat.catalog.clone());
+            }
+            Command::Batch(a) => {
+                inputs.push(a.schedule.clone());
+                inputs.push(a.job.clone());
+                inputs.extend(a.cat.catalog.clone());
+            }
+            Command::Optimise(a) => inputs.extend(a.job.job.clone()),
+            Command::Report(a) => {
+                inputs.extend(a.job.job.clone());
+                inputs.extend(a.catalog.clone());
+                pair(&a.to, &mut outputs);
+            }
+            Command::Sweep(sweep::Cmd::Lightest(a)) => {
+                inputs.extend(a.job.job.clone());
+                inputs.extend(a.cat.catalog.clone());
+                outputs.extend(a.chart.clone());
+            }
+            Command::Sweep(sweep::Cmd::Table(a)) => {
+                inputs.extend(a.job.job.clone());
+                inputs.extend(a.cat.catalog.clone());
+                outputs.extend(a.chart.clone());
+            }
+            Command::Catalog(catalog::Cmd::Validate(a) | catalog::Cmd::Show(a)) => {
+                inputs.push(a.file.clone());
+                inputs.extend(a.job.clone());
+            }
+            Command::Catalog(catalog::Cmd::Generate(_)) => {}
+        }
+        (inputs, outputs)
+    }
+}
+
+fn run_command(command: Command, out: &Out) -> beamsift::Result<i32> {
+    match command {
+        Command::Section(a) => section::run(a, out),
+        Command::Check(a) => check::run(a, out),
+        Command::Analyse(a) => analyse::run(a, out),
+        Command::Select(a) => select::run(a, out),
+        Command::Shortlist(a) => select::run_shortlist(a, out),
+        Command::Batch(a) => batch::run(a, out),
+        Command::Catalog(c) => catalog::run(c, out),
+        Command::Optimise(a) => optimise::run(a, out),
+        Command::Sweep(c) => sweep::run(c, out),
+        Command::Report(a) => report::run(a, out),
         Command::Completions { shell } => {
             use clap::CommandFactory;
             let mut cmd = Cli::command();
             let mut buf = Vec::new();
             clap_complete::generate(shell, &mut cmd, "beamsift", &mut buf);
-            output::emit(&out, &String::from_utf8_lossy(&buf))?;
+            output::emit(out, &String::from_utf8_lossy(&buf))?;
             Ok(0)
         }
     }

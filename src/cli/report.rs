@@ -55,13 +55,6 @@ pub fn report_paths(prefix: &Path) -> (PathBuf, PathBuf) {
     )
 }
 
-/// Check report paths before any work starts.
-pub fn check_paths(prefix: &Path, force: bool, inputs: &[PathBuf]) -> Result<()> {
-    let (md, html) = report_paths(prefix);
-    super::output::guard(&md, force, inputs)?;
-    super::output::guard(&html, force, inputs)
-}
-
 /// Write the sheet; returns the two paths.
 #[allow(clippy::too_many_arguments)]
 pub fn write(
@@ -84,8 +77,8 @@ pub fn write(
     let r = member::member_check(job, prep, name, props, mass, material);
     let s = sheet::build(job, prep, &r, source, alternatives, sys);
     let (md, html) = report_paths(prefix);
-    write_atomic(&md, sheet::markdown(&s).as_bytes())?;
-    write_atomic(&html, sheet::html(&s).as_bytes())?;
+    write_atomic(&md, sheet::markdown(&s).as_bytes());
+    write_atomic(&html, sheet::html(&s).as_bytes());
     Ok((md, html, s, r.verdict))
 }
 
@@ -125,9 +118,6 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         )
         .in_field("--format"));
     }
-    let mut inputs = a.catalog.clone();
-    inputs.extend(a.job.job.clone());
-    check_paths(&a.to, out.force, &inputs)?;
     let job = a.job.load()?;
     let prep = prepare(&job)?;
     let sys = out.units;

@@ -277,11 +277,6 @@ fn counts_line(sel: &Selection, skip_bad_rows: bool) -> String {
 }
 
 pub fn run(a: Args, out: &Out) -> Result<i32> {
-    if let Some(p) = &a.report {
-        let mut inputs = a.cat.catalog.clone();
-        inputs.extend(a.job.job.clone());
-        super::report::check_paths(p, out.force, &inputs)?;
-    }
     let job = a.job.load()?;
     let prep = prepare(&job)?;
     let top = if a.all { usize::MAX } else { a.top.max(1) };
