@@ -661,11 +661,15 @@ pub fn from_toml(text: &str, file: &str) -> Result<Job> {
                     ),
                 );
             };
-            if !f.is_finite() {
+            if !(f.is_finite() && f.abs() <= crate::beam::model::MAX_FACTOR) {
                 return src.err(
                     c.factors.span(),
                     &format!("{field}.factors"),
-                    "factors must be finite numbers",
+                    format!(
+                        "factor {} for case '{name}': expected a finite number between −{m} and {m}",
+                        crate::units::fmt_num(*f),
+                        m = crate::beam::model::MAX_FACTOR
+                    ),
                 );
             }
             factors.push((ci, *f));
@@ -690,6 +694,20 @@ pub fn from_toml(text: &str, file: &str) -> Result<Job> {
                 "a service combination needs limit = \"L/360\" and/or max = \"20 mm\"",
             );
         }
+        if kind == ComboKind::Strength
+            && let Some(sp) = c
+                .limit
+                .as_ref()
+                .map(|l| l.span())
+                .or(c.max.as_ref().map(|m| m.span()))
+        {
+            return src.err(
+                sp,
+                &field,
+                "a strength combination does not check deflection, so its limit would be ignored: give it kind = \"service\", or add a separate service combination with the limit",
+            );
+        }
+
         beam.combinations.push(Combination {
             name: c.name.get_ref().clone(),
             kind,
@@ -782,6 +800,29 @@ pub fn from_toml(text: &str, file: &str) -> Result<Job> {
                 );
             }
             (None, None) => {}
+        }
+    }
+    // Check settings that would change nothing are refused, not ignored.
+    if let Some(c) = &raw.checks {
+        if let Some(f) = &c.braced_flange
+            && !matches!(criteria.bracing, Bracing::Continuous | Bracing::Spacing(_))
+        {
+            return src.err(
+                f.span(),
+                "checks.braced_flange",
+                "braced_flange says which flange the braces between supports restrain, but lateral_bracing gives none (braced at the supports only): set lateral_bracing = \"continuous\" or a spacing, or leave braced_flange out",
+            );
+        }
+        if let Some(sh) = &c.shear
+            && criteria.shear == ShearMethod::PeakVq
+            && material.fv.is_none()
+            && grades.iter().all(|(_, g)| g.fv.is_none())
+        {
+            return src.err(
+                sh.span(),
+                "checks.shear",
+                "shear = \"peak_vq\" chooses how the stress checked against the allowable Fv is found, but no material gives Fv (steel shear is checked by AISC 360-16 G): give Fv, or leave shear out",
+            );
         }
     }
     for (name, m) in

@@ -358,11 +358,20 @@ impl Beam {
                         )));
                     }
                     if x1 < -tol || x2 > length + tol {
+                        let (x, end) = if x1 < -tol { (x1, 0.0) } else { (x2, length) };
+                        let (shown, _) = metres_apart(x, end);
+                        let (other, l) = if x1 < -tol {
+                            (metres_apart(x2, x2).0, metres_apart(length, length).0)
+                        } else {
+                            (metres_apart(x1, x1).0, metres_apart(length, x2).0)
+                        };
+                        let (from, to) = if x1 < -tol {
+                            (shown, other)
+                        } else {
+                            (other, shown)
+                        };
                         return Err(bad(format!(
-                            "the load from x = {} m to {} m is not on the beam, which runs from 0 to {} m",
-                            crate::units::fmt_num(x1 / 1000.0),
-                            crate::units::fmt_num(x2 / 1000.0),
-                            crate::units::fmt_num(length / 1000.0)
+                            "the load from x = {from} m to {to} m is not on the beam, which runs from 0 to {l} m"
                         )));
                     }
                 }
@@ -371,10 +380,11 @@ impl Beam {
                         return Err(bad("the load has a non-finite value".into()));
                     }
                     if x < -tol || x > length + tol {
+                        let end = if x < 0.0 { 0.0 } else { length };
+                        let (shown, _) = metres_apart(x, end);
+                        let l = metres_apart(length, x).0;
                         return Err(bad(format!(
-                            "the load at x = {} m is not on the beam, which runs from 0 to {} m",
-                            crate::units::fmt_num(x / 1000.0),
-                            crate::units::fmt_num(length / 1000.0)
+                            "the load at x = {shown} m is not on the beam, which runs from 0 to {l} m"
                         )));
                     }
                 }
@@ -382,17 +392,51 @@ impl Beam {
         }
         for c in &self.combinations {
             for (case, f) in &c.factors {
-                if *case >= self.cases.len() || !f.is_finite() {
-                    return Err(Error::msg(format!(
-                        "combination '{}' has an invalid factor or case",
+                if *case >= self.cases.len() {
+                    return Err(Error::Internal(format!(
+                        "combination '{}' names a missing case",
                         c.name
                     )));
                 }
+                if !(f.is_finite() && f.abs() <= MAX_FACTOR) {
+                    return Err(Error::msg(format!(
+                        "combination '{}' gives case '{}' the factor {}: expected a factor between −{MAX_FACTOR} and {MAX_FACTOR}",
+                        c.name,
+                        self.cases[*case].name,
+                        crate::units::fmt_num(*f)
+                    )));
+                }
+            }
+            if c.kind == ComboKind::Strength && c.limit.is_some() {
+                return Err(Error::msg(format!(
+                    "strength combination '{}' has a deflection limit, which only serviceability combinations check: give it kind = \"service\", or add a separate service combination",
+                    c.name
+                )));
             }
             if c.kind == ComboKind::Service && c.limit.is_none() {
                 return Err(Error::msg(format!(
                     "serviceability combination '{}' has no deflection limit: expected limit = \"L/360\" and/or max = \"20 mm\"",
                     c.name
+                )));
+            }
+        }
+        // Every case that carries loads is in some strength combination:
+        // otherwise its loads would be shown and never checked.
+        for (i, case) in self.cases.iter().enumerate() {
+            let loaded = self.loads.iter().any(|l| l.case == i) || self.self_weight_case == Some(i);
+            let used = self.combinations.iter().any(|c| {
+                c.kind == ComboKind::Strength && c.factors.iter().any(|(k, f)| *k == i && *f != 0.0)
+            });
+            if loaded
+                && !used
+                && self
+                    .combinations
+                    .iter()
+                    .any(|c| c.kind == ComboKind::Strength)
+            {
+                return Err(Error::msg(format!(
+                    "load case '{}' carries loads but no strength combination includes it, so they would never be checked: add it to a combination (or use [presets] strength = \"asce7-16-asd\"), or remove its loads",
+                    case.name
                 )));
             }
         }
@@ -404,6 +448,9 @@ impl Beam {
         Ok(())
     }
 
+    /// Positions in metres with enough decimals that `x` reads differently
+    /// from the end `end` it passes (6.0000001 m against 6 m), and `y` and
+    /// the length with the same decimals.
     /// A straight prismatic beam is stable when a fixed support or at least
     /// two vertical restraints remove both rigid-body motions.
     fn check_stability(&self) -> Result<()> {
@@ -565,4 +612,38 @@ impl Beam {
         });
         self
     }
+}
+
+/// Largest |factor| a combination may give a case (a documented range that
+/// keeps every product finite).
+pub const MAX_FACTOR: f64 = 100.0;
+
+/// Two positions (mm) in metres, with the fewest decimals (engineering
+/// format, or more up to 0.001 mm) that show them apart: a load at
+/// 6.0000001 m on a 6 m beam reads "6.0000001", not "6".
+fn metres_apart(x: f64, other: f64) -> (String, String) {
+    let (a, b) = (
+        crate::units::fmt_num(x / 1000.0),
+        crate::units::fmt_num(other / 1000.0),
+    );
+    if a != b || x == other {
+        return (a, b);
+    }
+    for d in 4..=10usize {
+        let (a, b) = (
+            format!("{:.d$}", x / 1000.0),
+            format!("{:.d$}", other / 1000.0),
+        );
+        if a != b {
+            let trim = |t: String| {
+                if t.contains('.') {
+                    t.trim_end_matches('0').trim_end_matches('.').to_string()
+                } else {
+                    t
+                }
+            };
+            return (trim(a), trim(b));
+        }
+    }
+    (a, b)
 }

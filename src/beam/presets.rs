@@ -296,6 +296,27 @@ pub fn standard(
     n_live: f64,
     n_total: f64,
 ) -> Result<Vec<String>> {
+    standard_with(
+        beam,
+        strength_name,
+        service_name,
+        (true, true),
+        n_live,
+        n_total,
+    )
+}
+
+/// As [`standard`], with the defaults for an absent preset switched on or
+/// off: `defaults` = (strength, service) — off where the caller brings its
+/// own combinations of that kind.
+pub fn standard_with(
+    beam: &mut super::model::Beam,
+    strength_name: Option<&str>,
+    service_name: Option<&str>,
+    defaults: (bool, bool),
+    n_live: f64,
+    n_total: f64,
+) -> Result<Vec<String>> {
     let mut notes = Vec::new();
     let dead = cases_of(&beam.cases, Category::Dead);
     let variable: Vec<usize> = (0..beam.cases.len())
@@ -307,6 +328,7 @@ pub fn standard(
             beam.combinations.extend(pr.combinations);
             notes.extend(pr.notes);
         }
+        None if !defaults.0 => {}
         None => {
             let d: Vec<(usize, f64)> = dead.iter().map(|&i| (i, 1.0)).collect();
             beam.combo("D", ComboKind::Strength, &d);
@@ -327,6 +349,7 @@ pub fn standard(
             beam.combinations.extend(pr.combinations);
             notes.extend(pr.notes);
         }
+        None if !defaults.1 => {}
         None => {
             if !variable.is_empty() {
                 let names: Vec<String> = variable

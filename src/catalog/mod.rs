@@ -699,6 +699,24 @@ pub fn parse_row<'r>(
             density: own[6].unwrap_or(base.density),
             timber,
         };
+        if let Err(e) = m.validate() {
+            let (field, message) = match e {
+                crate::error::Error::Input { location, message } => (location.field, message),
+                other => (None, other.to_string()),
+            };
+            let col = match field.as_deref() {
+                Some("material.Fy") => schema
+                    .cols
+                    .iter()
+                    .position(|c| matches!(c, Col::Prop(Prop::Fy, _))),
+                Some("material.kind") => schema
+                    .cols
+                    .iter()
+                    .position(|c| matches!(c, Col::Factor(_) | Col::Prop(Prop::Emin, _))),
+                _ => None,
+            };
+            return Err(cell_err(col.unwrap_or(name_col), schema, message));
+        }
         material = RowMaterial::Own(Box::new(m));
     }
     let density = mats.get(&material).density;

@@ -162,6 +162,24 @@ impl Material {
         if self.fb_tension.is_none() != self.fb_compression.is_none() {
             return Err(Error::msg("give Fb, or both Fbt and Fbc").in_field("material.Fb"));
         }
+        // Values only one kind's methods use are refused for the others,
+        // never carried and ignored.
+        if self.fy.is_some() && self.kind != MaterialKind::Steel {
+            return Err(Error::msg(format!(
+                "Fy is used only by the steel limit states (AISC 360-16), but the material '{}' is {}: give kind = \"steel\", or leave Fy out",
+                self.name,
+                self.kind.name()
+            ))
+            .in_field("material.Fy"));
+        }
+        if self.timber != TimberFactors::default() && self.kind != MaterialKind::Timber {
+            return Err(Error::msg(format!(
+                "Emin and the adjustment factors are used only by the timber checks (NDS), but the material '{}' is {}: give kind = \"timber\", or leave them out",
+                self.name,
+                self.kind.name()
+            ))
+            .in_field("material.kind"));
+        }
         Ok(())
     }
 
@@ -360,6 +378,17 @@ impl Criteria {
             )));
         }
         Ok(())
+    }
+
+    /// Effective-length factor of a free end's segment whose other end is a
+    /// brace on the top flange only (no support there): from memory of
+    /// BS 5950-1:2000 Table 14, "continuous, with lateral restraint to top
+    /// flange", tip free: 3.0 for normal loads, 7.5 for destabilising ones.
+    pub fn brace_rooted_factor(&self) -> f64 {
+        match self.load_height {
+            LoadHeight::ShearCentre => 3.0,
+            LoadHeight::TopFlange => 7.5,
+        }
     }
 
     /// Effective-length factor of a segment between restraints: 1.0, or
@@ -806,8 +835,12 @@ fn segments_of(beam: &Beam, c: &Criteria) -> Vec<RawSegment> {
     for (x1, x2, free_l, free_r) in lateral_pieces(beam) {
         let len = x2 - x1;
         let from_right = free_l && !free_r;
-        let k_of = |free: bool| {
-            if free {
+        // A free end's segment rooted at a brace rather than at a support:
+        // a brace on the top flange alone gives no torsional restraint.
+        let k_of = |free: bool, brace_root: bool| {
+            if free && brace_root && !both {
+                c.brace_rooted_factor()
+            } else if free {
                 c.overhang_factor()
             } else {
                 c.span_factor()
@@ -830,7 +863,8 @@ fn segments_of(beam: &Beam, c: &Criteria) -> Vec<RawSegment> {
                 // Free at both ends and no brace in between: nothing holds
                 // it laterally.
                 let unrestrained = free_l && free_r && n == 1 && !braces;
-                out.push((a, b, free, sag, hog, k_of(free), unrestrained));
+                let brace_root = braces && (n > 1 || (free_l && free_r));
+                out.push((a, b, free, sag, hog, k_of(free, brace_root), unrestrained));
             }
         };
         match c.bracing {
@@ -1565,6 +1599,16 @@ impl Prepared {
                 } else {
                     "from memory of BS 5950-1:2000 Table 14, support continuous with lateral and torsional restraint, tip free".to_string()
                 }
+            ));
+        }
+        if self.segments.iter().any(|g| {
+            g.free_end
+                && (g.k - c.brace_rooted_factor()).abs() < 1e-12
+                && c.braced_flange == BracedFlange::Top
+        }) {
+            v.push(format!(
+                "a free end's segment whose other end is a top-flange brace (not a support): effective length {} × its length (from memory of BS 5950-1:2000 Table 14, continuous with lateral restraint to the top flange only, tip free)",
+                crate::units::fmt_num(c.brace_rooted_factor())
             ));
         }
         if !self.demand.springs.is_empty() {

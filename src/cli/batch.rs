@@ -141,6 +141,16 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
             template.presets.1.as_deref().unwrap_or("")
         )));
     }
+    let own_service = template
+        .beam
+        .combinations
+        .iter()
+        .any(|c| c.source.is_none() && c.kind == beamsift::beam::ComboKind::Service);
+    if own_service && (a.limit_live.is_some() || a.limit_total.is_some()) {
+        return Err(Error::msg(format!(
+            "the template {shown} has its own service combinations, which set the deflection limits: leave out --limit-live/--limit-total, or remove them from the template"
+        )));
+    }
     let n_live = job::parse_ratio(a.limit_live.as_deref().unwrap_or("L/360"))
         .map_err(|e| e.in_field("--limit-live"))?;
     let n_total = job::parse_ratio(a.limit_total.as_deref().unwrap_or("L/240"))

@@ -215,9 +215,27 @@ impl JobArgs {
                     .fit(g.kind, &format!("the grade '{name}'"))
                     .map_err(|e| e.in_field("--load-height"))?;
             }
+            self.refuse_idle_bracing(&job.criteria)?;
             return Ok(job);
         }
-        self.build_from_flags()
+        let job = self.build_from_flags()?;
+        self.refuse_idle_bracing(&job.criteria)?;
+        Ok(job)
+    }
+
+    /// --braced-flange with no braces between supports would change nothing.
+    fn refuse_idle_bracing(&self, c: &Criteria) -> Result<()> {
+        if self.braced_flange.is_some()
+            && !matches!(
+                c.bracing,
+                beamsift::check::Bracing::Continuous | beamsift::check::Bracing::Spacing(_)
+            )
+        {
+            return Err(Error::msg(
+                "--braced-flange says which flange the braces between supports restrain, but the bracing is at the supports only: give --bracing continuous or a spacing, or leave --braced-flange out",
+            ));
+        }
+        Ok(())
     }
 
     /// Apply the material and check options; returns what was set, in
@@ -291,7 +309,7 @@ impl JobArgs {
             c.self_weight = false;
             checks.push("--no-self-weight".into());
         }
-        flag(m.validate(), "material")?;
+        m.validate()?;
         Ok((set, checks))
     }
 
@@ -455,7 +473,7 @@ impl JobArgs {
             }
         }
         criteria.self_weight = !self.no_self_weight;
-        flag(material.validate(), "material")?;
+        material.validate()?;
         beam.validate()?;
         Ok(Job {
             title: "beam from flags".into(),

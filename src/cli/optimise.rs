@@ -152,6 +152,8 @@ struct OptimiseResult {
     /// Windowed search only: the bound on its gap to the grid optimum.
     gap_bound: Option<f64>,
     not_checked: Vec<String>,
+    excluded: Vec<String>,
+    assumptions: Vec<String>,
     caution: &'static str,
 }
 
@@ -521,6 +523,8 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         whole_grid: disc.whole_grid,
         gap_bound: disc.gap_bound,
         not_checked: prep.not_checked(&d_props, None),
+        excluded: prep.criteria.exclude.list(),
+        assumptions: prep.assumptions(),
         caution: report::CAUTION,
     };
     // Document.
@@ -689,6 +693,8 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
                 .collect(),
         );
     }
+    doc.excluded(result.excluded.clone());
+    doc.assumptions(result.assumptions.clone());
     if !notes.is_empty() {
         doc.list("Notes:", notes);
     }

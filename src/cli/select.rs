@@ -322,7 +322,11 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         Rank::Utilisation => "most utilised first",
     };
     let passing_count = result.passing.iter().filter(|r| r.candidate.passes).count();
-    if passing_count == 0 {
+    if passing_count == 0 && result.near_misses.is_empty() {
+        doc.para(
+            "No section passes, and none fails either: every section checked is not verified (listed below with the reasons).",
+        );
+    } else if passing_count == 0 {
         doc.para("No section passes. The nearest misses, with what governs and by how much:");
         let mut t = table(
             "Nearest misses (lowest utilisation first)",
@@ -380,7 +384,9 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
             front,
         );
     }
-    if !result.not_verified.is_empty() && !a.include_unverified {
+    // The reasons are listed whenever a section is not verified, also when
+    // --include-unverified shows it among the passing ones.
+    if !result.not_verified.is_empty() {
         not_verified_table(&mut doc, &result.not_verified, sys);
     }
     if !sel.skipped.is_empty() {
@@ -432,13 +438,8 @@ pub(crate) fn finish_doc(
     notes: &[String],
     legend: Legend,
 ) {
-    if !excluded.is_empty() {
-        doc.list(
-            "Excluded by the user (not checked, by choice):",
-            excluded.to_vec(),
-        );
-    }
-    doc.list("Assumptions:", assumptions.to_vec());
+    doc.excluded(excluded.to_vec());
+    doc.assumptions(assumptions.to_vec());
     if !notes.is_empty() {
         doc.list("Notes:", notes.to_vec());
     }

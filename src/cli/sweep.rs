@@ -233,7 +233,22 @@ fn run_lightest(a: LightestArgs, out: &Out) -> Result<i32> {
                         plate_prices: vec![],
                     };
                     let o = optimise::continuous(&prob, &prep, 3).ok()?;
-                    Some((o.area, o.shape.describe(sys)))
+                    // Printed as checked: dimensions rounded up to the
+                    // figures shown, and that section passes.
+                    match optimise::as_printed(&prob, &prep, &o.x) {
+                        Some(x) => {
+                            let shape = fam.shape(&x);
+                            let area = shape.properties().ok()?.area;
+                            Some((area, shape.describe(sys)))
+                        }
+                        None => Some((
+                            o.area,
+                            format!(
+                                "{} — at the limit: the printed dimensions do not pass",
+                                o.shape.describe(sys)
+                            ),
+                        )),
+                    }
                 })
                 .collect()
         }
@@ -425,11 +440,30 @@ fn run_table(a: TableArgs, out: &Out) -> Result<i32> {
         .transpose()?;
     let tolerance = units::parse(a.tolerance.as_deref().unwrap_or("1mm"), Dim::Length)
         .map_err(|e| e.in_field("--tolerance"))?;
+    // Ranges: a tolerance from 0.001 mm to 100 mm; rounding from 1 mm to
+    // 1 m (a step that rounds down, never up).
+    if !(1e-3..=100.0).contains(&tolerance) {
+        return Err(Error::msg(format!(
+            "{}: expected a tolerance from 0.001 mm to 100 mm",
+            Show::Dimension.fmt(tolerance, out.units)
+        ))
+        .in_field("--tolerance"));
+    }
+    if let Some(r) = round
+        && !(1.0..=1000.0).contains(&r)
+    {
+        return Err(Error::msg(format!(
+            "{}: expected a rounding step from 1 mm to 1 m (spans are rounded down to a multiple of it)",
+            Show::Dimension.fmt(r, out.units)
+        ))
+        .in_field("--round"));
+    }
     let opts = TableOptions {
         tolerance,
         round,
         ..TableOptions::default()
     };
+    let opts_max_span = opts.max_span;
     let (rows, rows_line) = load(&job, &a.cat)?;
     let mats = Materials {
         base: &job.material,
@@ -506,6 +540,12 @@ fn run_table(a: TableArgs, out: &Out) -> Result<i32> {
         let mut row = vec![r.section.clone(), Show::Mass.fixed(r.mass, sys, 1)];
         for c in &r.cells {
             row.push(match c.span {
+                Some(s) if c.at_search_limit => {
+                    format!("≥ {}", Show::Span.fixed_down(s, sys, 2))
+                }
+                Some(s) if !c.not_verified_beyond.is_empty() => {
+                    format!("{} nv", Show::Span.fixed_down(s, sys, 2))
+                }
                 Some(s) => format!(
                     "{} {}",
                     Show::Span.fixed_down(s, sys, 2),
@@ -531,6 +571,30 @@ fn run_table(a: TableArgs, out: &Out) -> Result<i32> {
             ),
             c.map(|c| c.not_verified.clone()).unwrap_or_default(),
         );
+    }
+    if let Some((r, c)) = result.rows.iter().find_map(|r| {
+        r.cells
+            .iter()
+            .find(|c| !c.not_verified_beyond.is_empty())
+            .map(|c| (r, c))
+    }) {
+        doc.list(
+            format!(
+                "\"nv\": the section passes up to that span and is not verified just beyond it (a method's range ends there), e.g. for {}:",
+                r.section
+            ),
+            c.not_verified_beyond.clone(),
+        );
+    }
+    if result
+        .rows
+        .iter()
+        .any(|r| r.cells.iter().any(|c| c.at_search_limit))
+    {
+        doc.para(format!(
+            "\"≥\": the section still passes at {}, the longest span searched; its limit is longer (not searched).",
+            Show::Span.fmt(opts_max_span, sys)
+        ));
     }
     let methods: Vec<Method> = result
         .rows

@@ -1,20 +1,45 @@
 //! CSV: every table of the document, one after another, each preceded by
-//! its title as a comment line (`# title`) and separated by a blank line.
-//! Numbers keep the display formatting minus thousands separators, so a
-//! spreadsheet reads them as numbers.
+//! its title as a comment line (`# title`) and separated by a blank line;
+//! then the document's lists (what was excluded, assumed, not checked) and
+//! the caution as comment lines, so they travel with the numbers
+//! (beamsift's own CSV reader skips lines starting with '#').
+//!
+//! Cells are written by `csv::Writer` (quoted wherever a comma, quote,
+//! carriage return or newline needs it). A number shown with thousands
+//! separators (`12,345.6`) loses them so a spreadsheet reads a number;
+//! nothing else is changed.
 
 use super::{Block, Document};
 
-fn cell(s: &str) -> String {
-    // Plain numbers lose the grouping commas; anything else is quoted if needed.
-    let stripped = s.replace(',', "");
-    let is_number = !stripped.is_empty() && stripped.parse::<f64>().is_ok();
-    let s = if is_number { stripped } else { s.to_string() };
-    if s.contains([',', '"', '\n']) {
-        format!("\"{}\"", s.replace('"', "\"\""))
-    } else {
-        s
+/// `12,345` or `-1,234,567.89`: grouping commas every three digits.
+fn grouped_number(s: &str) -> Option<String> {
+    let body = s.strip_prefix('-').unwrap_or(s);
+    let (int, frac) = match body.split_once('.') {
+        Some((i, f)) => (i, Some(f)),
+        None => (body, None),
+    };
+    let groups: Vec<&str> = int.split(',').collect();
+    if groups.len() < 2
+        || groups[0].is_empty()
+        || groups[0].len() > 3
+        || groups[1..].iter().any(|g| g.len() != 3)
+        || !groups.iter().all(|g| g.bytes().all(|b| b.is_ascii_digit()))
+        || frac.is_some_and(|f| f.is_empty() || !f.bytes().all(|b| b.is_ascii_digit()))
+    {
+        return None;
     }
+    Some(s.replace(',', ""))
+}
+
+fn cell(s: &str) -> String {
+    grouped_number(s).unwrap_or_else(|| s.to_string())
+}
+
+/// One comment line (line breaks inside folded into spaces).
+fn comment(out: &mut String, text: &str) {
+    out.push_str("# ");
+    out.push_str(&text.replace(['\r', '\n'], " "));
+    out.push('\n');
 }
 
 pub fn render(doc: &Document) -> String {
@@ -25,26 +50,38 @@ pub fn render(doc: &Document) -> String {
                 out.push('\n');
             }
             if !t.title.is_empty() {
-                out.push_str(&format!("# {}\n", t.title));
+                comment(&mut out, &t.title);
             }
-            out.push_str(
-                &t.headers
-                    .iter()
-                    .map(|h| cell(h))
-                    .collect::<Vec<_>>()
-                    .join(","),
-            );
-            out.push('\n');
+            let mut w = csv::WriterBuilder::new()
+                .terminator(csv::Terminator::Any(b'\n'))
+                .flexible(true)
+                .from_writer(Vec::new());
+            let _ = w.write_record(t.headers.iter().map(|h| cell(h)));
             for r in &t.rows {
-                out.push_str(&r.iter().map(|c| cell(c)).collect::<Vec<_>>().join(","));
-                out.push('\n');
+                let _ = w.write_record(r.iter().map(|c| cell(c)));
+            }
+            if let Ok(bytes) = w.into_inner() {
+                out.push_str(&String::from_utf8_lossy(&bytes));
             }
         }
     }
-    // The caution travels with the numbers, as a comment line (beamsift's
-    // own CSV reader skips lines starting with '#').
-    if !out.is_empty() {
-        out.push_str(&format!("# {}\n", super::CAUTION));
+    let lists: Vec<(&String, &Vec<String>)> = doc
+        .blocks
+        .iter()
+        .filter_map(|b| match b {
+            Block::List(lead, items) => Some((lead, items)),
+            _ => None,
+        })
+        .collect();
+    if !lists.is_empty() {
+        out.push('\n');
     }
+    for (lead, items) in lists {
+        comment(&mut out, lead);
+        for i in items {
+            comment(&mut out, &format!("  - {i}"));
+        }
+    }
+    comment(&mut out, super::CAUTION);
     out
 }

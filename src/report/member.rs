@@ -509,13 +509,8 @@ Utilisation = demand / capacity (allowable strength: nominal/Ω).",
         );
     }
     doc.para(super::calc::VERDICTS);
-    if !r.excluded.is_empty() {
-        doc.list(
-            "Excluded by the user (not checked, by choice):",
-            r.excluded.clone(),
-        );
-    }
-    doc.list("Assumptions:", r.assumptions.clone());
+    doc.excluded(r.excluded.clone());
+    doc.assumptions(r.assumptions.clone());
     if !r.notes.is_empty() {
         doc.list("Notes:", r.notes.clone());
     }

@@ -82,13 +82,61 @@ impl Document {
     pub fn list(&mut self, lead: impl Into<String>, items: Vec<String>) {
         self.blocks.push(Block::List(lead.into(), items));
     }
+    /// The limit states the user excluded (listed on every output).
+    pub fn excluded(&mut self, items: Vec<String>) {
+        if !items.is_empty() {
+            self.list(EXCLUDED_LEAD, items);
+        }
+    }
+    /// The assumptions a checker needs.
+    pub fn assumptions(&mut self, items: Vec<String>) {
+        if !items.is_empty() {
+            self.list(ASSUMPTIONS_LEAD, items);
+        }
+    }
     /// Append the caution and the list of what was not checked.
     pub fn caution(&mut self, not_checked: Vec<String>) {
         if !not_checked.is_empty() {
-            self.list("Not checked by beamsift in this run:", not_checked);
+            self.list(NOT_CHECKED_LEAD, not_checked);
         }
         self.para(CAUTION);
     }
+    /// The items of the list with this lead, if any.
+    fn list_of(&self, lead: &str) -> Option<&[String]> {
+        self.blocks.iter().find_map(|b| match b {
+            Block::List(l, items) if l == lead => Some(items.as_slice()),
+            _ => None,
+        })
+    }
+}
+
+/// The lead of the list of exclusions.
+pub const EXCLUDED_LEAD: &str = "Excluded by the user (not checked, by choice):";
+/// The lead of the list of assumptions.
+pub const ASSUMPTIONS_LEAD: &str = "Assumptions:";
+/// The lead of the list of what was not checked.
+pub const NOT_CHECKED_LEAD: &str = "Not checked by beamsift in this run:";
+
+/// The safety context every JSON result carries, whatever the command:
+/// the caution, what was not checked, what the user excluded and the
+/// assumptions (taken from the document where the result lacks them).
+fn with_context(mut v: serde_json::Value, doc: &Document) -> serde_json::Value {
+    if let serde_json::Value::Object(map) = &mut v {
+        for (key, lead) in [
+            ("excluded", EXCLUDED_LEAD),
+            ("assumptions", ASSUMPTIONS_LEAD),
+            ("not_checked", NOT_CHECKED_LEAD),
+        ] {
+            let missing = map.get(key).is_none_or(|x| x.is_null());
+            if missing {
+                let items = doc.list_of(lead).unwrap_or(&[]);
+                map.insert(key.into(), serde_json::json!(items));
+            }
+        }
+        map.entry("caution")
+            .or_insert_with(|| serde_json::json!(CAUTION));
+    }
+    v
 }
 
 /// Output formats.
@@ -112,7 +160,9 @@ pub fn render<T: Serialize>(format: Format, result: &T, doc: &Document) -> Strin
         Format::Markdown => markdown::render(doc),
         Format::Csv => csv_out::render(doc),
         Format::Json => {
-            let mut s = serde_json::to_string_pretty(result)
+            let mut s = serde_json::to_value(result)
+                .map(|v| with_context(v, doc))
+                .and_then(|v| serde_json::to_string_pretty(&v))
                 .unwrap_or_else(|e| format!("{{\"error\": \"cannot serialise result: {e}\"}}"));
             s.push('\n');
             s

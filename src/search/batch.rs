@@ -14,7 +14,8 @@
 
 use super::rationalise::{Plan, rationalise};
 use super::{Candidate, Filters};
-use crate::beam::model::{Beam, Category, LoadKind, Support};
+use crate::beam::model::{Beam, Category, ComboKind, LoadKind, Support};
+
 use crate::catalog::Materials;
 use crate::check::{Prepared, SectionInput};
 use crate::error::{Error, Location, Result};
@@ -278,14 +279,66 @@ fn member_of(
         let ci = case_of(&mut beam, c);
         beam.load(ci, LoadKind::Point { x, p });
     }
-    let mut notes = job::standard_combinations(
+    // The template's own combinations apply to every member, each case
+    // taken by its category (the schedule's columns are dead, live and
+    // snow loads); presets are added where the template names them, and
+    // the default combinations only where it has none of a kind.
+    let own: Vec<&crate::beam::model::Combination> = template
+        .beam
+        .combinations
+        .iter()
+        .filter(|c| c.source.is_none())
+        .collect();
+    let own_strength = own.iter().any(|c| c.kind == ComboKind::Strength);
+    let own_service = own.iter().any(|c| c.kind == ComboKind::Service);
+    for c in &own {
+        let mut factors = Vec::new();
+        for &(ci, f) in &c.factors {
+            let cat = template.beam.cases[ci].category;
+            let same: Vec<&str> = template
+                .beam
+                .cases
+                .iter()
+                .filter(|k| k.category == cat)
+                .map(|k| k.name.as_str())
+                .collect();
+            if same.len() > 1 {
+                return Err((
+                    0,
+                    Error::msg(format!(
+                        "the template's combination '{}' names case '{}', but the template has several {} cases ({}): a schedule gives one load per category, so the combination cannot be applied; keep one case per category in the template",
+                        c.name,
+                        template.beam.cases[ci].name,
+                        cat.name(),
+                        same.join(", ")
+                    )),
+                ));
+            }
+            let mi = case_of(&mut beam, cat);
+            factors.push((mi, f));
+        }
+        beam.combinations.push(crate::beam::model::Combination {
+            factors,
+            source: Some("the template job's own combination".into()),
+            ..(*c).clone()
+        });
+    }
+    let service_preset = service.as_deref().or(template.presets.1.as_deref());
+    let mut notes = crate::beam::presets::standard_with(
         &mut beam,
         template.presets.0.as_deref(),
-        service.as_deref().or(template.presets.1.as_deref()),
+        service_preset,
+        (!own_strength, !own_service),
         n_live,
         n_total,
     )
     .map_err(|e| (0, e))?;
+    if !own.is_empty() {
+        notes.push(format!(
+            "the template's {} combination(s) apply, each case taken by its category",
+            own.len()
+        ));
+    }
     if crate::beam::presets::partial_snow(template.presets.0.as_deref()) {
         job::set_partial_snow(&mut beam, &[], &mut notes);
     }

@@ -236,8 +236,17 @@ impl Given {
             )));
         }
         self.physical_bounds(area, ix, c_top, c_bot, depth)?;
+        // bf, tf and tw describe a doubly symmetric I only: a row whose
+        // extreme fibres (or moduli) differ is mono-symmetric, and one
+        // flange width and thickness cannot say which flange is which, so
+        // no plate geometry is assumed (the steel limit states that need
+        // it are then not verified, never evaluated as if symmetric).
+        let s_top = self.s_top.unwrap_or(ix / c_top);
+        let s_bot = self.s_bot.unwrap_or(ix / c_bot);
+        let symmetric = (c_top - c_bot).abs() <= 0.005 * depth
+            && (s_top - s_bot).abs() <= 0.005 * s_top.max(s_bot);
         let i_geometry = match (self.bf, self.tf, self.tw) {
-            (Some(bf), Some(tf), Some(tw)) if 2.0 * tf < depth => Some(IGeometry {
+            (Some(bf), Some(tf), Some(tw)) if symmetric && 2.0 * tf < depth => Some(IGeometry {
                 d: depth,
                 bf_top: bf,
                 tf_top: tf,

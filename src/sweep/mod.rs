@@ -139,6 +139,12 @@ pub struct Cell {
     /// Not verified: a limit state that applies cannot be evaluated for this
     /// section (the reasons); the cell has no span.
     pub not_verified: Vec<String>,
+    /// The span passes, and just beyond it the section is not verified
+    /// (a method's range ends there, e.g. timber R_B ≤ 50): the reasons.
+    pub not_verified_beyond: Vec<String>,
+    /// The section still passes at the longest span searched
+    /// (`TableOptions::max_span`): the true limit is longer.
+    pub at_search_limit: bool,
 }
 
 /// Options for span tables.
@@ -210,20 +216,6 @@ fn power(kind: CheckKind) -> f64 {
     }
 }
 
-fn passes_at(
-    beam: &Beam,
-    m: &Material,
-    c: &Criteria,
-    row: &Candidate,
-    mats: &Materials<'_>,
-    span: f64,
-) -> Result<(bool, Option<CheckKind>)> {
-    let prep = Prepared::new(&at_span(beam, span), m.clone(), c.clone())?;
-    let s = prep
-        .check(SectionInput::new(&row.properties, row.mass).with_material(mats.get(&row.material)));
-    Ok((s.passes, s.governing.map(|g| g.kind)))
-}
-
 /// The longest passing span of one section for one beam (a column).
 pub fn max_span(
     beam: &Beam,
@@ -233,43 +225,44 @@ pub fn max_span(
     mats: &Materials<'_>,
     opts: &TableOptions,
 ) -> Result<Cell> {
-    let finish = |exact: Option<f64>, gov: Option<CheckKind>, method: Method| -> Cell {
+    if !(opts.tolerance.is_finite() && opts.tolerance > 0.0) {
+        return Err(
+            Error::msg("the bisection tolerance must be greater than zero").in_field("--tolerance"),
+        );
+    }
+    let finish = |exact: Option<f64>, beyond: &At, method: Method| -> Cell {
         let span = match (exact, opts.round) {
             (Some(e), Some(r)) => Some((e / r + 1e-9).floor() * r).filter(|s| *s > 0.0),
             (e, None) => e,
             (None, _) => None,
         };
+        let (governing, nv_beyond, limit) = match beyond {
+            At::Fails(k) => (*k, Vec::new(), false),
+            At::NotVerified(r) => (None, r.clone(), false),
+            At::Passes => (None, Vec::new(), true),
+        };
         Cell {
             span,
             exact,
-            governing: gov,
+            governing,
             method,
             rounded: opts.round.is_some(),
             not_verified: Vec::new(),
+            not_verified_beyond: nv_beyond,
+            at_search_limit: limit,
         }
     };
-    // A section not verified at the job's own span is not verified at any:
-    // what cannot be evaluated does not depend on the span's length here.
-    {
-        let prep = Prepared::new(beam, material.clone(), criteria.clone())?;
-        let s = prep.check(
-            SectionInput::new(&row.properties, row.mass).with_material(mats.get(&row.material)),
-        );
-        if s.verdict == Verdict::NotVerified {
-            return Ok(Cell {
-                span: None,
-                exact: None,
-                governing: None,
-                method: if closed_form_applies(beam, criteria) {
-                    Method::ClosedForm
-                } else {
-                    Method::Bisection
-                },
-                rounded: false,
-                not_verified: s.gaps.describe(),
-            });
-        }
-    }
+    let at = |l: f64| outcome_at(beam, material, criteria, row, mats, l);
+    let unverified = |reasons: Vec<String>, method: Method| Cell {
+        span: None,
+        exact: None,
+        governing: None,
+        method,
+        rounded: false,
+        not_verified: reasons,
+        not_verified_beyond: Vec::new(),
+        at_search_limit: false,
+    };
     if closed_form_applies(beam, criteria) {
         let l0 = reference_span(beam);
         let prep = Prepared::new(beam, material.clone(), criteria.clone())?;
@@ -285,60 +278,94 @@ pub fn max_span(
                 }
             },
         );
-        return Ok(match best {
-            Some((mut l, k)) => {
-                // At the exact span one utilisation is 1 to round-off: step
-                // below it until the real check passes, so a table never
-                // lists a span that fails.
-                for _ in 0..20 {
-                    if passes_at(beam, material, criteria, row, mats, l)?.0 {
+        if let Some((mut l, k)) = best {
+            // At the exact span one utilisation is 1 to round-off: step
+            // below it until the real check passes, so a table never lists
+            // a span that fails. A section not verified there (a method's
+            // range ends before the closed-form span) is searched by
+            // bisection instead.
+            let mut found = false;
+            for _ in 0..20 {
+                match at(l)? {
+                    At::Passes => {
+                        found = true;
                         break;
                     }
-                    l *= 1.0 - 1e-10;
+                    At::NotVerified(_) => break,
+                    At::Fails(_) => l *= 1.0 - 1e-10,
                 }
-                finish(Some(l), Some(k), Method::ClosedForm)
             }
-            None => finish(None, None, Method::ClosedForm),
-        });
+            if found && l <= opts.max_span {
+                return Ok(finish(Some(l), &At::Fails(Some(k)), Method::ClosedForm));
+            }
+        }
     }
-    // Bisection on [lo, hi] with passes(lo), fails(hi).
+    // Bisection on [lo, hi] with passes(lo) and not passes(hi).
     let mut lo = opts.min_span;
-    let (ok, gov_lo) = passes_at(beam, material, criteria, row, mats, lo)?;
-    if !ok {
-        return Ok(Cell {
-            span: None,
-            exact: None,
-            governing: gov_lo,
-            method: Method::Bisection,
-            rounded: false,
-            not_verified: Vec::new(),
-        });
+    match at(lo)? {
+        At::Passes => {}
+        At::NotVerified(r) => return Ok(unverified(r, Method::Bisection)),
+        At::Fails(k) => return Ok(finish(None, &At::Fails(k), Method::Bisection)),
     }
-    let mut hi = (2.0 * lo).max(reference_span(beam));
-    let mut gov: Option<CheckKind>;
+    let mut hi = (2.0 * lo).max(reference_span(beam)).min(opts.max_span);
+    let mut beyond;
     loop {
-        let (ok, g) = passes_at(beam, material, criteria, row, mats, hi)?;
-        if !ok {
-            gov = g;
+        let o = at(hi)?;
+        if o != At::Passes {
+            beyond = o;
             break;
         }
-        lo = hi;
-        hi *= 2.0;
-        if hi > opts.max_span {
-            return Ok(finish(Some(opts.max_span), None, Method::Bisection));
+        if hi >= opts.max_span {
+            // Passes at the longest span searched: say so, never more.
+            return Ok(finish(Some(hi), &At::Passes, Method::Bisection));
         }
+        lo = hi;
+        hi = (2.0 * hi).min(opts.max_span);
     }
-    while hi - lo > opts.tolerance {
+    // Each step halves the bracket; 200 steps reach any tolerance that a
+    // double can resolve, so the loop is bounded whatever the tolerance.
+    for _ in 0..200 {
+        if hi - lo <= opts.tolerance {
+            break;
+        }
         let mid = 0.5 * (lo + hi);
-        let (ok, g) = passes_at(beam, material, criteria, row, mats, mid)?;
-        if ok {
+        let o = at(mid)?;
+        if o == At::Passes {
             lo = mid;
         } else {
             hi = mid;
-            gov = g;
+            beyond = o;
         }
     }
-    Ok(finish(Some(lo), gov, Method::Bisection))
+    Ok(finish(Some(lo), &beyond, Method::Bisection))
+}
+
+/// What a section does at one span.
+#[derive(Clone, Debug, PartialEq)]
+enum At {
+    Passes,
+    /// Fails, with the governing check.
+    Fails(Option<CheckKind>),
+    /// Not verified, with the reasons.
+    NotVerified(Vec<String>),
+}
+
+fn outcome_at(
+    beam: &Beam,
+    m: &Material,
+    c: &Criteria,
+    row: &Candidate,
+    mats: &Materials<'_>,
+    span: f64,
+) -> Result<At> {
+    let prep = Prepared::new(&at_span(beam, span), m.clone(), c.clone())?;
+    let s = prep
+        .check(SectionInput::new(&row.properties, row.mass).with_material(mats.get(&row.material)));
+    Ok(match s.verdict {
+        Verdict::Passes => At::Passes,
+        Verdict::Fails => At::Fails(s.governing.map(|g| g.kind)),
+        Verdict::NotVerified => At::NotVerified(s.gaps.describe()),
+    })
 }
 
 /// A whole span table: rows × columns (parallel over rows).
