@@ -183,7 +183,7 @@ fn catalogue(target: usize) -> PathBuf {
         price_per_kg: Some(1.25),
     };
     let mut f = std::io::BufWriter::new(std::fs::File::create(&path).unwrap());
-    generate::generate(&spec, "EUR", &mut f).unwrap();
+    generate::generate(&spec, "EUR", "bench.csv", &mut f).unwrap();
     path
 }
 

@@ -196,9 +196,12 @@ impl Dim {
 
 /// Turn a unit spelling into the canonical key used by the tables:
 /// superscripts become digits, `^` is dropped, any of `· ⋅ * - space` becomes
-/// `.`, and letters are lower-cased (no accepted unit differs only by case).
-fn canonical(unit: &str) -> String {
+/// `.`, and letters are lower-cased; with the original character behind each
+/// character of the key, so the case of SI prefixes is checked after the
+/// lookup (`check_prefix_case`).
+fn canonical_with_source(unit: &str) -> (String, Vec<char>) {
     let mut out = String::with_capacity(unit.len());
+    let mut src: Vec<char> = Vec::with_capacity(unit.len());
     for ch in unit.chars() {
         let mapped = match ch {
             '²' => '2',
@@ -215,12 +218,61 @@ fn canonical(unit: &str) -> String {
             continue;
         }
         out.push(mapped);
+        src.push(ch);
     }
     while out.ends_with('.') {
         out.pop();
+        src.pop();
     }
     // "kN/m.2" cannot arise; but "kn./m" can from "kN /m".
-    out.replace("./", "/")
+    while let Some(i) = out.find("./") {
+        out.remove(i);
+        src.remove(i);
+    }
+    (out, src)
+}
+
+/// SI prefixes are case-sensitive: M (mega) and m (milli, or the metre)
+/// differ by 10⁹. Keys that begin with mega carry an upper-case M; every
+/// other m of an accepted unit is lower case. A unit whose case says
+/// otherwise ("mPa", "mN", "6Mm", "MM") is refused with the reading it
+/// would have, never taken for its neighbour.
+fn check_prefix_case(unit: &str, key: &str, src: &[char]) -> Result<()> {
+    const MEGA: [&str; 4] = ["mn", "mpa", "mn.m", "mnm"];
+    for (i, (k, o)) in key.chars().zip(src).enumerate() {
+        if k != 'm' {
+            continue;
+        }
+        let want_upper = i == 0 && MEGA.contains(&key);
+        if o.is_ascii_uppercase() != want_upper {
+            let hint = if want_upper {
+                format!(
+                    "'m' is milli; mega is 'M' (e.g. '{}')",
+                    fix_first_m(unit, true)
+                )
+            } else {
+                "'M' is mega; milli and the metre are 'm' (e.g. 'mm', 'kN/m', 'MPa')".to_string()
+            };
+            return Err(Error::msg(format!(
+                "unit '{unit}': SI prefixes are case-sensitive, so this does not read as the unit it resembles: {hint}"
+            )));
+        }
+    }
+    Ok(())
+}
+
+fn fix_first_m(unit: &str, upper: bool) -> String {
+    let mut done = false;
+    unit.chars()
+        .map(|c| {
+            if !done && c.eq_ignore_ascii_case(&'m') {
+                done = true;
+                if upper { 'M' } else { 'm' }
+            } else {
+                c
+            }
+        })
+        .collect()
 }
 
 /// Superscript digits to `^`-prefixed ASCII digits ("10⁶" → "10^6").
@@ -335,7 +387,7 @@ fn split_scale(unit: &str) -> (f64, &str) {
 pub fn unit_factor(unit: &str, dim: Dim) -> Result<f64> {
     let desup = desuperscript(unit.trim());
     let (scale, rest) = split_scale(&desup);
-    let key = canonical(rest);
+    let (key, src) = canonical_with_source(rest);
     if key.is_empty() {
         return Err(Error::msg(format!(
             "missing unit for a {}: expected one of {}",
@@ -345,6 +397,7 @@ pub fn unit_factor(unit: &str, dim: Dim) -> Result<f64> {
     }
     for def in table(dim) {
         if def.keys.contains(&key.as_str()) {
+            check_prefix_case(rest.trim(), &key, &src)?;
             return Ok(scale * def.factor);
         }
     }

@@ -367,7 +367,7 @@ fn a_preset_combination_with_an_absent_case_still_governs() {
         ..Criteria::default()
     };
     c.exclude.shear = true;
-    let (sm, _) = summary(&b, common::allowable(1e9, fb, None, 0.0), c, &shape);
+    let (sm, _) = summary(&b, common::allowable(1e6, fb, None, 0.0), c, &shape);
     assert_eq!(sm.verdict, Verdict::Fails);
     let g = sm.governing.unwrap();
     assert_eq!(b.combinations[g.combo].name, "D+0.45W+0.75S");

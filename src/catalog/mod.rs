@@ -204,7 +204,7 @@ impl Schema {
         let mut cols = Vec::new();
         let mut errors = Vec::new();
         let mut currency = None;
-        let mut seen: Vec<String> = Vec::new();
+        let mut seen: std::collections::HashSet<String> = std::collections::HashSet::new();
         for (i, h) in headers.iter().enumerate() {
             let at = loc.clone().with_column(i as u64 + 1).with_field(h.clone());
             let (name, unit) = split_header(h);
@@ -222,7 +222,7 @@ impl Schema {
                 cols.push(Col::Note);
                 continue;
             }
-            seen.push(key.clone());
+            seen.insert(key.clone());
             let col = match key.as_str() {
                 "name" | "designation" | "section" => Ok(Col::Name),
                 "shape" | "family" => Ok(Col::Shape),
@@ -294,6 +294,17 @@ impl Schema {
             ));
         }
         if !errors.is_empty() {
+            // A header of thousands of bad columns is one mistake (a wrong
+            // delimiter, a data row as header): the first few say so.
+            const SHOWN: usize = 20;
+            if errors.len() > SHOWN {
+                let more = errors.len() - SHOWN;
+                errors.truncate(SHOWN);
+                errors.push(Error::input(
+                    loc.clone(),
+                    format!("... and {more} more header problem(s)"),
+                ));
+            }
             return Err(if errors.len() == 1 {
                 errors.remove(0)
             } else {
@@ -704,17 +715,21 @@ pub fn parse_row<'r>(
                 crate::error::Error::Input { location, message } => (location.field, message),
                 other => (None, other.to_string()),
             };
-            let col = match field.as_deref() {
-                Some("material.Fy") => schema
-                    .cols
-                    .iter()
-                    .position(|c| matches!(c, Col::Prop(Prop::Fy, _))),
-                Some("material.kind") => schema
-                    .cols
-                    .iter()
-                    .position(|c| matches!(c, Col::Factor(_) | Col::Prop(Prop::Emin, _))),
-                _ => None,
+            let want = |c: &Col| -> bool {
+                let name = field.as_deref().and_then(|f| f.strip_prefix("material."));
+                match (name, c) {
+                    (Some("Fy"), Col::Prop(Prop::Fy, _)) => true,
+                    (Some("E"), Col::Prop(Prop::E, _)) => true,
+                    (Some("Emin"), Col::Prop(Prop::Emin, _)) => true,
+                    (Some("Fv"), Col::Prop(Prop::Fv, _)) => true,
+                    (Some("Fb"), Col::Prop(Prop::Fb | Prop::Fbt | Prop::Fbc, _)) => true,
+                    (Some("density"), Col::Prop(Prop::Density, _)) => true,
+                    (Some("kind"), Col::Factor(_) | Col::Prop(Prop::Emin, _)) => true,
+                    (Some(n), Col::Factor(f)) => factor_of(&n.to_ascii_lowercase()) == Some(*f),
+                    _ => false,
+                }
             };
+            let col = schema.cols.iter().position(want);
             return Err(cell_err(col.unwrap_or(name_col), schema, message));
         }
         material = RowMaterial::Own(Box::new(m));

@@ -93,6 +93,10 @@ pub struct Material {
     pub timber: TimberFactors,
 }
 
+/// The highest yield stress accepted (MPa): ASTM A514, 100 ksi, the
+/// strongest steel in AISC 360-16 Table A3.1 (from memory).
+pub const FY_MAX: f64 = 690.0;
+
 impl Material {
     /// A material with allowable stresses only (kind unspecified).
     pub fn allowable(name: &str, e: f64, fb: f64, fv: Option<f64>, density: f64) -> Material {
@@ -132,32 +136,90 @@ impl Material {
                 pos(name, v)?;
             }
         }
-        let t = &self.timber;
+        // Physical ranges, wide enough for every structural material and
+        // narrow enough to catch a wrong unit: E from 1 GPa to 1000 GPa;
+        // each allowable or yield stress at most 2 % of E (a strain no
+        // structural material reaches elastically); density zero (no
+        // self-weight) or 100 to 25,000 kg/m³.
+        if !(1e3..=1e6).contains(&self.e) {
+            return Err(Error::msg(format!(
+                "E = {} MPa is outside 1 GPa to 1000 GPa: check its unit",
+                crate::units::fmt_num(self.e)
+            ))
+            .in_field("material.E"));
+        }
         for (name, v) in [
-            ("CD", t.cd),
-            ("CM_Fb", t.cm_fb),
-            ("CM_Fv", t.cm_fv),
-            ("CM_E", t.cm_e),
-            ("Ct", t.ct),
-            ("Ci", t.ci),
-            ("Ct_E", t.ct_e),
-            ("Ci_E", t.ci_e),
-            ("CF", t.cf),
-            ("Cr", t.cr),
-            ("Cfu", t.cfu),
+            ("Fb", self.fb_tension),
+            ("Fb", self.fb_compression),
+            ("Fv", self.fv),
+            ("Fy", self.fy),
         ] {
             if let Some(v) = v
-                && !(v.is_finite() && v > 0.0 && v <= 3.0)
+                && v > 0.02 * self.e
             {
                 return Err(Error::msg(format!(
-                    "adjustment factor {name} = {} is outside 0 < factor ≤ 3",
-                    crate::units::fmt_num(v)
+                    "{name} = {} MPa is more than 2 % of E = {} MPa, which no structural material reaches: check the units",
+                    crate::units::fmt_num(v),
+                    crate::units::fmt_num(self.e)
                 ))
                 .in_field(&format!("material.{name}")));
             }
         }
-        if !self.density.is_finite() || self.density < 0.0 {
-            return Err(Error::msg("density must be zero or more").in_field("material.density"));
+        if let Some(fy) = self.fy
+            && fy > FY_MAX
+        {
+            return Err(Error::msg(format!(
+                "Fy = {} MPa is above the structural steels AISC 360-16 lists (Table A3.1, up to {} MPa, from memory): its limit states are not stated for it",
+                crate::units::fmt_num(fy),
+                crate::units::fmt_num(FY_MAX)
+            ))
+            .in_field("material.Fy"));
+        }
+        let t = &self.timber;
+        if let Some(em) = t.e_min
+            && em > self.e
+        {
+            return Err(Error::msg(format!(
+                "Emin = {} MPa exceeds E = {} MPa: the modulus for stability is a lower fractile of E (NDS Appendix D), never above it",
+                crate::units::fmt_num(em),
+                crate::units::fmt_num(self.e)
+            ))
+            .in_field("material.Emin"));
+        }
+        // Ranges of the NDS 2018 factors (from memory): C_D up to 2.0 for
+        // impact (Table 2.3.2); C_M, C_t and C_i only reduce (Tables 4A
+        // notes, 2.3.3, 4.3.8); C_F up to 1.5 (Table 4A); C_r up to 1.15
+        // (4.3.9); C_fu up to 1.2 (Table 4A).
+        for (name, v, max) in [
+            ("CD", t.cd, 2.0),
+            ("CM_Fb", t.cm_fb, 1.0),
+            ("CM_Fv", t.cm_fv, 1.0),
+            ("CM_E", t.cm_e, 1.0),
+            ("Ct", t.ct, 1.0),
+            ("Ci", t.ci, 1.0),
+            ("Ct_E", t.ct_e, 1.0),
+            ("Ci_E", t.ci_e, 1.0),
+            ("CF", t.cf, 1.5),
+            ("Cr", t.cr, 1.15),
+            ("Cfu", t.cfu, 1.2),
+        ] {
+            if let Some(v) = v
+                && !(v.is_finite() && v > 0.0 && v <= max)
+            {
+                return Err(Error::msg(format!(
+                    "adjustment factor {name} = {} is outside 0 < {name} ≤ {} (NDS 2018, from memory)",
+                    crate::units::fmt_num(v),
+                    crate::units::fmt_num(max)
+                ))
+                .in_field(&format!("material.{name}")));
+            }
+        }
+        if !(self.density == 0.0 || (100.0..=25_000.0).contains(&self.density)) {
+            return Err(Error::msg(format!(
+                "density = {} kg/m³: expected 0 (no self-weight) or 100 to 25,000 kg/m³; check its unit",
+                crate::units::fmt_num(self.density)
+            ))
+            .in_field("material.density"));
         }
         if self.fb_tension.is_none() != self.fb_compression.is_none() {
             return Err(Error::msg("give Fb, or both Fbt and Fbc").in_field("material.Fb"));

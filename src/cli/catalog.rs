@@ -7,7 +7,7 @@ use beamsift::catalog::{Materials, parse_row};
 use beamsift::check::Material;
 use beamsift::error::{Error, Result};
 use beamsift::job;
-use beamsift::report::{self, Align, Document, Table};
+use beamsift::report::{self, Align, Document, Format, Table};
 use beamsift::units::{self, Dim, Show};
 use serde::Serialize;
 use std::path::PathBuf;
@@ -42,27 +42,37 @@ Rules for welded I: tw <= tf and bf <= hw (common practice), plus the slendernes
 pub struct GenerateArgs {
     /// welded-i or rect.
     pub family: String,
+    /// Flange widths (welded-i): a list "150,180,200mm" or a range
+    /// "150..400:10mm".
     #[arg(long)]
     pub bf: Option<String>,
+    /// Flange thicknesses (welded-i), as a list or range.
     #[arg(long)]
     pub tf: Option<String>,
+    /// Web heights between the flanges (welded-i), as a list or range.
     #[arg(long)]
     pub hw: Option<String>,
+    /// Web thicknesses (welded-i), as a list or range.
     #[arg(long)]
     pub tw: Option<String>,
-    /// Rectangle widths.
+    /// Rectangle widths (rect), as a list or range.
     #[arg(long)]
     pub b: Option<String>,
-    /// Rectangle depths.
+    /// Rectangle depths (rect), as a list or range.
     #[arg(long)]
     pub d: Option<String>,
     /// Timber grades with an optional price per m³: T1=650,T2=780.
     #[arg(long)]
     pub grades: Option<String>,
+    /// Largest depth/width d/b kept (rect).
     #[arg(long = "max-aspect")]
     pub max_aspect: Option<f64>,
+    /// Largest flange outstand ratio bf/(2tf) kept (welded-i; default from
+    /// --Fy, else no limit).
     #[arg(long = "lambda-f")]
     pub lambda_f: Option<f64>,
+    /// Largest web ratio hw/tw kept (welded-i; default from --Fy, else no
+    /// limit).
     #[arg(long = "lambda-w")]
     pub lambda_w: Option<f64>,
     /// Yield stress, for default compact slenderness limits.
@@ -71,10 +81,13 @@ pub struct GenerateArgs {
     /// Modulus of elasticity for the slenderness limits.
     #[arg(long = "E", default_value = "200GPa")]
     pub e: String,
+    /// Steel density for the mass column (welded-i).
     #[arg(long, default_value = "7850kg/m3")]
     pub density: String,
+    /// Price per kg of steel for the cost column (welded-i).
     #[arg(long = "price-per-kg")]
     pub price_per_kg: Option<f64>,
+    /// Currency named in the cost column header.
     #[arg(long, default_value = "EUR")]
     pub currency: String,
 }
@@ -105,10 +118,70 @@ fn sizes(text: &Option<String>, name: &str) -> Result<Vec<f64>> {
                 "--{name}: expected START..END:STEP with END ≥ START and STEP > 0"
             )));
         }
-        let n = ((hi - lo) / st + 1e-9).floor() as usize;
-        return Ok((0..=n).map(|k| lo + k as f64 * st).collect());
+        let n = ((hi - lo) / st + 1e-9).floor();
+        if n >= MAX_SIZES as f64 {
+            return Err(Error::msg(format!(
+                "--{name}: the range gives more than the {} values one list may give: use a coarser step",
+                units::count(MAX_SIZES as u64)
+            )));
+        }
+        let v: Vec<f64> = (0..=n as usize).map(|k| lo + k as f64 * st).collect();
+        check_sizes(&v, name)?;
+        return Ok(v);
     }
-    super::optimise::parse_list(t, &format!("--{name}"))
+    let v = super::optimise::parse_list(t, &format!("--{name}"))?;
+    check_sizes(&v, name)?;
+    Ok(v)
+}
+
+/// Grade names are plain CSV cells, given once each, with positive rates.
+fn check_grades(g: Vec<(String, Option<f64>)>) -> Result<Vec<(String, Option<f64>)>> {
+    for (k, (name, rate)) in g.iter().enumerate() {
+        if name.is_empty() || name.chars().any(|c| c == '"' || c == ';' || c.is_control()) {
+            return Err(Error::msg(format!(
+                "grade {} '{name}': expected a non-empty name without quotes, semicolons or control characters",
+                k + 1
+            )));
+        }
+        if g[..k].iter().any(|o| o.0 == *name) {
+            return Err(Error::msg(format!("grade '{name}' is given twice")));
+        }
+        if let Some(r) = rate
+            && !(*r > 0.0 && *r < 1e7)
+        {
+            return Err(Error::msg(format!(
+                "grade '{name}': price {r} per m³ is outside 0 < price < 10,000,000"
+            )));
+        }
+    }
+    Ok(g)
+}
+
+/// Most values one size list may give.
+const MAX_SIZES: usize = 100_000;
+
+fn check_sizes(v: &[f64], name: &str) -> Result<()> {
+    if v.len() > MAX_SIZES {
+        return Err(Error::msg(format!(
+            "--{name}: {} values, more than the {} one list may give: use a coarser step",
+            units::count(v.len() as u64),
+            units::count(MAX_SIZES as u64)
+        )));
+    }
+    let mut sorted = v.to_vec();
+    sorted.sort_by(f64::total_cmp);
+    if let Some(w) = sorted.windows(2).find(|w| w[0] == w[1]) {
+        return Err(Error::msg(format!(
+            "--{name}: {} mm is given twice (the rows would repeat a name)",
+            w[0]
+        )));
+    }
+    if let Some(x) = v.iter().find(|x| !(**x > 0.0 && **x <= 10_000.0)) {
+        return Err(Error::msg(format!(
+            "--{name}: {x} mm is outside 0 < size ≤ 10 m"
+        )));
+    }
+    Ok(())
 }
 
 #[derive(clap::Args, Debug)]
@@ -302,7 +375,70 @@ pub fn run(cmd: Cmd, out: &Out) -> Result<i32> {
 
 fn generate(a: GenerateArgs, out: &Out) -> Result<i32> {
     use beamsift::catalog::generate::{self, Spec};
-    let spec = match beamsift::section::spec::normalise_family(&a.family).as_str() {
+    if !matches!(out.format, Format::Table | Format::Csv) {
+        return Err(Error::msg(
+            "catalog generate writes a catalogue CSV: --format json or markdown has no meaning here",
+        )
+        .in_field("--format"));
+    }
+    if out.units != units::System::Si {
+        return Err(Error::msg(
+            "catalog generate writes sizes in mm (the catalogue reader takes any unit in the header): --units us is not supported here",
+        )
+        .in_field("--units"));
+    }
+    let family = beamsift::section::spec::normalise_family(&a.family);
+    let foreign: &[(&str, bool)] = match family.as_str() {
+        "welded-i" => &[
+            ("--b", a.b.is_some()),
+            ("--d", a.d.is_some()),
+            ("--grades", a.grades.is_some()),
+            ("--max-aspect", a.max_aspect.is_some()),
+        ],
+        "rect" => &[
+            ("--bf", a.bf.is_some()),
+            ("--tf", a.tf.is_some()),
+            ("--hw", a.hw.is_some()),
+            ("--tw", a.tw.is_some()),
+            ("--lambda-f", a.lambda_f.is_some()),
+            ("--lambda-w", a.lambda_w.is_some()),
+            ("--Fy", a.fy.is_some()),
+            ("--E", a.e != "200GPa"),
+            ("--density", a.density != "7850kg/m3"),
+            ("--price-per-kg", a.price_per_kg.is_some()),
+        ],
+        _ => &[],
+    };
+    let unused: Vec<&str> = foreign.iter().filter(|f| f.1).map(|f| f.0).collect();
+    if !unused.is_empty() {
+        return Err(Error::msg(format!(
+            "{} {} not apply to the {family} family (nothing would use {})",
+            unused.join(", "),
+            if unused.len() == 1 { "does" } else { "do" },
+            if unused.len() == 1 { "it" } else { "them" }
+        )));
+    }
+    for (name, v) in [
+        ("--max-aspect", a.max_aspect),
+        ("--lambda-f", a.lambda_f),
+        ("--lambda-w", a.lambda_w),
+    ] {
+        if let Some(v) = v
+            && !(v > 0.0 && v <= 1000.0)
+        {
+            return Err(Error::msg(format!(
+                "{name}: {v} is outside 0 < value ≤ 1000"
+            )));
+        }
+    }
+    if let Some(p) = a.price_per_kg
+        && !(p > 0.0 && p < 1e6)
+    {
+        return Err(Error::msg(format!(
+            "--price-per-kg: {p} is outside 0 < price < 1,000,000"
+        )));
+    }
+    let spec = match family.as_str() {
         "welded-i" => {
             let e = units::parse(&a.e, Dim::Stress).map_err(|e| e.in_field("--E"))?;
             let fy =
@@ -341,6 +477,7 @@ fn generate(a: GenerateArgs, out: &Out) -> Result<i32> {
                         None => Ok((p.trim().to_string(), None)),
                     })
                     .collect::<Result<Vec<_>>>()
+                    .and_then(check_grades)
                     .map_err(|e| e.in_field("--grades"))?,
                 None => vec![(String::new(), None)],
             };
@@ -360,7 +497,7 @@ fn generate(a: GenerateArgs, out: &Out) -> Result<i32> {
     let n = match &out.path {
         Some(p) => {
             let mut f = super::files::StreamFile::create(p)?;
-            let n = generate::generate(&spec, &a.currency, f.writer())?;
+            let n = generate::generate(&spec, &a.currency, &p.display().to_string(), f.writer())?;
             f.commit(out.force)?;
             eprintln!("beamsift: wrote {n} rows to {}", p.display());
             n
@@ -368,7 +505,7 @@ fn generate(a: GenerateArgs, out: &Out) -> Result<i32> {
         None => {
             let stdout = std::io::stdout();
             let mut lock = std::io::BufWriter::new(stdout.lock());
-            generate::generate(&spec, &a.currency, &mut lock)?
+            generate::generate(&spec, &a.currency, "standard output", &mut lock)?
         }
     };
     if n == 0 {

@@ -44,6 +44,88 @@ pub struct CatalogArgs {
     /// No progress bar.
     #[arg(long, short = 'q')]
     pub quiet: bool,
+    /// The inputs, each read once: regular files are reopened, streams
+    /// (pipes, FIFOs, standard input as '-') are kept in memory.
+    #[arg(skip)]
+    pub inputs: std::sync::Arc<std::sync::OnceLock<Vec<Input>>>,
+}
+
+/// Where a catalogue's bytes come from.
+#[derive(Clone, Debug)]
+pub enum Source {
+    /// A regular file, opened again for each reading.
+    File(PathBuf),
+    /// A stream read once into memory.
+    Bytes(std::sync::Arc<Vec<u8>>),
+}
+
+/// One catalogue input.
+#[derive(Clone, Debug)]
+pub struct Input {
+    pub shown: String,
+    pub source: Source,
+    pub len: u64,
+}
+
+impl Input {
+    /// Name an input: '-' is standard input; anything that is not a regular
+    /// file (a pipe, a FIFO, /dev/stdin, a process substitution) is read
+    /// once, here, so later readings see the same bytes.
+    pub fn new(p: &std::path::Path) -> Result<Input> {
+        let shown = p.display().to_string();
+        let read_all = |r: &mut dyn std::io::Read| -> Result<Input> {
+            let mut buf = Vec::new();
+            r.read_to_end(&mut buf).map_err(|e| Error::io(&shown, e))?;
+            Ok(Input {
+                shown: shown.clone(),
+                len: buf.len() as u64,
+                source: Source::Bytes(std::sync::Arc::new(buf)),
+            })
+        };
+        if p.as_os_str() == "-" {
+            return read_all(&mut std::io::stdin().lock());
+        }
+        let f = File::open(p).map_err(|e| Error::io(&shown, e))?;
+        let m = f.metadata().map_err(|e| Error::io(&shown, e))?;
+        if m.is_dir() {
+            return Err(Error::io(
+                &shown,
+                std::io::Error::new(
+                    std::io::ErrorKind::InvalidInput,
+                    "is a folder, expected a catalogue file",
+                ),
+            ));
+        }
+        if m.is_file() {
+            return Ok(Input {
+                shown,
+                source: Source::File(p.to_path_buf()),
+                len: m.len(),
+            });
+        }
+        let mut f = f;
+        read_all(&mut f)
+    }
+
+    /// A fresh reader over the whole input.
+    pub fn reader(&self) -> Result<Box<dyn std::io::Read + Send>> {
+        Ok(match &self.source {
+            Source::File(p) => Box::new(BufReader::with_capacity(
+                1 << 16,
+                File::open(p).map_err(|e| Error::io(&self.shown, e))?,
+            )),
+            Source::Bytes(b) => Box::new(std::io::Cursor::new(SharedBytes(b.clone()))),
+        })
+    }
+}
+
+/// Shared bytes as a reader's buffer.
+struct SharedBytes(std::sync::Arc<Vec<u8>>);
+
+impl AsRef<[u8]> for SharedBytes {
+    fn as_ref(&self) -> &[u8] {
+        &self.0
+    }
 }
 
 impl CatalogArgs {
@@ -92,33 +174,57 @@ impl CatalogArgs {
         })
     }
 
+    /// The inputs, named (and streams read) once per run.
+    pub fn inputs(&self) -> Result<&[Input]> {
+        if let Some(v) = self.inputs.get() {
+            return Ok(v);
+        }
+        let v = self
+            .catalog
+            .iter()
+            .map(|p| Input::new(p))
+            .collect::<Result<Vec<_>>>()?;
+        Ok(self.inputs.get_or_init(|| v))
+    }
+
     /// Open every catalogue (all are checked before any work starts).
-    pub fn open(&self) -> Result<(Vec<Catalog<BufReader<File>>>, u64)> {
+    #[allow(clippy::type_complexity)]
+    pub fn open(&self) -> Result<(Vec<Catalog<Box<dyn std::io::Read + Send>>>, u64)> {
         let opts = self.options()?;
         let mut out = Vec::new();
         let mut bytes = 0;
-        for p in &self.catalog {
-            let shown = p.display().to_string();
-            let f = File::open(p).map_err(|e| Error::io(&shown, e))?;
-            bytes += f.metadata().map(|m| m.len()).unwrap_or(0);
-            out.push(read::open(
-                BufReader::with_capacity(1 << 16, f),
-                &shown,
-                &opts,
-            )?);
+        for i in self.inputs()? {
+            bytes += i.len;
+            out.push(read::open(i.reader()?, &i.shown, &opts)?);
         }
         Ok((out, bytes))
     }
 
     pub fn setup_threads(&self) -> Result<()> {
         if let Some(n) = self.jobs {
-            if n == 0 {
-                return Err(Error::msg("--jobs must be at least 1"));
+            // More workers than cores only add memory and switching: at
+            // most four per core (and 256).
+            let cores = std::thread::available_parallelism().map_or(1, |c| c.get());
+            let max = (4 * cores).min(256);
+            if n == 0 || n > max {
+                return Err(Error::msg(format!(
+                    "--jobs {n}: expected 1 to {max} (four per core on this machine)"
+                )));
             }
-            // Ignore "already initialised" (tests run several commands).
-            let _ = rayon::ThreadPoolBuilder::new()
+            if let Err(e) = rayon::ThreadPoolBuilder::new()
                 .num_threads(n)
-                .build_global();
+                .build_global()
+            {
+                // Already initialised (a run of several scans) is fine; a
+                // pool that cannot start is not.
+                let text = e.to_string();
+                if !text.contains("already") {
+                    return Err(Error::io(
+                        "worker threads",
+                        std::io::Error::other(format!("cannot start {n} worker threads: {text}")),
+                    ));
+                }
+            }
         }
         Ok(())
     }

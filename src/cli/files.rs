@@ -90,9 +90,22 @@ fn folder(p: &Path) -> &Path {
 /// Where an output really goes: symbolic links followed (an existing
 /// target, or the link's own folder resolved for a new file).
 fn resolve(p: &Path) -> Result<PathBuf> {
+    let text = p.as_os_str().to_string_lossy();
+    if text.ends_with('/') || text.ends_with(std::path::MAIN_SEPARATOR) || p.file_name().is_none() {
+        return Err(refused(
+            p,
+            std::io::ErrorKind::InvalidInput,
+            "names a folder (it ends with a separator or is . or ..): expected a file name".into(),
+        ));
+    }
     if let Ok(m) = std::fs::symlink_metadata(p)
         && m.file_type().is_symlink()
     {
+        // A link to a device or a pipe (/dev/stdout, /dev/fd/N) is
+        // written directly through the link.
+        if std::fs::metadata(p).is_ok_and(|t| special(&t)) {
+            return Ok(p.to_path_buf());
+        }
         return std::fs::canonicalize(p).map_err(|_| {
             refused(
                 p,
@@ -185,21 +198,48 @@ pub fn queue(path: &Path, bytes: Vec<u8>) {
     }
 }
 
+/// Text for standard output, written after the files.
+static STDOUT: Mutex<String> = Mutex::new(String::new());
+
+/// Queue text for standard output.
+pub fn queue_stdout(text: &str) {
+    if let Ok(mut s) = STDOUT.lock() {
+        s.push_str(text);
+    }
+}
+
 /// Drop the queued outputs (the run failed).
 pub fn discard() {
     if let Ok(mut p) = PENDING.lock() {
         p.clear();
     }
+    if let Ok(mut s) = STDOUT.lock() {
+        s.clear();
+    }
 }
 
-/// Write every queued output, all or none.
+/// Write every queued file, all or none, then the text for standard
+/// output.
 pub fn commit_queued(force: bool) -> Result<()> {
     let pending = std::mem::take(
         &mut *PENDING
             .lock()
             .map_err(|_| Error::Internal("output queue".into()))?,
     );
-    write_all(&pending, force)
+    let text = std::mem::take(
+        &mut *STDOUT
+            .lock()
+            .map_err(|_| Error::Internal("output queue".into()))?,
+    );
+    write_all(&pending, force)?;
+    if !text.is_empty() {
+        let stdout = std::io::stdout();
+        let mut lock = stdout.lock();
+        lock.write_all(text.as_bytes())
+            .and_then(|_| lock.flush())
+            .map_err(|e| Error::io("standard output", e))?;
+    }
+    Ok(())
 }
 
 /// A temporary file beside `target`, registered for signal cleanup.

@@ -123,10 +123,15 @@ pub fn main() -> i32 {
             {
                 return EXIT_OK;
             }
-            eprintln!("beamsift: error: {e}");
+            let top = e.to_string();
+            eprintln!("beamsift: error: {top}");
+            // Causes not already in the message (an I/O error's text is).
             let mut src = std::error::Error::source(&e);
             while let Some(s) = src {
-                eprintln!("  caused by: {s}");
+                let t = s.to_string();
+                if !top.contains(&t) {
+                    eprintln!("  caused by: {t}");
+                }
                 src = s.source();
             }
             exit_code(&e)
@@ -176,6 +181,11 @@ impl Command {
         let mut inputs: Vec<std::path::PathBuf> = Vec::new();
         let mut outputs: Vec<std::path::PathBuf> = out.path.iter().cloned().collect();
         let pair = |p: &std::path::Path, outputs: &mut Vec<std::path::PathBuf>| {
+            if p.as_os_str().to_string_lossy().ends_with('/') || p.file_name().is_none() {
+                // A folder as a prefix: refused by the check, by name.
+                outputs.push(p.to_path_buf());
+                return;
+            }
             let (md, html) = report::report_paths(p);
             outputs.push(md);
             outputs.push(html);

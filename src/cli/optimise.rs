@@ -464,10 +464,33 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         objective: a.objective,
         plate_prices,
     };
-    let cont = optimise::continuous(&prob, &prep, a.starts)?;
-    // Fabrication grid.
+    if !(1..=64).contains(&a.starts) {
+        return Err(Error::msg(format!(
+            "--starts {}: expected 1 to 64 starting points",
+            a.starts
+        )));
+    }
+    // Fabrication grid: a step from 0.1 mm (no stock is finer) to 1 m.
     let step = units::parse(a.step.as_deref().unwrap_or("10mm"), Dim::Length)
         .map_err(|e| e.in_field("--step"))?;
+    if !(0.1..=1000.0).contains(&step) {
+        return Err(Error::msg(format!(
+            "{} mm: expected a step from 0.1 mm to 1 m",
+            units::fmt_num(step)
+        ))
+        .in_field("--step"));
+    }
+    for (name, list) in [("--plates", &plates)] {
+        if let Some(t) = list.iter().find(|t| !(**t > 0.0 && **t <= 1000.0)) {
+            return Err(Error::msg(format!(
+                "{} mm: expected thicknesses above 0 and up to 1 m",
+                units::fmt_num(*t)
+            ))
+            .in_field(name));
+        }
+    }
+    prob.validate()?;
+    let cont = optimise::continuous(&prob, &prep, a.starts)?;
     let mut values = Vec::new();
     for (i, &(lo, hi)) in prob.bounds.iter().enumerate() {
         let v = if fam == Family::Rect && i == 0 && a.b_sizes.is_some() {
@@ -666,7 +689,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
             )
         } else {
             format!(
-                "the best of {} grid points searched around the continuous optimum (the grid has {}, more than the {} searched exhaustively: at most {:.1} % above the grid optimum)",
+                "the best of {} grid points searched — the whole of a coarser sub-grid of it, then a window around the continuous optimum (the grid has {}, more than the {} searched exhaustively: at most {:.1} % above the grid optimum)",
                 beamsift::units::count(disc.evaluated),
                 beamsift::units::count(grid.size()),
                 beamsift::units::count(discrete::EXHAUSTIVE_POINTS as u64),

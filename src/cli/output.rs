@@ -1,10 +1,9 @@
 //! Output options shared by every command, and writing the result.
 
 use super::Out;
+use beamsift::Result;
 use beamsift::report::Format;
 use beamsift::units::System;
-use beamsift::{Error, Result};
-use std::io::Write;
 use std::path::PathBuf;
 
 #[derive(clap::Args, Debug)]
@@ -45,16 +44,14 @@ impl OutputArgs {
     }
 }
 
-/// Write text to the chosen output: standard output now, a file at the
-/// end of the run with every other output (see `files`).
+/// Write text to the chosen output, at the end of the run with every other
+/// output: files first, then standard output (see `files`), so nothing is
+/// announced that was not written.
 pub fn emit(out: &Out, text: &str) -> Result<()> {
     match &out.path {
         None => {
-            let stdout = std::io::stdout();
-            let mut lock = stdout.lock();
-            lock.write_all(text.as_bytes())
-                .and_then(|_| lock.flush())
-                .map_err(|e| Error::io("standard output", e))
+            super::files::queue_stdout(text);
+            Ok(())
         }
         Some(path) => {
             write_atomic(path, text.as_bytes());

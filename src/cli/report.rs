@@ -108,6 +108,55 @@ pub fn alternatives(list: &[Candidate], skip: &str, sys: System) -> Option<Table
     (!t.rows.is_empty()).then_some(t)
 }
 
+/// Where a catalogue section's properties came from, for the sheet.
+pub fn candidate_source(sel: &beamsift::search::Selection, c: &Candidate) -> String {
+    format!(
+        "catalogue {} line {}; {}",
+        sel.files.get(c.file).cloned().unwrap_or_default(),
+        c.line,
+        if c.shape.is_some() {
+            "properties computed from its dimensions (given values used where the row has them)"
+        } else {
+            "properties as given by the row"
+        }
+    )
+}
+
+/// Write the sheet of a selected catalogue section (select --report).
+pub fn write_candidate(
+    job: &Job,
+    prep: &Prepared,
+    sel: &beamsift::search::Selection,
+    c: &Candidate,
+    sys: System,
+    prefix: &Path,
+) -> Result<String> {
+    let mats = beamsift::catalog::Materials {
+        base: &job.material,
+        grades: &job.grades,
+    };
+    let m = mats.get(&c.material).clone();
+    let (md, html, _, verdict) = write(
+        job,
+        prep,
+        &c.name,
+        &c.properties,
+        c.mass,
+        &candidate_source(sel, c),
+        alternatives(&sel.lists[0].items, &c.name, sys),
+        sys,
+        prefix,
+        Some(&m),
+    )?;
+    Ok(format!(
+        "Calculation sheet for {}: {} and {} ({}).",
+        c.name,
+        md.display(),
+        html.display(),
+        verdict.word()
+    ))
+}
+
 pub fn run(a: Args, out: &Out) -> Result<i32> {
     if matches!(
         out.format,
@@ -160,10 +209,15 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
             name: a.section.clone(),
             jobs: None,
             quiet: true,
+            inputs: Default::default(),
         };
+        // With --section every row the name filter lets through is kept,
+        // so the exact name is found whatever its verdict.
+        let keep = if a.section.is_some() { 10_000 } else { 6 };
         let opts = ScanOptions {
-            ranks: vec![(Rank::Mass, 6)],
-            near: 1,
+            ranks: vec![(Rank::Mass, keep)],
+            near: if a.section.is_some() { keep } else { 1 },
+            unverified: keep,
             filters: cat.filters_for(&job)?,
             ..ScanOptions::default()
         };
@@ -178,20 +232,26 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
                 .cloned(),
             None => sel.lists[0].items.first().cloned(),
         };
+        let similar: Vec<String> = match &a.section {
+            Some(n) => sel.lists[0]
+                .items
+                .iter()
+                .chain(sel.near_misses.items.iter())
+                .chain(sel.unverified.items.iter())
+                .filter(|c| c.name.eq_ignore_ascii_case(n) && &c.name != n)
+                .map(|c| format!("'{}'", c.name))
+                .collect(),
+            None => Vec::new(),
+        };
         let c = pick.ok_or_else(|| match &a.section {
+            Some(n) if !similar.is_empty() => Error::msg(format!(
+                "no section named '{n}' in the catalogue (names are matched exactly, case included); similar: {}",
+                similar.join(", ")
+            )),
             Some(n) => Error::msg(format!("no section named '{n}' in the catalogue")),
             None => Error::NoSolution("no catalogue section passes: nothing to report (see `beamsift select` for the nearest misses, and the sections not verified)".into()),
         })?;
-        let src = format!(
-            "catalogue {} line {}; {}",
-            sel.files.get(c.file).cloned().unwrap_or_default(),
-            c.line,
-            if c.shape.is_some() {
-                "properties computed from its dimensions (given values used where the row has them)"
-            } else {
-                "properties as given by the row"
-            }
-        );
+        let src = candidate_source(&sel, &c);
         let alts = if a.section.is_none() {
             alternatives(&sel.lists[0].items, &c.name, sys)
         } else {

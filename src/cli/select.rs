@@ -395,6 +395,15 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
             sel.skipped.iter().take(10).cloned().collect(),
         );
     }
+    if let Some(prefix) = &a.report {
+        match sel.lists[0].items.iter().find(|c| c.passes) {
+            Some(best) => {
+                let line = super::report::write_candidate(&job, &prep, &sel, best, sys, prefix)?;
+                doc.para(line);
+            }
+            None => doc.para("No section passes: no calculation sheet was written (--report)."),
+        }
+    }
     finish_doc(
         &mut doc,
         &result.excluded,

@@ -209,6 +209,61 @@ pub fn search(
     let lower_bound = prob
         .objective_at(around, prep.material.density)
         .map(|o| o.0);
+    // A grid too large to search whole: first the whole of a coarser
+    // sub-grid (every m-th value of the longest lists, so each of its
+    // points is a point of the grid), whose optimum the result can only
+    // improve on; then a window around the continuous optimum.
+    let coarse = {
+        let mut values = grid.values.clone();
+        let size = |v: &[Vec<f64>]| v.iter().map(|x| x.len() as u128).product::<u128>();
+        while size(&values) > EXHAUSTIVE_POINTS {
+            let k = (0..n).max_by_key(|&k| values[k].len()).unwrap_or(0);
+            if values[k].len() <= 2 {
+                break;
+            }
+            values[k] = values[k].iter().copied().step_by(2).collect();
+        }
+        let sub = Grid { values };
+        if sub.size() <= EXHAUSTIVE_POINTS {
+            exhaustive(prob, prep, &sub).ok()
+        } else {
+            None
+        }
+    };
+    let windowed = windowed(prob, prep, grid, around, lower_bound);
+    let coarse_evaluated = coarse.as_ref().map_or(0, |c| c.evaluated);
+    let pick = match (windowed, coarse) {
+        (Ok(w), Some(c)) => {
+            if better(
+                &(c.objective, c.area, c.x.clone()),
+                &(w.objective, w.area, w.x.clone()),
+            ) {
+                c
+            } else {
+                w
+            }
+        }
+        (Ok(w), None) => w,
+        (Err(_), Some(c)) => c,
+        (Err(e), None) => return Err(e),
+    };
+    Ok(DiscreteOptimum {
+        gap_bound: lower_bound.map(|lb| (pick.objective - lb) / lb),
+        evaluated: pick.evaluated.max(coarse_evaluated),
+        whole_grid: false,
+        ..pick
+    })
+}
+
+/// The windowed search around the continuous optimum.
+fn windowed(
+    prob: &Problem,
+    prep: &Prepared,
+    grid: &Grid,
+    around: &[f64],
+    lower_bound: Option<f64>,
+) -> Result<DiscreteOptimum> {
+    let n = grid.values.len();
     let w = if n <= 4 { 3 } else { 2 };
     let mut centre: Vec<usize> = (0..n)
         .map(|k| {

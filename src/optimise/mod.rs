@@ -428,6 +428,46 @@ impl Problem {
                 "the cost objective needs plate prices (--plate-prices)",
             ));
         }
+        // Documented ranges (README "Optimise"): anything outside is a
+        // typing error, refused rather than ignored or obeyed.
+        let range = |name: &str, v: Option<f64>, lo: f64, hi: f64| -> Result<()> {
+            match v {
+                Some(x) if !(x.is_finite() && (lo..=hi).contains(&x)) => Err(Error::msg(format!(
+                    "{name} = {}: expected {} to {}",
+                    crate::units::fmt_num(x),
+                    crate::units::fmt_num(lo),
+                    crate::units::fmt_num(hi)
+                ))
+                .in_field(name)),
+                _ => Ok(()),
+            }
+        };
+        range("--aspect", self.aspect, 1.0, 50.0)?;
+        range("--lambda-f", self.lambda_f, 1.0, 100.0)?;
+        range("--lambda-w", self.lambda_w, 1.0, 1000.0)?;
+        range("--max-depth", self.max_depth, 1.0, 10_000.0)?;
+        range("--min-depth", self.min_depth, 1.0, 10_000.0)?;
+        for (i, (lo, hi)) in self.bounds.iter().enumerate() {
+            if *hi > 10_000.0 {
+                return Err(Error::msg(format!(
+                    "bounds on {}: an upper bound of {} mm is beyond 10 m",
+                    vars[i],
+                    crate::units::fmt_num(*hi)
+                ))
+                .in_field("--bound"));
+            }
+            let _ = lo;
+        }
+        for (t, p) in &self.plate_prices {
+            if !(p.is_finite() && *p > 0.0 && *p < 1e6) {
+                return Err(Error::msg(format!(
+                    "the price of {} mm plate is {}: expected a price per kg above zero",
+                    crate::units::fmt_num(*t),
+                    crate::units::fmt_num(*p)
+                ))
+                .in_field("--plate-prices"));
+            }
+        }
         Ok(())
     }
 }

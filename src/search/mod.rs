@@ -151,7 +151,12 @@ pub fn compare(rank: Rank, a: &Candidate, b: &Candidate) -> Ordering {
 pub struct TopList {
     pub rank: Rank,
     pub limit: usize,
+    /// The best `limit` candidates in rank order once the scan has
+    /// finished (`finish`); during the scan a sorted prefix of `limit`
+    /// followed by candidates that beat its last, compacted now and then,
+    /// so keeping n candidates costs O(n log n), not O(n²).
     pub items: Vec<Candidate>,
+    sorted_prefix: bool,
 }
 
 impl TopList {
@@ -160,26 +165,45 @@ impl TopList {
             rank,
             limit,
             items: Vec::new(),
+            sorted_prefix: false,
         }
+    }
+    /// The worst candidate that is surely kept so far (None until the list
+    /// holds `limit`): anything better may enter.
+    fn cutoff(&self) -> Option<&Candidate> {
+        (self.sorted_prefix && self.items.len() >= self.limit && self.limit > 0)
+            .then(|| &self.items[self.limit - 1])
     }
     /// Would this candidate enter the list?
     fn wants(&self, c: &Candidate) -> bool {
-        self.items.len() < self.limit
-            || self
-                .items
-                .last()
-                .is_some_and(|l| compare(self.rank, c, l) == Ordering::Less)
+        if self.limit == 0 {
+            return false;
+        }
+        match self.cutoff() {
+            None => true,
+            Some(l) => compare(self.rank, c, l) == Ordering::Less,
+        }
     }
     fn insert(&mut self, c: Candidate) {
         if !self.wants(&c) {
             return;
         }
-        let pos = self
-            .items
-            .binary_search_by(|x| compare(self.rank, x, &c))
-            .unwrap_or_else(|p| p);
-        self.items.insert(pos, c);
+        self.items.push(c);
+        let compact_at = self
+            .limit
+            .saturating_mul(2)
+            .max(self.limit.saturating_add(64));
+        if (!self.sorted_prefix && self.items.len() == self.limit) || self.items.len() >= compact_at
+        {
+            self.finish();
+        }
+    }
+    /// Sort and cut to the limit.
+    pub fn finish(&mut self) {
+        let rank = self.rank;
+        self.items.sort_by(|a, b| compare(rank, a, b));
         self.items.truncate(self.limit);
+        self.sorted_prefix = true;
     }
 }
 
@@ -394,11 +418,13 @@ impl<'a> KeyRef<'a> {
 
 impl TopList {
     fn wants_key(&self, k: &KeyRef<'_>) -> bool {
-        self.items.len() < self.limit
-            || self
-                .items
-                .last()
-                .is_some_and(|l| k.cmp(self.rank, l) == Ordering::Less)
+        if self.limit == 0 {
+            return false;
+        }
+        match self.cutoff() {
+            None => true,
+            Some(l) => k.cmp(self.rank, l) == Ordering::Less,
+        }
     }
 }
 
@@ -739,6 +765,10 @@ pub fn scan_excluding<R: Read + Send>(
         )));
         return Err(Error::Many(errs));
     }
+    for l in lists.iter_mut() {
+        l.finish();
+    }
+    unverified.finish();
     pareto.sort_by(|a, b| compare(Rank::Mass, a, b));
     let on_front: HashSet<(usize, u64)> = pareto.iter().map(|c| (c.file, c.line)).collect();
     for l in lists.iter_mut() {
