@@ -34,8 +34,9 @@ impl Location {
         self.line = Some(line);
         self
     }
+    /// Column 1, 2, ...; 0 means a problem of the whole row (no column).
     pub fn with_column(mut self, column: u64) -> Self {
-        self.column = Some(column);
+        self.column = (column > 0).then_some(column);
         self
     }
     pub fn with_field(mut self, field: impl Into<String>) -> Self {
@@ -78,8 +79,9 @@ pub enum Error {
     #[error("{}{message}", prefix(location))]
     Input { location: Location, message: String },
 
-    /// Several input problems at once (a catalogue with many bad rows).
-    #[error("{} problem(s) found:\n{}", .0.len(), join_errors(.0))]
+    /// Several input problems at once (a catalogue with many bad rows),
+    /// usually closed by a summary line that counts them.
+    #[error("{}:\n{}", heading(.0), join_errors(.0))]
     Many(Vec<Error>),
 
     /// Reading or writing a file failed.
@@ -105,6 +107,23 @@ fn prefix(loc: &Location) -> String {
         String::new()
     } else {
         format!("{loc}: ")
+    }
+}
+
+/// "N problem(s) found" counting the located problems; the plain
+/// messages among them are summaries ("... and 12 more", "3 bad row(s)").
+fn heading(errors: &[Error]) -> String {
+    let located = errors
+        .iter()
+        .filter(|e| !matches!(e, Error::Input { location, .. } if location.is_empty()))
+        .count();
+    let more = errors
+        .iter()
+        .any(|e| matches!(e, Error::Input { message, .. } if message.starts_with("... and ")));
+    match (located, more) {
+        (_, true) => "problems found (the first are listed)".to_string(),
+        (1, false) => "1 problem found".to_string(),
+        (n, false) => format!("{n} problems found"),
     }
 }
 

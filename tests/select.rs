@@ -192,7 +192,7 @@ fn bad_catalogues_are_refused_with_positions() {
         ),
         (
             "name,shape,b [mm],d [mm]\na,rect,100\n",
-            "fields but the header has 4",
+            "field(s) but the header has 4",
         ),
         ("name;shape;b [mm];d [mm]\na;rect;100;200\n", "--delimiter"),
         (

@@ -14,12 +14,14 @@
 
 pub mod generate;
 pub mod read;
+pub mod records;
 
 use crate::check::Material;
 use crate::error::{Error, Location, Result};
 use crate::section::spec::normalise_family;
 use crate::section::{Given, Properties, Shape};
 use crate::units::{self, Dim, fmt_num};
+use records::Record;
 
 /// What a column holds.
 #[derive(Clone, Debug, PartialEq)]
@@ -379,7 +381,7 @@ impl<'a> Materials<'a> {
     }
 }
 
-fn cell_str(rec: &csv::ByteRecord, i: usize) -> std::result::Result<&str, ()> {
+fn cell_str<'r>(rec: &Record<'r>, i: usize) -> std::result::Result<&'r str, ()> {
     std::str::from_utf8(rec.get(i).unwrap_or(b""))
         .map(str::trim)
         .map_err(|_| ())
@@ -472,9 +474,25 @@ fn rel_diff(a: f64, b: f64) -> f64 {
 /// `mats`. Returns the first problem with its column.
 pub fn parse_row<'r>(
     schema: &Schema,
-    rec: &'r csv::ByteRecord,
+    rec: &Record<'r>,
     mats: &Materials<'_>,
 ) -> std::result::Result<Row<'r>, CellError> {
+    if rec.fault() == Some(records::Fault::UnclosedQuote) {
+        return Err(CellError {
+            column: 0,
+            message: "a quoted field is never closed (the row runs to the end of the file)".into(),
+        });
+    }
+    if rec.len() != schema.cols.len() {
+        return Err(CellError {
+            column: 0,
+            message: format!(
+                "this row has {} field(s) but the header has {}: check the delimiter and quoting",
+                rec.len(),
+                schema.cols.len()
+            ),
+        });
+    }
     let mut given = Given::default();
     let mut dims: [(f64, bool); 14] = [(0.0, false); 14];
     let mut s_both = None;
@@ -816,7 +834,13 @@ fn shape_direct(
     family: &str,
     dim: &dyn Fn(usize) -> Option<f64>,
 ) -> std::result::Result<Shape, String> {
-    let fam = normalise_family(family);
+    // Most rows spell the family canonically: no allocation then.
+    let fam: std::borrow::Cow<'_, str> =
+        if family.bytes().all(|b| b.is_ascii_lowercase() || b == b'-') {
+            std::borrow::Cow::Borrowed(family)
+        } else {
+            std::borrow::Cow::Owned(normalise_family(family))
+        };
     let need = |k: usize| -> std::result::Result<f64, String> {
         dim(k).ok_or_else(|| format!("a {fam} needs the dimension '{}'", DIMS[k]))
     };
@@ -828,7 +852,7 @@ fn shape_direct(
             (None, None) => Err(format!("a {fam} needs hw or d")),
         }
     };
-    let shape = match fam.as_str() {
+    let shape = match &*fam {
         "rect" => Shape::Rect {
             b: need(B)?,
             d: need(D)?,

@@ -1,6 +1,7 @@
 //! Reading catalogue files: headers, chunked records for parallel scans,
 //! and whole-file validation that reports every bad row.
 
+use super::records::{Block, Blocks, ReadError, Records};
 use super::{Materials, Schema, parse_row};
 use crate::check::Material;
 use crate::error::{Error, Location, Result};
@@ -18,49 +19,63 @@ impl Default for ReadOptions {
     }
 }
 
-/// An open catalogue: its schema and a record reader.
+/// An open catalogue: its schema and a block reader positioned after the
+/// header.
 pub struct Catalog<R: Read> {
     pub file: String,
     pub schema: Schema,
-    pub reader: csv::Reader<R>,
+    /// Line of the header row.
+    pub header_line: u64,
+    pub delimiter: u8,
+    blocks: Blocks<R>,
 }
 
-/// Strip a UTF-8 byte-order mark from a header cell.
-fn strip_bom(s: &str) -> &str {
-    s.strip_prefix('\u{feff}').unwrap_or(s)
+/// A reusable buffer for sequential reading with [`Catalog::next_chunk`].
+#[derive(Default)]
+pub struct Chunk {
+    block: Block,
+    pub records: Records,
 }
 
 /// Open a catalogue from any reader (`file` names it in messages).
 pub fn open<R: Read>(input: R, file: &str, opts: &ReadOptions) -> Result<Catalog<R>> {
-    let mut reader = csv::ReaderBuilder::new()
-        .delimiter(opts.delimiter)
-        .comment(Some(b'#'))
-        .flexible(false)
-        .has_headers(true)
-        .from_reader(input);
-    let headers = reader
-        .byte_headers()
-        .map_err(|e| csv_error(file, e))?
-        .clone();
-    if headers.is_empty() || (headers.len() == 1 && headers[0].is_empty()) {
+    if matches!(opts.delimiter, b'"' | b'#' | b'\n' | b'\r') {
+        return Err(Error::input(
+            Location::in_file(file),
+            "the delimiter cannot be a quote, '#' or a line break",
+        ));
+    }
+    let mut blocks = Blocks::new(input, opts.delimiter);
+    let mut head = Records::default();
+    blocks
+        .take_records(1, &mut head)
+        .map_err(|e| read_error(file, e))?;
+    if head.is_empty() {
         return Err(Error::input(
             Location::in_file(file),
             "the file is empty: expected a header row naming the columns",
         ));
     }
-    let mut names = Vec::with_capacity(headers.len());
-    for (i, h) in headers.iter().enumerate() {
+    let header = head.get(0);
+    let line = header.line();
+    let mut names = Vec::with_capacity(header.len());
+    for (i, h) in header.iter().enumerate() {
         let s = std::str::from_utf8(h).map_err(|_| {
             Error::input(
                 Location::in_file(file)
-                    .with_line(1)
+                    .with_line(line)
                     .with_column(i as u64 + 1),
                 "the header is not valid UTF-8 text",
             )
         })?;
-        names.push(strip_bom(s).trim().to_string());
+        names.push(s.trim().to_string());
     }
-    let line = reader.position().line().max(1);
+    if header.fault().is_some() {
+        return Err(Error::input(
+            Location::in_file(file).with_line(line),
+            "the header has a quoted field that is never closed",
+        ));
+    }
     if names.len() == 1
         && opts.delimiter == b','
         && (names[0].contains(';') || names[0].contains('\t'))
@@ -83,57 +98,55 @@ pub fn open<R: Read>(input: R, file: &str, opts: &ReadOptions) -> Result<Catalog
             ),
         ));
     }
-    let schema = Schema::parse(&names, &Location::in_file(file).with_line(1))?;
+    let schema = Schema::parse(&names, &Location::in_file(file).with_line(line))?;
     Ok(Catalog {
         file: file.to_string(),
         schema,
-        reader,
+        header_line: line,
+        delimiter: opts.delimiter,
+        blocks,
     })
 }
 
-/// Turn a csv error into ours, with its position.
-pub fn csv_error(file: &str, e: csv::Error) -> Error {
-    let mut loc = Location::in_file(file);
-    if let Some(p) = e.position() {
-        loc = loc.with_line(p.line());
-    }
-    let msg = match e.kind() {
-        csv::ErrorKind::UnequalLengths {
-            expected_len, len, ..
-        } => format!(
-            "this row has {len} fields but the header has {expected_len}: check the delimiter and quoting"
+/// Turn a reading error into ours, with its position.
+pub fn read_error(file: &str, e: ReadError) -> Error {
+    match e {
+        ReadError::Io(err) => Error::io(file, err),
+        ReadError::TooLong { line } => Error::input(
+            Location::in_file(file).with_line(line),
+            format!(
+                "a record runs on for more than {} MB from here: is a quote never closed?",
+                super::records::MAX_RECORD >> 20
+            ),
         ),
-        csv::ErrorKind::Utf8 { .. } => "not valid UTF-8 text".to_string(),
-        csv::ErrorKind::Io(err) => {
-            return Error::io(file, std::io::Error::new(err.kind(), err.to_string()));
-        }
-        _ => e.to_string(),
-    };
-    Error::input(loc, msg)
+    }
 }
 
 impl<R: Read> Catalog<R> {
-    /// Fill `buf` with up to `n` records; returns how many (0 at the end).
-    /// Each record keeps its position for line numbers.
-    pub fn next_chunk(&mut self, buf: &mut Vec<csv::ByteRecord>, n: usize) -> Result<usize> {
-        let mut k = 0;
-        while k < n {
-            if k == buf.len() {
-                buf.push(csv::ByteRecord::new());
-            }
-            match self.reader.read_byte_record(&mut buf[k]) {
-                Ok(true) => k += 1,
-                Ok(false) => break,
-                Err(e) => return Err(csv_error(&self.file, e)),
-            }
-        }
-        Ok(k)
+    /// The next block of whole records (parse its segments in parallel
+    /// with [`Block::parse_segment`]); false at the end.
+    pub fn next_block(&mut self, block: &mut Block) -> Result<bool> {
+        self.blocks
+            .next_block(block)
+            .map_err(|e| read_error(&self.file, e))
     }
-}
 
-/// Line number of a record.
-pub fn line_of(rec: &csv::ByteRecord) -> u64 {
-    rec.position().map(|p| p.line()).unwrap_or(0)
+    /// The next records, in order, into `chunk.records`; 0 at the end.
+    pub fn next_chunk(&mut self, chunk: &mut Chunk) -> Result<usize> {
+        self.blocks
+            .next_records(&mut chunk.block, &mut chunk.records)
+            .map_err(|e| read_error(&self.file, e))
+    }
+
+    /// Bytes per parallel segment (results never depend on it).
+    pub fn set_segment(&mut self, bytes: usize) {
+        self.blocks.set_segment(bytes);
+    }
+
+    /// Input bytes read so far (whole records).
+    pub fn offset(&self) -> u64 {
+        self.blocks.offset()
+    }
 }
 
 /// Result of validating a whole catalogue.
@@ -153,16 +166,33 @@ pub fn validate<R: Read>(
     check_grades: bool,
 ) -> Result<Validation> {
     let mats = Materials { base, grades };
-    let mut buf = Vec::new();
+    let mut chunk = Chunk::default();
     let mut seen: std::collections::HashMap<String, u64> = std::collections::HashMap::new();
     let mut v = Validation {
         rows: 0,
         good: 0,
         errors: Vec::new(),
     };
-    let grade_col = cat.schema.cols.iter().position(|c| *c == super::Col::Grade);
+    // Without a job, grades cannot be resolved: read the grade column as a
+    // note.
+    let schema = if check_grades {
+        cat.schema.clone()
+    } else {
+        let mut s = cat.schema.clone();
+        for c in s.cols.iter_mut() {
+            if *c == super::Col::Grade {
+                *c = super::Col::Note;
+            }
+        }
+        s
+    };
+    let name_col = schema
+        .cols
+        .iter()
+        .position(|c| *c == super::Col::Name)
+        .unwrap_or(0);
     loop {
-        let n = match cat.next_chunk(&mut buf, 4096) {
+        let n = match cat.next_chunk(&mut chunk) {
             Ok(n) => n,
             Err(e) => {
                 v.errors.push(e);
@@ -172,33 +202,16 @@ pub fn validate<R: Read>(
         if n == 0 {
             break;
         }
-        for rec in &buf[..n] {
+        for rec in chunk.records.iter() {
             v.rows += 1;
-            let line = line_of(rec);
-            let mut rec2;
-            let rec_used = if !check_grades && let Some(g) = grade_col {
-                // Without a job, grades cannot be resolved: blank them.
-                rec2 = csv::ByteRecord::new();
-                for (i, f) in rec.iter().enumerate() {
-                    rec2.push_field(if i == g { b"" } else { f });
-                }
-                &rec2
-            } else {
-                rec
-            };
-            match parse_row(&cat.schema, rec_used, &mats) {
+            let line = rec.line();
+            match parse_row(&schema, &rec, &mats) {
                 Ok(row) => {
                     if let Some(first) = seen.insert(row.name.to_string(), line) {
-                        let col = cat
-                            .schema
-                            .cols
-                            .iter()
-                            .position(|c| *c == super::Col::Name)
-                            .unwrap_or(0);
                         v.errors.push(Error::input(
                             Location::in_file(&cat.file)
                                 .with_line(line)
-                                .with_column(col as u64 + 1),
+                                .with_column(name_col as u64 + 1),
                             format!(
                                 "duplicate section name '{}' (first on line {first})",
                                 row.name

@@ -2,7 +2,7 @@
 
 use super::Out;
 use super::output::emit;
-use beamsift::catalog::read::{self, ReadOptions, line_of};
+use beamsift::catalog::read::{self, Chunk, ReadOptions};
 use beamsift::catalog::{Materials, parse_row};
 use beamsift::check::Material;
 use beamsift::error::{Error, Result};
@@ -314,18 +314,18 @@ pub fn run(cmd: Cmd, out: &Out) -> Result<i32> {
                 ],
             );
             let mut rows_json = Vec::new();
-            let mut buf = Vec::new();
+            let mut chunk = Chunk::default();
             let mut errors = Vec::new();
             loop {
-                let n = cat.next_chunk(&mut buf, 4096)?;
+                let n = cat.next_chunk(&mut chunk)?;
                 if n == 0 {
                     break;
                 }
-                for rec in &buf[..n] {
-                    match parse_row(&cat.schema, rec, &mats) {
+                for rec in chunk.records.iter() {
+                    match parse_row(&cat.schema, &rec, &mats) {
                         Ok(r) => {
                             t.row(vec![
-                                line_of(rec).to_string(),
+                                rec.line().to_string(),
                                 r.name.to_string(),
                                 r.shape
                                     .as_ref()
@@ -344,17 +344,19 @@ pub fn run(cmd: Cmd, out: &Out) -> Result<i32> {
                                 },
                             ]);
                             rows_json.push(serde_json::json!({
-                                "line": line_of(rec), "name": r.name, "shape": r.shape, "grade": r.grade,
+                                "line": rec.line(), "name": r.name, "shape": r.shape, "grade": r.grade,
                                 "properties": r.props, "mass_per_length": r.mass, "cost_per_mm": r.cost, "stock": r.stock
                             }));
                         }
-                        Err(e) => errors.push(format!(
-                            "{}:{}:{}: {}",
-                            cat.file,
-                            line_of(rec),
-                            e.column,
-                            e.message
-                        )),
+                        Err(e) => errors.push(
+                            Error::input(
+                                beamsift::error::Location::in_file(&cat.file)
+                                    .with_line(rec.line())
+                                    .with_column(e.column as u64),
+                                e.message,
+                            )
+                            .to_string(),
+                        ),
                     }
                 }
             }

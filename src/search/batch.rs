@@ -64,17 +64,38 @@ pub fn read_schedule<R: Read>(
     n_live: f64,
     n_total: f64,
 ) -> Result<Vec<Member>> {
-    let mut rdr = csv::ReaderBuilder::new()
-        .comment(Some(b'#'))
-        .from_reader(input);
-    let headers = rdr
-        .headers()
-        .map_err(|e| crate::catalog::read::csv_error(file, e))?
-        .clone();
+    use crate::catalog::records::{Block, Blocks, Records};
+    let text = |f: &[u8], line: u64, col: usize| -> Result<String> {
+        std::str::from_utf8(f).map(str::to_string).map_err(|_| {
+            Error::input(
+                Location::in_file(file)
+                    .with_line(line)
+                    .with_column(col as u64 + 1),
+                "not valid UTF-8 text",
+            )
+        })
+    };
+    let mut rdr = Blocks::new(input, b',');
+    let mut head = Records::default();
+    rdr.take_records(1, &mut head)
+        .map_err(|e| crate::catalog::read::read_error(file, e))?;
+    if head.is_empty() {
+        return Err(Error::input(
+            Location::in_file(file),
+            "the schedule is empty: expected a header row naming the columns",
+        ));
+    }
+    let header_line = head.get(0).line();
+    let headers: Vec<String> = head
+        .get(0)
+        .iter()
+        .enumerate()
+        .map(|(i, f)| text(f, header_line, i).map(|t| t.trim().to_string()))
+        .collect::<Result<_>>()?;
     let mut cols = Vec::new();
     let mut errors = Vec::new();
     for (i, h) in headers.iter().enumerate() {
-        let h = h.trim_start_matches('\u{feff}').trim();
+        let h = h.as_str();
         let (name, unit) = match (h.find('['), h.rfind(']')) {
             (Some(a), Some(b)) if b > a => {
                 (h[..a].trim().to_ascii_lowercase(), Some(h[a + 1..b].trim()))
@@ -82,7 +103,7 @@ pub fn read_schedule<R: Read>(
             _ => (h.to_ascii_lowercase(), None),
         };
         let at = Location::in_file(file)
-            .with_line(1)
+            .with_line(header_line)
             .with_column(i as u64 + 1)
             .with_field(h.to_string());
         let unit_of = |dim: Dim| -> Result<f64> {
@@ -123,7 +144,7 @@ pub fn read_schedule<R: Read>(
     }
     if !cols.contains(&SCol::Mark) || !cols.iter().any(|c| matches!(c, SCol::Spans(_))) {
         errors.push(Error::input(
-            Location::in_file(file).with_line(1),
+            Location::in_file(file).with_line(header_line),
             "a schedule needs 'mark' and 'spans [unit]' columns",
         ));
     }
@@ -132,15 +153,47 @@ pub fn read_schedule<R: Read>(
     }
     let mut members = Vec::new();
     let mut marks = std::collections::HashMap::new();
-    for rec in rdr.records() {
+    let mut block = Block::default();
+    let mut recs = Records::default();
+    let mut rows: Vec<(u64, std::result::Result<Vec<String>, Error>)> = Vec::new();
+    while rdr
+        .next_records(&mut block, &mut recs)
+        .map_err(|e| crate::catalog::read::read_error(file, e))?
+        > 0
+    {
+        for r in recs.iter() {
+            let line = r.line();
+            let fields = if r.fault().is_some() {
+                Err(Error::input(
+                    Location::in_file(file).with_line(line),
+                    "a quoted field is never closed (the row runs to the end of the file)",
+                ))
+            } else if r.len() != headers.len() {
+                Err(Error::input(
+                    Location::in_file(file).with_line(line),
+                    format!(
+                        "this row has {} field(s) but the header has {}: check the delimiter and quoting",
+                        r.len(),
+                        headers.len()
+                    ),
+                ))
+            } else {
+                r.iter()
+                    .enumerate()
+                    .map(|(i, f)| text(f, line, i))
+                    .collect::<Result<Vec<_>>>()
+            };
+            rows.push((line, fields));
+        }
+    }
+    for (line, rec) in rows {
         let rec = match rec {
             Ok(r) => r,
             Err(e) => {
-                errors.push(crate::catalog::read::csv_error(file, e));
+                errors.push(e);
                 continue;
             }
         };
-        let line = rec.position().map(|p| p.line()).unwrap_or(0);
         match member_of(&rec, &cols, &headers, template, n_live, n_total) {
             Ok(mut m) => {
                 m.line = line;
@@ -172,9 +225,9 @@ pub fn read_schedule<R: Read>(
 }
 
 fn member_of(
-    rec: &csv::StringRecord,
+    rec: &[String],
     cols: &[SCol],
-    headers: &csv::StringRecord,
+    headers: &[String],
     template: &Job,
     n_live: f64,
     n_total: f64,
@@ -191,8 +244,8 @@ fn member_of(
     let mut service: Option<String> = None;
     let mut length = None;
     for (i, col) in cols.iter().enumerate() {
-        let cell = rec.get(i).unwrap_or("").trim();
-        let h = headers.get(i).unwrap_or("");
+        let cell = rec.get(i).map_or("", |c| c.trim());
+        let h = headers.get(i).map_or("", String::as_str);
         let fail = |msg: String| (i, Error::msg(msg).in_field(h));
         let num = |s: &str| -> std::result::Result<f64, (usize, Error)> {
             units::parse_number(s).map_err(|e| (i, e.in_field(h)))

@@ -3,15 +3,16 @@
 //! criterion, the mass–depth Pareto front, the nearest misses), so memory
 //! does not grow with the catalogue.
 //!
-//! Determinism: rows are read in chunks; each chunk is checked in
-//! parallel, and its outcomes are merged in file order with a total order
+//! Determinism: rows are read in blocks of segments; each block is checked
+//! in parallel, and its outcomes are merged in file order with a total order
 //! (criterion, then mass, depth, name, file, line), so the result does not
 //! depend on the number of threads.
 
 pub mod batch;
 pub mod rationalise;
 
-use crate::catalog::read::{Catalog, line_of};
+use crate::catalog::read::{Catalog, Chunk};
+use crate::catalog::records::{Block, Records};
 use crate::catalog::{Materials, Row, RowMaterial, parse_row};
 use crate::check::{Item, Prepared, SectionInput, Verdict};
 use crate::error::{Error, Location, Result};
@@ -216,7 +217,7 @@ pub struct ScanOptions {
     pub near: usize,
     pub filters: Filters,
     pub skip_bad_rows: bool,
-    /// Rows per chunk.
+    /// Bytes per parallel segment of a block (results never depend on it).
     pub chunk: usize,
     /// Keep the Pareto front.
     pub pareto: bool,
@@ -233,7 +234,7 @@ impl Default for ScanOptions {
             near: 5,
             filters: Filters::default(),
             skip_bad_rows: false,
-            chunk: 8192,
+            chunk: crate::catalog::records::SEGMENT,
             pareto: true,
             unverified: 5,
             include_unverified: false,
@@ -428,22 +429,26 @@ impl TopList {
     }
 }
 
-/// A fixed-size Bloom filter over section names: 2^24 bits (2 MiB, so it
-/// stays in a core's cache) in 64-bit words, 8 probes inside one word
-/// chosen by the name's hash. One word per name means one memory access and
-/// an atomic `fetch_or`, so the worker threads insert in parallel, and of
-/// two equal names the later insert always sees the earlier's bits (no
-/// duplicate is missed). A hit only makes a name a suspect; suspects are
-/// confirmed exactly by a second reading of the file (`confirm_duplicates`).
-/// False hits are (1 − e^(−n/2²¹))^8 per row: none expected below ~200 000
-/// rows, about 600 per million rows (one extra read of the file, 1.2 % of
-/// the 1 M-row select time measured). Beyond `SUSPECT_CAP` suspects the
-/// confirmation checks every name (memory then grows with the catalogue).
+/// A fixed-size Bloom filter over section names: 2^28 bits (32 MiB,
+/// allocated whole, so memory does not grow with the catalogue) in 64-bit
+/// words, 8 probes inside one word chosen by the name's hash. One word per
+/// name means one memory access and an atomic `fetch_or`, so the worker
+/// threads insert in parallel, and of two equal names the later insert
+/// always sees the earlier's bits (no duplicate is missed). A hit only
+/// makes a name a suspect; suspects are confirmed exactly by a second
+/// reading of the file (`confirm_duplicates`), which therefore happens only
+/// when a name repeats or the filter errs. With n names the filter errs on
+/// about (1 − e^(−8n/2²⁸))^8 of them: 5·10⁻¹³ per row at 1 M rows (none
+/// expected below about 3 M rows), 2·10⁻⁵ at 10 M (about 200 suspects, one
+/// extra reading of names only). Beyond `SUSPECT_CAP` suspects (a file in
+/// which more than 100,000 names repeat) the confirmation checks every name
+/// and memory then grows with the catalogue.
 struct Bloom {
     words: Vec<std::sync::atomic::AtomicU64>,
 }
 
-const BLOOM_WORDS: u64 = (1 << 24) / 64;
+const BLOOM_WORDS: u64 = (1 << 28) / 64;
+const BLOOM_SHIFT: u32 = 22;
 
 /// A fast 64-bit hash of a name, eight bytes at a time (multiply–xorshift
 /// rounds, splitmix64 finish). Not for adversarial input: a collision only
@@ -472,6 +477,27 @@ fn name_hash(s: &str) -> u64 {
 }
 
 impl Bloom {
+    /// Insert the names of a segment's checked rows, setting `suspect`.
+    /// The words are first read with plain loads, which the processor
+    /// overlaps, so the atomic updates (each a full barrier) then find
+    /// them in cache: one memory wait per segment instead of one per row.
+    fn insert_all(&self, outs: &mut [Outcome<'_>]) {
+        let mut touch = 0u64;
+        for o in outs.iter() {
+            if let Outcome::Checked { name, .. } = o {
+                let h = name_hash(name);
+                touch ^= self.words[(h % BLOOM_WORDS) as usize]
+                    .load(std::sync::atomic::Ordering::Relaxed);
+            }
+        }
+        std::hint::black_box(touch);
+        for o in outs.iter_mut() {
+            if let Outcome::Checked { name, suspect, .. } = o {
+                *suspect = self.insert(name);
+            }
+        }
+    }
+
     fn new() -> Self {
         let mut words = Vec::with_capacity(BLOOM_WORDS as usize);
         words.resize_with(BLOOM_WORDS as usize, || {
@@ -482,9 +508,9 @@ impl Bloom {
     /// Insert; true if the name may have been seen before.
     fn insert(&self, name: &str) -> bool {
         let h = name_hash(name);
-        // Low 21 bits choose the word; the other 43 give the probes.
+        // The low 22 bits choose the word; the other 42 give the probes.
         let word = &self.words[(h % BLOOM_WORDS) as usize];
-        let mut g = (h >> 21).wrapping_mul(0xff51_afd7_ed55_8ccd) ^ h;
+        let mut g = (h >> BLOOM_SHIFT).wrapping_mul(0xff51_afd7_ed55_8ccd) ^ h;
         let mut mask = 0u64;
         for _ in 0..8 {
             mask |= 1u64 << (g & 63);
@@ -574,23 +600,24 @@ pub fn scan_excluding<R: Read + Send>(
         let bloom = Bloom::new();
         let schema = cat.schema.clone();
         let file = cat.file.clone();
-        let chunk = opts.chunk;
         let rows_before = counts.rows;
         let mut suspects_in_file = 0usize;
-        // A reader thread fills the next chunk while this one is checked.
+        let delim = cat.delimiter;
+        // A reader thread reads the next block (finding where its records
+        // end) while this one is parsed and checked, segment by segment, in
+        // parallel.
         let read_bytes = std::thread::scope(|sc| -> Result<u64> {
-            let (tx, rx) =
-                std::sync::mpsc::sync_channel::<Result<(Vec<csv::ByteRecord>, usize, u64)>>(2);
-            let (back_tx, back_rx) = std::sync::mpsc::channel::<Vec<csv::ByteRecord>>();
+            let (tx, rx) = std::sync::mpsc::sync_channel::<Result<Block>>(2);
+            let (back_tx, back_rx) = std::sync::mpsc::channel::<Block>();
             let mut cat = cat;
+            cat.set_segment(opts.chunk);
             let reader = sc.spawn(move || -> u64 {
                 loop {
-                    let mut buf = back_rx.try_recv().unwrap_or_default();
-                    match cat.next_chunk(&mut buf, chunk) {
-                        Ok(0) => return cat.reader.position().byte(),
-                        Ok(n) => {
-                            let pos = buf[n - 1].position().map(|p| p.byte()).unwrap_or(0);
-                            if tx.send(Ok((buf, n, pos))).is_err() {
+                    let mut block = back_rx.try_recv().unwrap_or_default();
+                    match cat.next_block(&mut block) {
+                        Ok(false) => return cat.offset(),
+                        Ok(true) => {
+                            if tx.send(Ok(block)).is_err() {
                                 return 0;
                             }
                         }
@@ -601,40 +628,61 @@ pub fn scan_excluding<R: Read + Send>(
                     }
                 }
             });
+            let mut pool: Vec<Records> = Vec::new();
             for msg in rx {
-                let (buf, n, pos) = msg?;
+                let block = msg?;
+                let pos = block.end_offset;
                 let schema = &schema;
-                let outcomes: Vec<Outcome<'_>> = buf[..n]
-                    .par_iter()
-                    .map(|rec| {
-                        if !exclude.is_empty() && exclude.contains(&(fi, line_of(rec))) {
-                            return Outcome::Excluded;
-                        }
-                        match parse_row(schema, rec, mats) {
-                            Err(e) => Outcome::Bad(line_of(rec), e.column, e.message),
-                            Ok(row) => {
-                                if !opts.filters.admits(&row) {
-                                    return Outcome::Filtered;
+                let nseg = block.segments.len();
+                if pool.len() < nseg {
+                    pool.resize_with(nseg, Records::default);
+                }
+                let parsed: Vec<(&Records, Vec<Outcome<'_>>)> = pool[..nseg]
+                    .par_iter_mut()
+                    .enumerate()
+                    .map(|(k, recs)| {
+                        block.parse_segment(k, delim, recs);
+                        let recs: &Records = recs;
+                        let outs = recs
+                            .iter()
+                            .map(|rec| {
+                                if !exclude.is_empty() && exclude.contains(&(fi, rec.line())) {
+                                    return Outcome::Excluded;
                                 }
-                                let mat = mats.get(&row.material);
-                                let s = prep.check(
-                                    SectionInput::new(&row.props, row.mass).with_material(mat),
-                                );
-                                Outcome::Checked {
-                                    name: row.name,
-                                    suspect: bloom.insert(row.name),
-                                    mass: row.mass,
-                                    depth: row.props.depth,
-                                    cost: row.cost,
-                                    summary: s,
+                                match parse_row(schema, &rec, mats) {
+                                    Err(e) => Outcome::Bad(rec.line(), e.column, e.message),
+                                    Ok(row) => {
+                                        if !opts.filters.admits(&row) {
+                                            return Outcome::Filtered;
+                                        }
+                                        let mat = mats.get(&row.material);
+                                        let s = prep.check(
+                                            SectionInput::new(&row.props, row.mass)
+                                                .with_material(mat),
+                                        );
+                                        Outcome::Checked {
+                                            name: row.name,
+                                            suspect: false,
+                                            mass: row.mass,
+                                            depth: row.props.depth,
+                                            cost: row.cost,
+                                            summary: s,
+                                        }
+                                    }
                                 }
-                            }
-                        }
+                            })
+                            .collect::<Vec<_>>();
+                        let mut outs = outs;
+                        bloom.insert_all(&mut outs);
+                        (recs, outs)
                     })
                     .collect();
-                for (rec, out) in buf[..n].iter().zip(outcomes) {
+                for (rec, out) in parsed
+                    .into_iter()
+                    .flat_map(|(recs, outs)| recs.iter().zip(outs))
+                {
                     counts.rows += 1;
-                    let line = line_of(rec);
+                    let line = rec.line();
                     match out {
                         Outcome::Bad(line, col, msg) => {
                             counts.bad += 1;
@@ -684,7 +732,7 @@ pub fn scan_excluding<R: Read + Send>(
                                 line,
                             };
                             let materialise = || -> Result<Candidate> {
-                                let row = parse_row(schema, rec, mats)
+                                let row = parse_row(schema, &rec, mats)
                                     .map_err(|e| Error::Internal(e.message))?;
                                 Ok(to_candidate(prep, mats, &row, &s, fi, line))
                             };
@@ -738,7 +786,7 @@ pub fn scan_excluding<R: Read + Send>(
                     }
                 }
                 progress(counts.rows, done_bytes + pos);
-                let _ = back_tx.send(buf);
+                let _ = back_tx.send(block);
             }
             Ok(reader.join().unwrap_or(0))
         })?;
@@ -806,18 +854,18 @@ pub fn confirm_duplicates<R: Read>(
         .unwrap_or(0);
     let mut first: std::collections::HashMap<String, u64> = std::collections::HashMap::new();
     let mut dups = Vec::new();
-    let mut buf = Vec::new();
+    let mut chunk = Chunk::default();
     loop {
-        let n = cat.next_chunk(&mut buf, 8192)?;
+        let n = cat.next_chunk(&mut chunk)?;
         if n == 0 {
             break;
         }
-        for rec in &buf[..n] {
+        for rec in chunk.records.iter() {
             let name = std::str::from_utf8(rec.get(name_col).unwrap_or(b""))
                 .unwrap_or("")
                 .trim();
             if names.is_none_or(|n| n.contains(name)) {
-                let line = line_of(rec);
+                let line = rec.line();
                 match first.get(name) {
                     Some(&f) => dups.push((name.to_string(), line, f)),
                     None => {
@@ -907,7 +955,7 @@ pub fn load_rows<R: Read>(
     let mut counts = Counts::default();
     let mut errors = Vec::new();
     let mut skipped = Vec::new();
-    let mut buf = Vec::new();
+    let mut chunk = Chunk::default();
     let none = crate::check::Summary {
         utilisation: f64::NAN,
         governing: None,
@@ -918,14 +966,14 @@ pub fn load_rows<R: Read>(
     for (fi, mut cat) in catalogs.into_iter().enumerate() {
         let mut names: HashSet<String> = HashSet::new();
         loop {
-            let n = cat.next_chunk(&mut buf, 4096)?;
+            let n = cat.next_chunk(&mut chunk)?;
             if n == 0 {
                 break;
             }
-            for rec in &buf[..n] {
+            for rec in chunk.records.iter() {
                 counts.rows += 1;
-                let line = line_of(rec);
-                match parse_row(&cat.schema, rec, mats) {
+                let line = rec.line();
+                match parse_row(&cat.schema, &rec, mats) {
                     Ok(row) => {
                         if !names.insert(row.name.to_string()) {
                             counts.bad += 1;
