@@ -150,52 +150,31 @@ pub fn boundaries(
     let n = data.len();
     let mut i = 0;
     let mut done = (0, line);
-    'record: while i < n {
+    while i < n {
         let record_start = i;
-        if data[i] == b'#' {
+        // The line break that ends this record (None: the data ends first).
+        let end = if data[i] == b'#' {
             // A comment runs to its line break; quotes in it are text.
-            match memchr2(b'\n', b'\r', &data[i..]) {
-                None => {
-                    if eof {
-                        mark(n, line);
-                        return (n, line);
-                    }
-                    return done;
+            memchr2(b'\n', b'\r', &data[i..]).map(|k| i + k)
+        } else {
+            let mut in_quotes = false;
+            loop {
+                let found = if in_quotes {
+                    memchr(b'"', &data[i..]).map(|k| (i + k, b'"'))
+                } else {
+                    memchr3(b'"', b'\n', b'\r', &data[i..]).map(|k| (i + k, data[i + k]))
+                };
+                // Inside quotes, line breaks are counted as they are passed.
+                if in_quotes {
+                    let upto = found.map_or(n, |f| f.0);
+                    line += count_lines(&data[i..upto], eof || found.is_some());
                 }
-                Some(k) => {
-                    let j = i + k;
-                    let Some(len) = line_break(data, j, eof) else {
-                        return done;
-                    };
-                    i = j + len;
-                    line += 1;
-                    mark(i, line);
-                    done = (i, line);
-                    continue 'record;
+                let Some((j, b)) = found else {
+                    break None;
+                };
+                if b != b'"' {
+                    break Some(j);
                 }
-            }
-        }
-        let mut in_quotes = false;
-        loop {
-            let found = if in_quotes {
-                memchr(b'"', &data[i..]).map(|k| (i + k, b'"'))
-            } else {
-                memchr3(b'"', b'\n', b'\r', &data[i..]).map(|k| (i + k, data[i + k]))
-            };
-            // Inside quotes, line breaks are counted as they are passed.
-            if in_quotes {
-                let upto = found.map_or(n, |f| f.0);
-                line += count_lines(&data[i..upto], eof || found.is_some());
-            }
-            let Some((j, b)) = found else {
-                if eof {
-                    // The last record has no line break (or an unclosed quote).
-                    mark(n, line);
-                    return (n, line);
-                }
-                return done;
-            };
-            if b == b'"' {
                 if in_quotes {
                     match data.get(j + 1) {
                         Some(b'"') => i = j + 2,
@@ -210,17 +189,23 @@ pub fn boundaries(
                     in_quotes = j == record_start || data[j - 1] == delim;
                     i = j + 1;
                 }
-                continue;
             }
-            let Some(len) = line_break(data, j, eof) else {
-                return done;
-            };
-            i = j + len;
-            line += 1;
-            mark(i, line);
-            done = (i, line);
-            continue 'record;
-        }
+        };
+        let Some(j) = end else {
+            if eof {
+                // The last record has no line break (or an unclosed quote).
+                mark(n, line);
+                return (n, line);
+            }
+            return done;
+        };
+        let Some(len) = line_break(data, j, eof) else {
+            return done;
+        };
+        i = j + len;
+        line += 1;
+        mark(i, line);
+        done = (i, line);
     }
     done
 }
@@ -650,49 +635,5 @@ mod tests {
         let v = all(b"\"open,never closed\nx,y\n");
         assert_eq!(v.len(), 1);
         assert_eq!(v[0].2, Some(Fault::UnclosedQuote));
-    }
-
-    #[test]
-    fn blocks_split_anywhere_give_the_same_records() {
-        let text = b"name,d\r\n# 1\"\n\"q\r\nq\",2\r3,\"\"\"\"\n\n4,5\r\n".repeat(50);
-        let whole = all(&text);
-        for cut in [1usize, 2, 3, 7, 64] {
-            let reader = Chunky {
-                data: &text,
-                at: 0,
-                step: cut,
-            };
-            let mut b = Blocks::new(reader, b',');
-            let mut got = Vec::new();
-            let mut block = Block::default();
-            let mut recs = Records::default();
-            while b.next_records(&mut block, &mut recs).unwrap() > 0 {
-                for x in recs.iter() {
-                    got.push((
-                        x.line(),
-                        x.iter()
-                            .map(|f| String::from_utf8_lossy(f).into_owned())
-                            .collect::<Vec<_>>(),
-                        x.fault(),
-                    ));
-                }
-            }
-            assert_eq!(got, whole, "reads of {cut} bytes");
-        }
-    }
-
-    /// A reader that returns at most `step` bytes per call.
-    pub(super) struct Chunky<'a> {
-        pub(super) data: &'a [u8],
-        pub(super) at: usize,
-        pub(super) step: usize,
-    }
-    impl std::io::Read for Chunky<'_> {
-        fn read(&mut self, buf: &mut [u8]) -> std::io::Result<usize> {
-            let k = self.step.min(buf.len()).min(self.data.len() - self.at);
-            buf[..k].copy_from_slice(&self.data[self.at..self.at + k]);
-            self.at += k;
-            Ok(k)
-        }
     }
 }
