@@ -228,6 +228,31 @@ impl Source<'_> {
             .with_column(col)
             .with_field(field)
     }
+    /// The line of a table's header (`[material]`, `[materials.T1]`,
+    /// `[materials."T 1"]`), for problems of a key the table lacks.
+    fn table_loc(&self, table: &str, field: &str) -> Location {
+        let (head, name) = table.split_once('.').unwrap_or((table, ""));
+        let line = self.text.lines().position(|l| {
+            let l = l.trim();
+            let Some(inner) = l.strip_prefix('[').and_then(|r| r.split(']').next()) else {
+                return false;
+            };
+            let inner: String = inner.chars().filter(|c| !c.is_whitespace()).collect();
+            match inner.split_once('.') {
+                None => name.is_empty() && inner == head,
+                Some((h, n)) => {
+                    h == head
+                        && !name.is_empty()
+                        && n.trim_matches(|c| c == '"' || c == '\'') == name.replace(' ', "")
+                }
+            }
+        });
+        let loc = Location::in_file(self.file).with_field(field);
+        match line {
+            Some(k) => loc.with_line(k as u64 + 1),
+            None => loc,
+        }
+    }
     fn err<T>(
         &self,
         span: std::ops::Range<usize>,
@@ -264,12 +289,24 @@ pub fn parse_ratio(s: &str) -> Result<f64> {
         .or_else(|| t.strip_prefix("l/"))
         .and_then(|n| n.parse::<f64>().ok())
         .filter(|n| n.is_finite() && *n > 0.0);
-    n.ok_or_else(|| {
+    let n = n.ok_or_else(|| {
         Error::msg(format!(
             "'{s}' is not a deflection limit: expected the form L/360 (and/or an absolute limit with a length unit)"
         ))
-    })
+    })?;
+    if !(RATIO_RANGE.0..=RATIO_RANGE.1).contains(&n) {
+        return Err(Error::msg(format!(
+            "'{s}' is outside the supported limits L/{} to L/{}: a typing error is likelier than such a limit",
+            RATIO_RANGE.0, RATIO_RANGE.1
+        )));
+    }
+    Ok(n)
 }
+
+/// Supported n of a deflection limit L/n (L/60 for a lenient cantilever
+/// roof to L/10000 for a machine foundation cover the trade's usual range
+/// with room to spare; common practice).
+pub const RATIO_RANGE: (f64, f64) = (20.0, 20_000.0);
 
 /// Parse a lateral bracing description.
 pub fn parse_bracing(s: &str) -> Result<Bracing> {
@@ -616,7 +653,12 @@ pub fn from_toml(text: &str, file: &str) -> Result<Job> {
                 label: field.clone(),
                 tributary,
             },
-            span0,
+            // A load off the beam is reported where its position is given.
+            l.at.as_ref()
+                .or(l.from.as_ref())
+                .or(l.to.as_ref())
+                .map(|v| (v.span(), if l.at.is_some() { "at" } else { "from" }))
+                .unwrap_or((span0, "case")),
         ));
     }
     for (l, _) in &loads {
@@ -858,9 +900,15 @@ pub fn from_toml(text: &str, file: &str) -> Result<Job> {
     if let Err(e) = beam.validate() {
         if let Error::Input { location, .. } = &e
             && let Some(field) = &location.field
-            && let Some((_, span)) = loads.iter().find(|(l, _)| field.starts_with(&l.label))
+            && let Some((l, (span, key))) = loads.iter().find(|(l, _)| field.starts_with(&l.label))
         {
-            return Err(e.at(&src.loc(span.clone(), "")));
+            let Error::Input { message, .. } = e else {
+                return Err(e);
+            };
+            return Err(Error::input(
+                src.loc(span.clone(), &format!("{}.{key}", l.label)),
+                message,
+            ));
         }
         return Err(e.at(&Location::in_file(file)));
     }
@@ -899,7 +947,7 @@ fn parse_material(
         Some(v) => src.q(v, Dim::Stress, &format!("{table}.E"))?,
         None => {
             return Err(Error::input(
-                Location::in_file(file).with_field(format!("{table}.E")),
+                src.table_loc(table, &format!("{table}.E")),
                 format!(
                     "missing the modulus of elasticity: add E = \"...\" with a stress unit to [{table}]"
                 ),
@@ -947,7 +995,7 @@ fn parse_material(
     };
     if timber_given && kind != MaterialKind::Timber {
         return Err(Error::input(
-            Location::in_file(file).with_field(format!("{table}.kind")),
+            src.table_loc(table, &format!("{table}.kind")),
             format!(
                 "[{table}] gives timber values (Emin or adjustment factors) but kind is {}: expected kind = \"timber\"",
                 kind.name()
@@ -961,7 +1009,7 @@ fn parse_material(
         (None, None, None) if kind == MaterialKind::Steel && fy.is_some() => (None, None),
         _ => {
             return Err(Error::input(
-                Location::in_file(file).with_field(format!("{table}.Fb")),
+                src.table_loc(table, &format!("{table}.Fb")),
                 format!(
                     "missing the allowable bending stress: add Fb = \"...\" (or both Fbt and Fbc) to [{table}] (steel with Fy may omit it: AISC 360-16 Chapter F then gives the bending strength)"
                 ),
@@ -986,7 +1034,47 @@ fn parse_material(
         density,
         timber,
     };
-    mat.validate().map_err(|e| e.at(&Location::in_file(file)))?;
+    mat.validate().map_err(|e| {
+        // The problem is at the key it names ("material.Fb (tension)"),
+        // in this table.
+        let Error::Input { location, message } = e else {
+            return e.at(&Location::in_file(file));
+        };
+        let key = location
+            .field
+            .as_deref()
+            .and_then(|f| f.strip_prefix("material."))
+            .unwrap_or("");
+        let key = key.split(' ').next().unwrap_or("");
+        let stress = |v: &Option<Spanned<String>>| v.as_ref().map(|v| v.span());
+        let num = |v: &Option<Spanned<f64>>| v.as_ref().map(|v| v.span());
+        let span = match key {
+            "E" => stress(&m.e),
+            "Fb" => stress(&m.fb).or(stress(&m.fbt)).or(stress(&m.fbc)),
+            "Fv" => stress(&m.fv),
+            "Fy" => stress(&m.fy),
+            "Emin" => stress(&m.e_min),
+            "density" => stress(&m.density),
+            "CD" => num(&m.cd),
+            "CM_Fb" => num(&m.cm_fb),
+            "CM_Fv" => num(&m.cm_fv),
+            "CM_E" => num(&m.cm_e),
+            "Ct" => num(&m.ct),
+            "Ci" => num(&m.ci),
+            "Ct_E" => num(&m.ct_e),
+            "Ci_E" => num(&m.ci_e),
+            "CF" => num(&m.cf),
+            "Cr" => num(&m.cr),
+            "Cfu" => num(&m.cfu),
+            _ => None,
+        };
+        let field = format!("{table}.{key}");
+        let at = match span {
+            Some(sp) => src.loc(sp, &field),
+            None => src.table_loc(table, &field),
+        };
+        Error::input(at, message)
+    })?;
     Ok(mat)
 }
 

@@ -81,8 +81,9 @@ fn errors_name_file_line_and_column() {
     let e = err(&format!(
         "{BASE}[[load]]\ncase = \"D\"\npoint = \"1 kN\"\nat = \"7 m\"\n"
     ));
+    // At the position's value (line 17, after `at = `).
     assert!(
-        e.contains("job.toml:15") && e.contains("not on the beam"),
+        e.contains("job.toml:17:6: load[1].at") && e.contains("not on the beam"),
         "{e}"
     );
     let e = err(&BASE.replace("factors = { D = 1.0 }", "factors = { Q = 1.0 }"));

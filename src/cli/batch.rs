@@ -31,8 +31,8 @@ pub struct Args {
     pub job: PathBuf,
     #[command(flatten)]
     pub cat: CatalogArgs,
-    /// Use at most this many distinct sections across the schedule.
-    #[arg(long = "max-sizes", value_name = "K")]
+    /// Use at most this many distinct sections across the schedule (1–10,000).
+    #[arg(long = "max-sizes", value_name = "K", value_parser = super::count_in::<1, 10_000>)]
     pub max_sizes: Option<usize>,
     /// Rationalise for least total mass or least total cost.
     #[arg(long, value_parser = ["mass", "cost"], default_value = "mass")]

@@ -265,6 +265,18 @@ fn run_command(command: Command, out: &Out) -> beamsift::Result<i32> {
 }
 
 /// Resolved output options.
+/// A whole number within LO..=HI (a clap value parser).
+pub fn count_in<const LO: usize, const HI: usize>(s: &str) -> std::result::Result<usize, String> {
+    let n: usize = s
+        .trim()
+        .parse()
+        .map_err(|_| format!("'{s}' is not a whole number: expected {LO} to {HI}"))?;
+    if !(LO..=HI).contains(&n) {
+        return Err(format!("{n} is outside {LO} to {HI}"));
+    }
+    Ok(n)
+}
+
 #[derive(Clone, Debug)]
 pub struct Out {
     pub units: System,

@@ -33,14 +33,14 @@ pub struct Args {
     /// Rank the passing sections by this criterion.
     #[arg(long, value_enum, default_value_t = Rank::Mass)]
     pub rank: Rank,
-    /// How many passing sections to list.
-    #[arg(long, default_value_t = 10)]
+    /// How many passing sections to list (1–100,000).
+    #[arg(long, default_value_t = 10, value_parser = super::count_in::<1, 100_000>)]
     pub top: usize,
     /// List every passing section.
     #[arg(long)]
     pub all: bool,
-    /// How many nearest misses to list.
-    #[arg(long, default_value_t = 5)]
+    /// How many nearest misses to list (0–10,000).
+    #[arg(long, default_value_t = 5, value_parser = super::count_in::<0, 10_000>)]
     pub near: usize,
     /// Rank sections that are not verified (a limit state could not be
     /// evaluated) with the passing ones, marked on every line.
@@ -57,14 +57,14 @@ pub struct ShortlistArgs {
     pub job: JobArgs,
     #[command(flatten)]
     pub cat: CatalogArgs,
-    /// Number of pieces of this member.
-    #[arg(long, default_value_t = 1)]
+    /// Number of pieces of this member (1–1,000,000).
+    #[arg(long, default_value_t = 1, value_parser = clap::value_parser!(u32).range(1..=1_000_000))]
     pub count: u32,
     /// Length of one piece (default: the beam's length).
     #[arg(long, value_name = "LENGTH")]
     pub length: Option<String>,
-    /// How many sections in each list.
-    #[arg(long, default_value_t = 5)]
+    /// How many sections in each list (1–10,000).
+    #[arg(long, default_value_t = 5, value_parser = super::count_in::<1, 10_000>)]
     pub top: usize,
 }
 
@@ -486,7 +486,17 @@ pub fn run_shortlist(a: ShortlistArgs, out: &Out) -> Result<i32> {
     let job = a.job.load()?;
     let prep = prepare(&job)?;
     let length = match &a.length {
-        Some(t) => units::parse(t, Dim::Length).map_err(|e| e.in_field("--length"))?,
+        Some(t) => {
+            let l = units::parse(t, Dim::Length).map_err(|e| e.in_field("--length"))?;
+            if !(1.0..=1e6).contains(&l) {
+                return Err(Error::msg(format!(
+                    "{} mm is outside the supported piece length, 1 mm to 1 km",
+                    units::fmt_num(l)
+                ))
+                .in_field("--length"));
+            }
+            l
+        }
         None => job.beam.length(),
     };
     if a.count == 0 {

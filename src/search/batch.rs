@@ -259,10 +259,10 @@ fn member_of(
                 count = cell
                     .parse::<u32>()
                     .ok()
-                    .filter(|c| *c >= 1)
+                    .filter(|c| (1..=1_000_000).contains(c))
                     .ok_or_else(|| {
                         fail(format!(
-                            "'{cell}' is not a whole number of pieces (1 or more)"
+                            "'{cell}' is not a whole number of pieces from 1 to 1,000,000"
                         ))
                     })?
             }
@@ -286,11 +286,27 @@ fn member_of(
             SCol::Uniform(c, f) => uniform.push((c, num(cell)? * f)),
             SCol::Point(c, f) => points.push((c, num(cell)? * f)),
             SCol::PointAt(f) => point_at = Some(num(cell)? * f),
-            SCol::MaxDepth(f) => max_depth = Some(num(cell)? * f),
+            SCol::MaxDepth(f) => {
+                let v = num(cell)? * f;
+                if !(1.0..=100_000.0).contains(&v) {
+                    return Err(fail(format!(
+                        "'{cell}' is outside the supported depth limit, 1 mm to 100 m"
+                    )));
+                }
+                max_depth = Some(v)
+            }
             SCol::Bracing => {
                 bracing = Some(job::parse_bracing(cell).map_err(|e| (i, e.in_field(h)))?)
             }
-            SCol::Length(f) => length = Some(num(cell)? * f),
+            SCol::Length(f) => {
+                let v = num(cell)? * f;
+                if !(1.0..=1e6).contains(&v) {
+                    return Err(fail(format!(
+                        "'{cell}' is outside the supported piece length, 1 mm to 1 km"
+                    )));
+                }
+                length = Some(v)
+            }
             SCol::Service => service = Some(cell.to_string()),
             SCol::Note => {}
         }

@@ -278,7 +278,17 @@ pub fn max_span(
                 }
             },
         );
-        if let Some((mut l, k)) = best {
+        if let Some((l, k)) = best
+            && l < opts.min_span
+        {
+            // By the same scaling the check fails at every span from the
+            // shortest one tried: no span to list (and no beam shorter than
+            // the supported range is analysed).
+            return Ok(finish(None, &At::Fails(Some(k)), Method::ClosedForm));
+        }
+        if let Some((mut l, k)) = best
+            && l <= opts.max_span
+        {
             // At the exact span one utilisation is 1 to round-off: step
             // below it until the real check passes, so a table never lists
             // a span that fails. A section not verified there (a method's
