@@ -269,7 +269,14 @@ impl Source<'_> {
 /// Read a text file (a job file), reporting invalid UTF-8 as bad input at
 /// its line and column rather than as an I/O failure.
 pub fn read_text(path: &std::path::Path, shown: &str) -> Result<String> {
-    let bytes = std::fs::read(path).map_err(|e| Error::io(shown, e))?;
+    // Read at most one byte past the limit (from_toml then refuses it).
+    let mut bytes = Vec::new();
+    std::fs::File::open(path)
+        .and_then(|f| {
+            use std::io::Read;
+            f.take(MAX_JOB_BYTES as u64 + 1).read_to_end(&mut bytes)
+        })
+        .map_err(|e| Error::io(shown, e))?;
     String::from_utf8(bytes).map_err(|e| {
         let good = &e.as_bytes()[..e.utf8_error().valid_up_to()];
         let line = good.iter().filter(|b| **b == b'\n').count() as u64 + 1;
@@ -375,8 +382,28 @@ pub fn parse_support(s: &str) -> Result<Support> {
 }
 
 /// Read a job from TOML text; `file` names it in errors.
+/// Largest job file read (a job with the most loads allowed is well under
+/// 1 MB): a larger file is refused before it is parsed.
+pub const MAX_JOB_BYTES: usize = 4 << 20;
+
+/// Most spans, load cases, loads and combinations one job may hold.
+pub const MAX_SPANS: usize = 100;
+pub const MAX_CASES: usize = 200;
+pub const MAX_LOADS: usize = 10_000;
+pub const MAX_COMBINATIONS: usize = 2_000;
+
 pub fn from_toml(text: &str, file: &str) -> Result<Job> {
     let src = Source { file, text };
+    if text.len() > MAX_JOB_BYTES {
+        return Err(Error::input(
+            Location::in_file(file),
+            format!(
+                "the job file is {} bytes, more than the {} a job may have: is it the right file?",
+                units::count(text.len() as u64),
+                units::count(MAX_JOB_BYTES as u64)
+            ),
+        ));
+    }
     let raw: RawJob = toml::from_str(text).map_err(|e| {
         let loc = match e.span() {
             Some(sp) => src.loc(sp, ""),
@@ -385,6 +412,42 @@ pub fn from_toml(text: &str, file: &str) -> Result<Job> {
         let loc = Location { field: None, ..loc };
         Error::input(loc, e.message().to_string())
     })?;
+    for (what, n, most, span) in [
+        (
+            "spans",
+            raw.beam.spans.get_ref().len(),
+            MAX_SPANS,
+            raw.beam.spans.get_ref().get(MAX_SPANS).map(|s| s.span()),
+        ),
+        ("load cases", raw.case.len(), MAX_CASES, None),
+        (
+            "loads",
+            raw.load.len(),
+            MAX_LOADS,
+            raw.load.get(MAX_LOADS).map(|l| l.case.span()),
+        ),
+        (
+            "combinations",
+            raw.combination.len(),
+            MAX_COMBINATIONS,
+            None,
+        ),
+    ] {
+        if n > most {
+            let loc = match span {
+                Some(sp) => src.loc(sp, ""),
+                None => Location::in_file(file),
+            };
+            return Err(Error::input(
+                loc,
+                format!(
+                    "the job has {} {what}, more than the {} one job may have",
+                    units::count(n as u64),
+                    units::count(most as u64)
+                ),
+            ));
+        }
+    }
     let mut notes = Vec::new();
     // Beam.
     let mut spans = Vec::new();
