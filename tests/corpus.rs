@@ -1,7 +1,10 @@
-//! Bad-input corpus: every file under tests/corpus/ is fed to the real
-//! binary. Each run must end with the documented bad-input exit code (2),
-//! a message naming the file and a line/column or field, no panic, and no
-//! output file left behind.
+//! Bad-input corpus: every file under tests/corpus/{catalog,job,schedule}
+//! is fed to the real binary. Each run must end with the documented
+//! bad-input exit code (2), a message naming the file and a line/column or
+//! field, no panic, and no output file left behind. Then every case of
+//! tests/corpus/cases.txt (a command, its documented exit code and the text
+//! its message must hold, with the file's line and column where there is
+//! one) runs in a scratch folder.
 
 use std::path::{Path, PathBuf};
 use std::process::Command;
@@ -110,6 +113,116 @@ fn every_bad_input_is_refused_clearly() {
         );
     }
     assert!(n >= 50, "the corpus has {n} cases; at least 50 expected");
+    assert!(
+        failures.is_empty(),
+        "{} of {n} cases failed:\n{}",
+        failures.len(),
+        failures.join("\n")
+    );
+}
+
+fn copy_dir(from: &Path, to: &Path) {
+    std::fs::create_dir_all(to).unwrap();
+    for e in std::fs::read_dir(from).unwrap() {
+        let e = e.unwrap();
+        let p = e.path();
+        if p.is_dir() {
+            copy_dir(&p, &to.join(e.file_name()));
+        } else {
+            std::fs::copy(&p, to.join(e.file_name())).unwrap();
+        }
+    }
+}
+
+/// Snapshot of a folder's files (name, length, modified), to see that a
+/// refused command wrote nothing.
+fn listing(dir: &Path) -> Vec<(PathBuf, u64, std::time::SystemTime)> {
+    let mut v = Vec::new();
+    let mut stack = vec![dir.to_path_buf()];
+    while let Some(d) = stack.pop() {
+        for e in std::fs::read_dir(&d).unwrap() {
+            let e = e.unwrap();
+            let m = e.metadata().unwrap();
+            if m.is_dir() {
+                stack.push(e.path());
+            } else {
+                v.push((e.path(), m.len(), m.modified().unwrap()));
+            }
+        }
+    }
+    v.sort();
+    v
+}
+
+#[test]
+fn every_listed_case_ends_as_documented() {
+    let text = std::fs::read_to_string(root().join("tests/corpus/cases.txt")).unwrap();
+    let scratch = tempfile::tempdir().unwrap();
+    copy_dir(&root().join("catalogs"), &scratch.path().join("catalogs"));
+    copy_dir(
+        &root().join("tests/corpus/cases"),
+        &scratch.path().join("cases"),
+    );
+    let mut failures = Vec::new();
+    let mut n = 0;
+    for (k, line) in text.lines().enumerate() {
+        let line = line.trim();
+        if line.is_empty() || line.starts_with('#') {
+            continue;
+        }
+        n += 1;
+        let parts: Vec<&str> = line.splitn(3, " | ").collect();
+        assert_eq!(
+            parts.len(),
+            3,
+            "cases.txt:{}: expected 'exit | text | arguments'",
+            k + 1
+        );
+        let exit: i32 = parts[0].trim().parse().unwrap();
+        let want = parts[1].replace("\\n", "\n");
+        let (args, stdin) = match parts[2].split_once(" < ") {
+            Some((a, f)) => (a, Some(f.trim())),
+            None => (parts[2], None),
+        };
+        let args: Vec<&str> = args.split_whitespace().collect();
+        let before = listing(scratch.path());
+        let mut cmd = Command::new(env!("CARGO_BIN_EXE_beamsift"));
+        cmd.args(&args).current_dir(scratch.path());
+        cmd.stdin(match stdin {
+            Some(f) => {
+                std::process::Stdio::from(std::fs::File::open(scratch.path().join(f)).unwrap())
+            }
+            None => std::process::Stdio::null(),
+        });
+        let o = cmd.output().unwrap();
+        let all = format!(
+            "{}{}",
+            String::from_utf8_lossy(&o.stdout),
+            String::from_utf8_lossy(&o.stderr)
+        );
+        let mut why = Vec::new();
+        if o.status.code() != Some(exit) {
+            why.push(format!("exit {:?} (expected {exit})", o.status.code()));
+        }
+        if !all.contains(&want) {
+            why.push(format!("output does not hold '{want}'"));
+        }
+        if all.contains("panicked") || all.contains("internal error") {
+            why.push("panicked".into());
+        }
+        if exit != 0 && listing(scratch.path()) != before {
+            why.push("a refused command changed the folder".into());
+        }
+        if !why.is_empty() {
+            failures.push(format!(
+                "cases.txt:{}: {} — {}",
+                k + 1,
+                why.join("; "),
+                all.lines().take(4).collect::<Vec<_>>().join(" / ")
+            ));
+        }
+    }
+    assert!(n >= 60, "cases.txt has {n} cases; at least 60 expected");
     assert!(
         failures.is_empty(),
         "{} of {n} cases failed:\n{}",

@@ -186,7 +186,7 @@ fn check_sizes(v: &[f64], name: &str) -> Result<()> {
 
 #[derive(clap::Args, Debug)]
 pub struct FileArgs {
-    /// Catalogue CSV file.
+    /// Catalogue CSV file ('-' for standard input).
     pub file: PathBuf,
     /// Job file whose material and grades the rows refer to (for grades and
     /// masses from density).
@@ -220,17 +220,17 @@ fn materials(a: &FileArgs) -> Result<MaterialsFound> {
     }
 }
 
-fn open(a: &FileArgs) -> Result<read::Catalog<std::io::BufReader<std::fs::File>>> {
-    let shown = a.file.display().to_string();
-    let f = std::fs::File::open(&a.file).map_err(|e| Error::io(&shown, e))?;
+fn open(a: &FileArgs) -> Result<read::Catalog<Box<dyn std::io::Read + Send>>> {
+    // '-' is standard input; pipes and FIFOs are read once (see Input).
+    let input = super::catargs::Input::new(&a.file)?;
     let delim = if a.delimiter == "tab" {
         b'\t'
     } else {
         *a.delimiter.as_bytes().first().unwrap_or(&b',')
     };
     read::open(
-        std::io::BufReader::new(f),
-        &shown,
+        input.reader()?,
+        &input.shown,
         &ReadOptions { delimiter: delim },
     )
 }

@@ -72,7 +72,11 @@ impl Input {
     /// file (a pipe, a FIFO, /dev/stdin, a process substitution) is read
     /// once, here, so later readings see the same bytes.
     pub fn new(p: &std::path::Path) -> Result<Input> {
-        let shown = p.display().to_string();
+        let shown = if p.as_os_str() == "-" {
+            "standard input".to_string()
+        } else {
+            p.display().to_string()
+        };
         let read_all = |r: &mut dyn std::io::Read| -> Result<Input> {
             let mut buf = Vec::new();
             r.read_to_end(&mut buf).map_err(|e| Error::io(&shown, e))?;
