@@ -200,8 +200,8 @@ impl Dim {
 /// character of the key, so the case of SI prefixes is checked after the
 /// lookup (`check_prefix_case`).
 fn canonical_with_source(unit: &str) -> (String, Vec<char>) {
-    let mut out = String::with_capacity(unit.len());
-    let mut src: Vec<char> = Vec::with_capacity(unit.len());
+    // (canonical character, the character typed), kept in step.
+    let mut pairs: Vec<(char, char)> = Vec::with_capacity(unit.len());
     for ch in unit.chars() {
         let mapped = match ch {
             '²' => '2',
@@ -214,22 +214,27 @@ fn canonical_with_source(unit: &str) -> (String, Vec<char>) {
             '″' | '”' => '"',
             c => c.to_ascii_lowercase(),
         };
-        if mapped == '.' && (out.is_empty() || out.ends_with('.') || out.ends_with('/')) {
+        if mapped == '.' && pairs.last().is_none_or(|p| p.0 == '.' || p.0 == '/') {
             continue;
         }
-        out.push(mapped);
-        src.push(ch);
+        pairs.push((mapped, ch));
     }
-    while out.ends_with('.') {
-        out.pop();
-        src.pop();
+    while pairs.last().is_some_and(|p| p.0 == '.') {
+        pairs.pop();
     }
     // "kN/m.2" cannot arise; but "kn./m" can from "kN /m".
-    while let Some(i) = out.find("./") {
-        out.remove(i);
-        src.remove(i);
+    let mut k = 0;
+    while k + 1 < pairs.len() {
+        if pairs[k].0 == '.' && pairs[k + 1].0 == '/' {
+            pairs.remove(k);
+        } else {
+            k += 1;
+        }
     }
-    (out, src)
+    (
+        pairs.iter().map(|p| p.0).collect(),
+        pairs.iter().map(|p| p.1).collect(),
+    )
 }
 
 /// SI prefixes are case-sensitive: M (mega) and m (milli, or the metre)

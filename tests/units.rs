@@ -121,6 +121,10 @@ fn rejections_name_what_is_accepted() {
         // Found by tests/robust.rs (regressions): non-finite feet.
         ("inf'", Dim::Length),
         ("1.6401843562914612e308'", Dim::Length),
+        // Found by cargo-fuzz (units target): a multi-byte character before
+        // " /" once split the unit text inside a character.
+        ("1\u{a032}\0 ( /", Dim::Length),
+        ("1\u{a032} /m", Dim::LineLoad),
     ] {
         let e = parse(text, dim).expect_err(text).to_string();
         assert!(

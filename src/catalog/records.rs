@@ -476,22 +476,25 @@ impl<R: std::io::Read> Blocks<R> {
                     return Err(e);
                 }
             }
-            if !self.started && self.carry.len() >= 3 {
-                self.started = true;
-                if self.carry.starts_with(b"\xEF\xBB\xBF") {
-                    self.carry.drain(..3);
-                    self.offset += 3;
-                }
+            if self.carry.len() >= 3 {
+                self.drop_bom();
             }
         }
-        if !self.started && self.eof {
+        if self.eof {
+            self.drop_bom();
+        }
+        Ok(())
+    }
+
+    /// Drop a byte-order mark at the very start of the input (once).
+    fn drop_bom(&mut self) {
+        if !self.started {
             self.started = true;
             if self.carry.starts_with(b"\xEF\xBB\xBF") {
                 self.carry.drain(..3);
                 self.offset += 3;
             }
         }
-        Ok(())
     }
 
     /// The first `count` records that are not comments or blank lines

@@ -788,7 +788,11 @@ pub fn scan_excluding<R: Read + Send>(
                 progress(counts.rows, done_bytes + pos);
                 let _ = back_tx.send(block);
             }
-            Ok(reader.join().unwrap_or(0))
+            // A panic in the reader is an internal error, never the end of
+            // the file.
+            reader.join().map_err(|_| {
+                Error::Internal("the catalogue reader thread stopped unexpectedly".into())
+            })
         })?;
         done_bytes += read_bytes;
         if counts.rows == rows_before {
