@@ -189,7 +189,9 @@ fn catalogue(target: usize) -> PathBuf {
 
 fn open(path: &PathBuf) -> read::Catalog<std::io::BufReader<std::fs::File>> {
     let f = std::io::BufReader::with_capacity(1 << 16, std::fs::File::open(path).unwrap());
-    read::open(f, "bench.csv", &ReadOptions::default()).unwrap()
+    let mut cat = read::open(f, "bench.csv", &ReadOptions::default()).unwrap();
+    cat.size_hint = Some(std::fs::metadata(path).unwrap().len());
+    cat
 }
 
 fn bare_read(path: &PathBuf) -> u64 {

@@ -27,6 +27,8 @@ pub struct Catalog<R: Read> {
     /// Line of the header row.
     pub header_line: u64,
     pub delimiter: u8,
+    /// The input's length in bytes, when known (sizes the duplicate filter).
+    pub size_hint: Option<u64>,
     blocks: Blocks<R>,
 }
 
@@ -104,6 +106,7 @@ pub fn open<R: Read>(input: R, file: &str, opts: &ReadOptions) -> Result<Catalog
         schema,
         header_line: line,
         delimiter: opts.delimiter,
+        size_hint: None,
         blocks,
     })
 }

@@ -199,7 +199,9 @@ impl CatalogArgs {
         let mut bytes = 0;
         for i in self.inputs()? {
             bytes += i.len;
-            out.push(read::open(i.reader()?, &i.shown, &opts)?);
+            let mut cat = read::open(i.reader()?, &i.shown, &opts)?;
+            cat.size_hint = Some(i.len);
+            out.push(cat);
         }
         Ok((out, bytes))
     }

@@ -1,5 +1,5 @@
 //! The one progress-bar factory: a bar on stderr for long scans, hidden
-//! when stderr is not a terminal or with --quiet. Updated per chunk.
+//! when stderr is not a terminal or with --quiet. Updated per block of the file.
 
 use indicatif::{ProgressBar, ProgressDrawTarget, ProgressStyle};
 use std::io::IsTerminal;

@@ -429,26 +429,33 @@ impl TopList {
     }
 }
 
-/// A fixed-size Bloom filter over section names: 2^28 bits (32 MiB,
-/// allocated whole, so memory does not grow with the catalogue) in 64-bit
-/// words, 8 probes inside one word chosen by the name's hash. One word per
-/// name means one memory access and an atomic `fetch_or`, so the worker
-/// threads insert in parallel, and of two equal names the later insert
-/// always sees the earlier's bits (no duplicate is missed). A hit only
-/// makes a name a suspect; suspects are confirmed exactly by a second
-/// reading of the file (`confirm_duplicates`), which therefore happens only
-/// when a name repeats or the filter errs. With n names the filter errs on
-/// about (1 − e^(−8n/2²⁸))^8 of them: 5·10⁻¹³ per row at 1 M rows (none
-/// expected below about 3 M rows), 2·10⁻⁵ at 10 M (about 200 suspects, one
-/// extra reading of names only). Beyond `SUSPECT_CAP` suspects (a file in
-/// which more than 100,000 names repeat) the confirmation checks every name
-/// and memory then grows with the catalogue.
+/// A Bloom filter over section names in 64-bit words, 8 probes inside one
+/// word chosen by the name's hash, sized from the input's length: one word
+/// per 8 bytes of catalogue (at least 32 KiB, at most 2^22 words = 32 MiB,
+/// reached at 32 MB of catalogue, about 600,000 rows; unknown lengths take
+/// the most). One word per name means one memory access and an atomic
+/// `fetch_or`, so the worker threads insert in parallel, and of two equal
+/// names the later insert always sees the earlier's bits (no duplicate is
+/// missed). A hit only makes a name a suspect; suspects are confirmed
+/// exactly by a second reading of the file (`confirm_duplicates`), which
+/// therefore happens only when a name repeats or the filter errs. Rows of
+/// ~54 bytes give about 0.15 names per word below the cap, a false flag per
+/// row of about (1 − e^(−8·0.15/64))^8 ≈ 10⁻¹⁴; at the cap with n names,
+/// (1 − e^(−8n/2²⁸))^8: 5·10⁻¹³ at 1 M rows (none expected below about 3 M
+/// rows), 2·10⁻⁵ at 10 M (about 200 suspects, one extra reading of names
+/// only). Beyond `SUSPECT_CAP` suspects (a file in which more than 100,000
+/// names repeat) the confirmation checks every name and memory then grows
+/// with the catalogue.
 struct Bloom {
     words: Vec<std::sync::atomic::AtomicU64>,
+    /// Words − 1 (a power of two less one).
+    mask: u64,
+    /// log2 of the words: the hash bits above it give the probes.
+    shift: u32,
 }
 
-const BLOOM_WORDS: u64 = (1 << 28) / 64;
-const BLOOM_SHIFT: u32 = 22;
+const BLOOM_MAX_WORDS_LOG2: u32 = 22;
+const BLOOM_MIN_WORDS_LOG2: u32 = 12;
 
 /// A fast 64-bit hash of a name, eight bytes at a time (multiply–xorshift
 /// rounds, splitmix64 finish). Not for adversarial input: a collision only
@@ -486,8 +493,8 @@ impl Bloom {
         for o in outs.iter() {
             if let Outcome::Checked { name, .. } = o {
                 let h = name_hash(name);
-                touch ^= self.words[(h % BLOOM_WORDS) as usize]
-                    .load(std::sync::atomic::Ordering::Relaxed);
+                touch ^=
+                    self.words[(h & self.mask) as usize].load(std::sync::atomic::Ordering::Relaxed);
             }
         }
         std::hint::black_box(touch);
@@ -498,19 +505,31 @@ impl Bloom {
         }
     }
 
-    fn new() -> Self {
-        let mut words = Vec::with_capacity(BLOOM_WORDS as usize);
-        words.resize_with(BLOOM_WORDS as usize, || {
-            std::sync::atomic::AtomicU64::new(0)
-        });
-        Bloom { words }
+    /// A filter for an input of `bytes` (None: unknown, the largest).
+    fn for_input(bytes: Option<u64>) -> Self {
+        let shift = match bytes {
+            None => BLOOM_MAX_WORDS_LOG2,
+            Some(b) => (b / 8)
+                .max(1)
+                .next_power_of_two()
+                .trailing_zeros()
+                .clamp(BLOOM_MIN_WORDS_LOG2, BLOOM_MAX_WORDS_LOG2),
+        };
+        let n = 1usize << shift;
+        let mut words = Vec::with_capacity(n);
+        words.resize_with(n, || std::sync::atomic::AtomicU64::new(0));
+        Bloom {
+            words,
+            mask: n as u64 - 1,
+            shift,
+        }
     }
     /// Insert; true if the name may have been seen before.
     fn insert(&self, name: &str) -> bool {
         let h = name_hash(name);
-        // The low 22 bits choose the word; the other 42 give the probes.
-        let word = &self.words[(h % BLOOM_WORDS) as usize];
-        let mut g = (h >> BLOOM_SHIFT).wrapping_mul(0xff51_afd7_ed55_8ccd) ^ h;
+        // The low bits choose the word; the others give the probes.
+        let word = &self.words[(h & self.mask) as usize];
+        let mut g = (h >> self.shift).wrapping_mul(0xff51_afd7_ed55_8ccd) ^ h;
         let mut mask = 0u64;
         for _ in 0..8 {
             mask |= 1u64 << (g & 63);
@@ -597,7 +616,7 @@ pub fn scan_excluding<R: Read + Send>(
     let mut check_all_names = Vec::new();
     for (fi, cat) in catalogs.into_iter().enumerate() {
         files.push(cat.file.clone());
-        let bloom = Bloom::new();
+        let bloom = Bloom::for_input(cat.size_hint);
         let schema = cat.schema.clone();
         let file = cat.file.clone();
         let rows_before = counts.rows;
