@@ -158,6 +158,22 @@ pub struct Validation {
     pub rows: u64,
     pub good: u64,
     pub errors: Vec<Error>,
+    /// Problems found beyond the first [`MAX_LISTED`].
+    pub unlisted: u64,
+}
+
+/// Most problems one validation lists (the rest are counted).
+pub const MAX_LISTED: usize = 10_000;
+
+impl Validation {
+    /// List a problem, or count it beyond [`MAX_LISTED`].
+    fn push(&mut self, e: Error) {
+        if self.errors.len() < MAX_LISTED {
+            self.errors.push(e);
+        } else {
+            self.unlisted += 1;
+        }
+    }
 }
 
 /// Validate every row; report all problems (bad rows, duplicate names).
@@ -175,6 +191,7 @@ pub fn validate<R: Read>(
         rows: 0,
         good: 0,
         errors: Vec::new(),
+        unlisted: 0,
     };
     // Without a job, grades cannot be resolved: read the grade column as a
     // note.
@@ -211,7 +228,7 @@ pub fn validate<R: Read>(
             match parse_row(&schema, &rec, &mats) {
                 Ok(row) => {
                     if let Some(first) = seen.insert(row.name.to_string(), line) {
-                        v.errors.push(Error::input(
+                        v.push(Error::input(
                             Location::in_file(&cat.file)
                                 .with_line(line)
                                 .with_column(name_col as u64 + 1),
@@ -224,7 +241,7 @@ pub fn validate<R: Read>(
                         v.good += 1;
                     }
                 }
-                Err(e) => v.errors.push(Error::input(
+                Err(e) => v.push(Error::input(
                     Location::in_file(&cat.file)
                         .with_line(line)
                         .with_column(e.column as u64),

@@ -241,6 +241,8 @@ struct ValidateResult {
     rows: u64,
     good: u64,
     problems: Vec<String>,
+    /// Problems beyond those listed.
+    unlisted: u64,
 }
 
 pub fn run(cmd: Cmd, out: &Out) -> Result<i32> {
@@ -256,12 +258,19 @@ pub fn run(cmd: Cmd, out: &Out) -> Result<i32> {
                 rows: v.rows,
                 good: v.good,
                 problems: problems.clone(),
+                unlisted: v.unlisted,
             };
             let mut doc = Document::new(format!("Catalogue {file}"));
             if problems.is_empty() {
                 doc.para(format!("{} row(s), all valid.", v.rows));
             } else {
-                doc.list(format!("{} problem(s):", problems.len()), problems.clone());
+                let total = problems.len() as u64 + v.unlisted;
+                let head = if v.unlisted > 0 {
+                    format!("{total} problem(s), the first {} listed:", problems.len())
+                } else {
+                    format!("{total} problem(s):")
+                };
+                doc.list(head, problems.clone());
                 doc.para(format!(
                     "{} row(s) read, {} valid, {} with problems.",
                     v.rows,

@@ -863,12 +863,14 @@ pub fn scan_excluding<R: Read + Send>(
     })
 }
 
-/// Second reading of one catalogue: the lines of every occurrence of the
-/// suspect names after the first (true duplicates), exactly.
+/// Second reading of one catalogue: `found(name, line, first line)` for
+/// every occurrence of a suspect name after its first (true duplicates),
+/// exactly, in file order.
 pub fn confirm_duplicates<R: Read>(
     mut cat: Catalog<R>,
     names: Option<&HashSet<String>>,
-) -> Result<Vec<(String, u64, u64)>> {
+    mut found: impl FnMut(&str, u64, u64),
+) -> Result<()> {
     let name_col = cat
         .schema
         .cols
@@ -876,7 +878,6 @@ pub fn confirm_duplicates<R: Read>(
         .position(|c| *c == crate::catalog::Col::Name)
         .unwrap_or(0);
     let mut first: std::collections::HashMap<String, u64> = std::collections::HashMap::new();
-    let mut dups = Vec::new();
     let mut chunk = Chunk::default();
     loop {
         let n = cat.next_chunk(&mut chunk)?;
@@ -890,7 +891,7 @@ pub fn confirm_duplicates<R: Read>(
             if names.is_none_or(|n| n.contains(name)) {
                 let line = rec.line();
                 match first.get(name) {
-                    Some(&f) => dups.push((name.to_string(), line, f)),
+                    Some(&f) => found(name, line, f),
                     None => {
                         first.insert(name.to_string(), line);
                     }
@@ -898,7 +899,7 @@ pub fn confirm_duplicates<R: Read>(
             }
         }
     }
-    Ok(dups)
+    Ok(())
 }
 
 /// Scan with exact duplicate detection: `open` (re)opens the catalogues;
@@ -917,6 +918,7 @@ pub fn scan_checked<R: Read + Send>(
         return Ok(sel);
     }
     let mut exclude = HashSet::new();
+    let mut dup_total = 0usize;
     let mut errors = Vec::new();
     for (fi, cat) in open()?.into_iter().enumerate() {
         let names: HashSet<String> = sel
@@ -936,15 +938,21 @@ pub fn scan_checked<R: Read + Send>(
             .iter()
             .position(|c| *c == crate::catalog::Col::Name)
             .unwrap_or(0);
-        for (name, line, firstl) in confirm_duplicates(cat, (!all).then_some(&names))? {
-            exclude.insert((fi, line));
-            errors.push(Error::input(
-                Location::in_file(&file)
-                    .with_line(line)
-                    .with_column(name_col as u64 + 1),
-                format!("duplicate section name '{name}' (first on line {firstl})"),
-            ));
-        }
+        let skip = opts.skip_bad_rows;
+        confirm_duplicates(cat, (!all).then_some(&names), |name, line, firstl| {
+            if skip {
+                exclude.insert((fi, line));
+            }
+            dup_total += 1;
+            if errors.len() < 1000 {
+                errors.push(Error::input(
+                    Location::in_file(&file)
+                        .with_line(line)
+                        .with_column(name_col as u64 + 1),
+                    format!("duplicate section name '{name}' (first on line {firstl})"),
+                ));
+            }
+        })?;
     }
     if errors.is_empty() {
         sel.suspects.clear();
@@ -952,7 +960,10 @@ pub fn scan_checked<R: Read + Send>(
         return Ok(sel);
     }
     if !opts.skip_bad_rows {
-        let n = errors.len();
+        let n = dup_total;
+        if n > errors.len() {
+            errors.push(Error::msg(format!("... and {} more", n - errors.len())));
+        }
         errors.push(Error::msg(format!(
             "{n} duplicate name(s): the catalogue is refused (fix them, or use --skip-bad-rows to keep only the first of each)"
         )));
