@@ -232,19 +232,26 @@ impl Source<'_> {
     /// `[materials."T 1"]`), for problems of a key the table lacks.
     fn table_loc(&self, table: &str, field: &str) -> Location {
         let (head, name) = table.split_once('.').unwrap_or((table, ""));
+        let unquote = |t: &str| -> String {
+            let t = t.trim();
+            t.strip_prefix('"')
+                .and_then(|r| r.strip_suffix('"'))
+                .or_else(|| t.strip_prefix('\'').and_then(|r| r.strip_suffix('\'')))
+                .unwrap_or(t)
+                .to_string()
+        };
         let line = self.text.lines().position(|l| {
-            let l = l.trim();
-            let Some(inner) = l.strip_prefix('[').and_then(|r| r.split(']').next()) else {
+            let Some(inner) = l
+                .trim()
+                .strip_prefix('[')
+                .and_then(|r| r.split(']').next())
+                .filter(|_| !l.trim().starts_with("[["))
+            else {
                 return false;
             };
-            let inner: String = inner.chars().filter(|c| !c.is_whitespace()).collect();
             match inner.split_once('.') {
-                None => name.is_empty() && inner == head,
-                Some((h, n)) => {
-                    h == head
-                        && !name.is_empty()
-                        && n.trim_matches(|c| c == '"' || c == '\'') == name.replace(' ', "")
-                }
+                None => name.is_empty() && inner.trim() == head,
+                Some((h, n)) => h.trim() == head && !name.is_empty() && unquote(n) == name,
             }
         });
         let loc = Location::in_file(self.file).with_field(field);
@@ -277,6 +284,15 @@ pub fn read_text(path: &std::path::Path, shown: &str) -> Result<String> {
             f.take(MAX_JOB_BYTES as u64 + 1).read_to_end(&mut bytes)
         })
         .map_err(|e| Error::io(shown, e))?;
+    if bytes.len() > MAX_JOB_BYTES {
+        return Err(Error::input(
+            Location::in_file(shown),
+            format!(
+                "the job file is more than {} bytes, the most a job may have: is it the right file?",
+                units::count(MAX_JOB_BYTES as u64)
+            ),
+        ));
+    }
     String::from_utf8(bytes).map_err(|e| {
         let good = &e.as_bytes()[..e.utf8_error().valid_up_to()];
         let line = good.iter().filter(|b| **b == b'\n').count() as u64 + 1;
@@ -717,11 +733,12 @@ pub fn from_toml(text: &str, file: &str) -> Result<Job> {
                 tributary,
             },
             // A load off the beam is reported where its position is given.
-            l.at.as_ref()
-                .or(l.from.as_ref())
-                .or(l.to.as_ref())
-                .map(|v| (v.span(), if l.at.is_some() { "at" } else { "from" }))
-                .unwrap_or((span0, "case")),
+            [
+                ("case", Some(span0)),
+                ("at", l.at.as_ref().map(|v| v.span())),
+                ("from", l.from.as_ref().map(|v| v.span())),
+                ("to", l.to.as_ref().map(|v| v.span())),
+            ],
         ));
     }
     for (l, _) in &loads {
@@ -963,13 +980,32 @@ pub fn from_toml(text: &str, file: &str) -> Result<Job> {
     if let Err(e) = beam.validate() {
         if let Error::Input { location, .. } = &e
             && let Some(field) = &location.field
-            && let Some((l, (span, key))) = loads.iter().find(|(l, _)| field.starts_with(&l.label))
+            && let Some((l, keys)) = loads.iter().find(|(l, _)| {
+                field == &l.label
+                    || field
+                        .strip_prefix(l.label.as_str())
+                        .is_some_and(|r| r.starts_with('.'))
+            })
         {
             let Error::Input { message, .. } = e else {
                 return Err(e);
             };
+            // The key whose value is off the beam: `at`, or the end of a
+            // distributed load that lies outside (`from` before 0, else
+            // `to`); the case line when the position was defaulted.
+            let want = match l.kind {
+                LoadKind::Distributed { x1, .. } if x1 < 0.0 => "from",
+                LoadKind::Distributed { .. } => "to",
+                _ => "at",
+            };
+            let (key, span) = keys
+                .iter()
+                .find(|(k, sp)| *k == want && sp.is_some())
+                .or_else(|| keys.first())
+                .map(|(k, sp)| (*k, sp.clone().unwrap_or_default()))
+                .unwrap_or(("case", 0..0));
             return Err(Error::input(
-                src.loc(span.clone(), &format!("{}.{key}", l.label)),
+                src.loc(span, &format!("{}.{key}", l.label)),
                 message,
             ));
         }

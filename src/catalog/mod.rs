@@ -201,6 +201,11 @@ fn cost_unit(unit: &str) -> Result<(Option<String>, f64)> {
 }
 
 impl Schema {
+    /// The index of the name column (0 when there is none).
+    pub fn name_column(&self) -> usize {
+        self.cols.iter().position(|c| *c == Col::Name).unwrap_or(0)
+    }
+
     /// Parse the header row; every problem is reported at once.
     pub fn parse(headers: &[String], loc: &Location) -> Result<Schema> {
         let mut cols = Vec::new();

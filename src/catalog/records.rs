@@ -506,16 +506,19 @@ impl<R: std::io::Read> Blocks<R> {
             let (end, _) = boundaries(&self.carry, self.eof, self.delim, self.line, |_, _| {});
             out.clear();
             let (used, line) = parse(&self.carry[..end], self.delim, self.line, out, Some(count));
+            // What was used is whole records (comments and blank lines
+            // when fewer than `count` were found): drop it, so only the
+            // record still being read counts against the limit.
+            self.carry.drain(..used);
+            self.offset += used as u64;
+            self.line = line;
             if out.len() >= count || self.eof {
-                self.carry.drain(..used);
-                self.offset += used as u64;
-                self.line = line;
                 return Ok(());
             }
             if self.carry.len() > MAX_RECORD {
                 return Err(ReadError::TooLong { line: self.line });
             }
-            want = self.carry.len() * 2;
+            want = (self.carry.len() * 2).clamp(self.segment, MAX_RECORD + 1);
         }
     }
 
@@ -552,7 +555,9 @@ impl<R: std::io::Read> Blocks<R> {
                 if self.carry.len() > MAX_RECORD {
                     return Err(ReadError::TooLong { line: self.line });
                 }
-                want = self.carry.len() * 2;
+                // Grow to one byte past the limit at most, so every record
+                // longer than the limit is refused wherever it lies.
+                want = (self.carry.len() * 2).min(MAX_RECORD + 1);
                 continue;
             }
             if end > seg_start {
@@ -562,6 +567,15 @@ impl<R: std::io::Read> Blocks<R> {
                     line: seg_line,
                 });
             }
+            // A read may bring more than a block: hand out one block's
+            // segments and keep the rest for the next call.
+            let (end, line) = if block.segments.len() > SEGMENTS_PER_BLOCK {
+                let next = block.segments[SEGMENTS_PER_BLOCK];
+                block.segments.truncate(SEGMENTS_PER_BLOCK);
+                (next.start, next.line)
+            } else {
+                (end, line)
+            };
             // Hand out carry[..end] without copying it: swap buffers and
             // carry the incomplete tail over.
             block.data.clear();

@@ -166,15 +166,19 @@ fn load(job: &beamsift::job::Job, cat: &CatalogArgs) -> Result<(Vec<Candidate>, 
         grades: &job.grades,
     };
     let (rows, c, _) = search::load_rows(cats, &mats, cat.skip_bad_rows, &cat.filters_for(job)?)?;
+    Ok((rows, rows_read_line(&c, cat.skip_bad_rows)))
+}
+
+fn rows_read_line(c: &search::Counts, skip_bad_rows: bool) -> String {
     let mut line = format!("{} section(s) read", c.rows);
     if c.filtered > 0 {
         line.push_str(&format!(", {} left out by the filters", c.filtered));
     }
-    if c.bad > 0 || cat.skip_bad_rows {
+    if c.bad > 0 || skip_bad_rows {
         line.push_str(&format!(", {} bad row(s) skipped", c.bad));
     }
     line.push('.');
-    Ok((rows, line))
+    line
 }
 
 pub fn run(cmd: Cmd, out: &Out) -> Result<i32> {
@@ -202,23 +206,29 @@ fn run_lightest(a: LightestArgs, out: &Out) -> Result<i32> {
         ))
         .in_field("--spans"));
     }
-    let (rows, rows_line) = load(&job, &a.cat)?;
     let mats = Materials {
         base: &job.material,
         grades: &job.grades,
     };
     let sys = out.units;
-    let pb = super::progress::count_bar(spans.len() as u64, a.cat.quiet, "spans");
-    let found = sweep::lightest(
-        &job.beam,
-        &job.material,
-        &job.criteria,
-        &rows,
-        &mats,
-        &spans,
-        &|| pb.inc(1),
-    )?;
-    pb.finish_and_clear();
+    // One reading of the catalogues for every span.
+    a.cat.setup_threads()?;
+    let preps = spans
+        .iter()
+        .map(|&s| {
+            Prepared::new(
+                &sweep::at_span(&job.beam, s),
+                job.material.clone(),
+                job.criteria.clone(),
+            )
+        })
+        .collect::<Result<Vec<_>>>()?;
+    let filters = a.cat.filters_for(&job)?;
+    let open = || a.cat.open().map(|c| c.0);
+    let (found, c) =
+        search::spans::lightest_by_span(&preps, &open, &mats, &filters, a.cat.skip_bad_rows)?;
+    let rows_line = rows_read_line(&c, a.cat.skip_bad_rows);
+    let chosen: Vec<Candidate> = found.iter().filter_map(|f| f.best.clone()).collect();
     let optima: Vec<Option<(f64, String)>> = match a.optimise {
         Some(fam) => {
             use rayon::prelude::*;
@@ -272,10 +282,11 @@ fn run_lightest(a: LightestArgs, out: &Out) -> Result<i32> {
     let out_rows: Vec<LightestOut> = found
         .iter()
         .zip(optima)
-        .map(|(f, o)| LightestOut {
-            span: f.span,
-            section: f.row.map(|j| rows[j].name.clone()),
-            mass: f.row.map(|j| rows[j].mass),
+        .zip(&spans)
+        .map(|((f, o), &span)| LightestOut {
+            span,
+            section: f.best.as_ref().map(|b| b.name.clone()),
+            mass: f.best.as_ref().map(|b| b.mass),
             utilisation: f.utilisation,
             governing: f.governing,
             lighter_not_verified: f.lighter_not_verified,
@@ -373,7 +384,7 @@ fn run_lightest(a: LightestArgs, out: &Out) -> Result<i32> {
             r.not_verified_reasons.clone(),
         );
     }
-    finish(&mut doc, &job, &rows, &mats)?;
+    finish(&mut doc, &job, &chosen, &mats)?;
     emit(out, &report::render(out.format, &result, &doc))?;
     Ok(0)
 }

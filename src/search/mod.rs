@@ -10,6 +10,7 @@
 
 pub mod batch;
 pub mod rationalise;
+pub mod spans;
 
 use crate::catalog::read::{Catalog, Chunk};
 use crate::catalog::records::{Block, Records};
@@ -619,6 +620,7 @@ pub fn scan_excluding<R: Read + Send>(
         let bloom = Bloom::for_input(cat.size_hint);
         let schema = cat.schema.clone();
         let file = cat.file.clone();
+        let header_line = cat.header_line;
         let rows_before = counts.rows;
         let mut suspects_in_file = 0usize;
         let delim = cat.delimiter;
@@ -652,50 +654,33 @@ pub fn scan_excluding<R: Read + Send>(
                 let block = msg?;
                 let pos = block.end_offset;
                 let schema = &schema;
-                let nseg = block.segments.len();
-                if pool.len() < nseg {
-                    pool.resize_with(nseg, Records::default);
-                }
-                let parsed: Vec<(&Records, Vec<Outcome<'_>>)> = pool[..nseg]
+                let mut parsed = map_block(&block, delim, &mut pool, |rec| {
+                    if !exclude.is_empty() && exclude.contains(&(fi, rec.line())) {
+                        return Outcome::Excluded;
+                    }
+                    match parse_row(schema, &rec, mats) {
+                        Err(e) => Outcome::Bad(rec.line(), e.column, e.message),
+                        Ok(row) => {
+                            if !opts.filters.admits(&row) {
+                                return Outcome::Filtered;
+                            }
+                            let mat = mats.get(&row.material);
+                            let s = prep
+                                .check(SectionInput::new(&row.props, row.mass).with_material(mat));
+                            Outcome::Checked {
+                                name: row.name,
+                                suspect: false,
+                                mass: row.mass,
+                                depth: row.props.depth,
+                                cost: row.cost,
+                                summary: s,
+                            }
+                        }
+                    }
+                });
+                parsed
                     .par_iter_mut()
-                    .enumerate()
-                    .map(|(k, recs)| {
-                        block.parse_segment(k, delim, recs);
-                        let recs: &Records = recs;
-                        let outs = recs
-                            .iter()
-                            .map(|rec| {
-                                if !exclude.is_empty() && exclude.contains(&(fi, rec.line())) {
-                                    return Outcome::Excluded;
-                                }
-                                match parse_row(schema, &rec, mats) {
-                                    Err(e) => Outcome::Bad(rec.line(), e.column, e.message),
-                                    Ok(row) => {
-                                        if !opts.filters.admits(&row) {
-                                            return Outcome::Filtered;
-                                        }
-                                        let mat = mats.get(&row.material);
-                                        let s = prep.check(
-                                            SectionInput::new(&row.props, row.mass)
-                                                .with_material(mat),
-                                        );
-                                        Outcome::Checked {
-                                            name: row.name,
-                                            suspect: false,
-                                            mass: row.mass,
-                                            depth: row.props.depth,
-                                            cost: row.cost,
-                                            summary: s,
-                                        }
-                                    }
-                                }
-                            })
-                            .collect::<Vec<_>>();
-                        let mut outs = outs;
-                        bloom.insert_all(&mut outs);
-                        (recs, outs)
-                    })
-                    .collect();
+                    .for_each(|(_, outs)| bloom.insert_all(outs));
                 for (rec, out) in parsed
                     .into_iter()
                     .flat_map(|(recs, outs)| recs.iter().zip(outs))
@@ -816,7 +801,7 @@ pub fn scan_excluding<R: Read + Send>(
         done_bytes += read_bytes;
         if counts.rows == rows_before {
             return Err(Error::input(
-                Location::in_file(&file).with_line(2),
+                Location::in_file(&file).with_line(header_line + 1),
                 "the catalogue has a header but no rows: expected one section per row after the header",
             ));
         }
@@ -863,20 +848,101 @@ pub fn scan_excluding<R: Read + Send>(
     })
 }
 
+/// Names confirmed to repeat: their errors (at most 1000 listed), their
+/// (file, line)s when asked for, and how many there are.
+pub(crate) struct Repeats {
+    pub errors: Vec<Error>,
+    pub lines: HashSet<(usize, u64)>,
+    pub total: usize,
+}
+
+/// Read each catalogue's flagged names again (`flagged(file)`: the names,
+/// and whether every name must be compared) and confirm the repeats among
+/// the rows `keep` accepts.
+pub(crate) fn find_repeats<R: Read>(
+    catalogs: Vec<Catalog<R>>,
+    flagged: impl Fn(usize) -> (HashSet<String>, bool),
+    keep: impl Fn(&crate::catalog::Schema, &crate::catalog::records::Record<'_>) -> bool + Copy,
+    want_lines: bool,
+) -> Result<Repeats> {
+    let mut rep = Repeats {
+        errors: Vec::new(),
+        lines: HashSet::new(),
+        total: 0,
+    };
+    for (fi, cat) in catalogs.into_iter().enumerate() {
+        let (names, all) = flagged(fi);
+        if names.is_empty() && !all {
+            continue;
+        }
+        let file = cat.file.clone();
+        let name_col = cat.schema.name_column();
+        confirm_duplicates(cat, (!all).then_some(&names), keep, |name, line, first| {
+            if want_lines {
+                rep.lines.insert((fi, line));
+            }
+            rep.total += 1;
+            if rep.errors.len() < 1000 {
+                rep.errors.push(Error::input(
+                    Location::in_file(&file)
+                        .with_line(line)
+                        .with_column(name_col as u64 + 1),
+                    format!("duplicate section name '{name}' (first on line {first})"),
+                ));
+            }
+        })?;
+    }
+    Ok(rep)
+}
+
+/// The refusal of a catalogue whose names repeat.
+pub(crate) fn refuse_repeats(mut errors: Vec<Error>, total: usize) -> Error {
+    if total > errors.len() {
+        errors.push(Error::msg(format!("... and {} more", total - errors.len())));
+    }
+    errors.push(Error::msg(format!(
+        "{total} duplicate name(s): the catalogue is refused (fix them, or use --skip-bad-rows to keep only the first of each)"
+    )));
+    Error::Many(errors)
+}
+
+/// Parse a block's segments and map each record, in parallel: one
+/// (records, results) pair per segment, in file order.
+pub(crate) fn map_block<'p, T, F>(
+    block: &Block,
+    delim: u8,
+    pool: &'p mut Vec<Records>,
+    f: F,
+) -> Vec<(&'p Records, Vec<T>)>
+where
+    T: Send + 'p,
+    F: Fn(crate::catalog::records::Record<'p>) -> T + Sync,
+{
+    let nseg = block.segments.len();
+    if pool.len() < nseg {
+        pool.resize_with(nseg, Records::default);
+    }
+    pool[..nseg]
+        .par_iter_mut()
+        .enumerate()
+        .map(|(k, recs)| {
+            block.parse_segment(k, delim, recs);
+            let recs: &'p Records = recs;
+            (recs, recs.iter().map(&f).collect())
+        })
+        .collect()
+}
+
 /// Second reading of one catalogue: `found(name, line, first line)` for
 /// every occurrence of a suspect name after its first (true duplicates),
-/// exactly, in file order.
+/// exactly, in file order, among the rows `keep` accepts.
 pub fn confirm_duplicates<R: Read>(
     mut cat: Catalog<R>,
     names: Option<&HashSet<String>>,
+    keep: impl Fn(&crate::catalog::Schema, &crate::catalog::records::Record<'_>) -> bool,
     mut found: impl FnMut(&str, u64, u64),
 ) -> Result<()> {
-    let name_col = cat
-        .schema
-        .cols
-        .iter()
-        .position(|c| *c == crate::catalog::Col::Name)
-        .unwrap_or(0);
+    let name_col = cat.schema.name_column();
     let mut first: std::collections::HashMap<String, u64> = std::collections::HashMap::new();
     let mut chunk = Chunk::default();
     loop {
@@ -888,7 +954,10 @@ pub fn confirm_duplicates<R: Read>(
             let name = std::str::from_utf8(rec.get(name_col).unwrap_or(b""))
                 .unwrap_or("")
                 .trim();
-            if names.is_none_or(|n| n.contains(name)) {
+            // Only rows the scan entered in the filter (valid, and for a
+            // scan admitted by the filters) count: a bad row never makes a
+            // good one a repeat.
+            if names.is_none_or(|n| n.contains(name)) && keep(&cat.schema, &rec) {
                 let line = rec.line();
                 match first.get(name) {
                     Some(&f) => found(name, line, f),
@@ -917,57 +986,27 @@ pub fn scan_checked<R: Read + Send>(
     if sel.suspects.is_empty() && sel.check_all_names.is_empty() {
         return Ok(sel);
     }
-    let mut exclude = HashSet::new();
-    let mut dup_total = 0usize;
-    let mut errors = Vec::new();
-    for (fi, cat) in open()?.into_iter().enumerate() {
+    let keep = |schema: &crate::catalog::Schema, rec: &crate::catalog::records::Record<'_>| {
+        parse_row(schema, rec, mats).is_ok_and(|r| opts.filters.admits(&r))
+    };
+    let flagged = |fi: usize| {
         let names: HashSet<String> = sel
             .suspects
             .iter()
             .filter(|s| s.file == fi)
             .map(|s| s.name.clone())
             .collect();
-        let all = sel.check_all_names.contains(&fi);
-        if names.is_empty() && !all {
-            continue;
-        }
-        let file = cat.file.clone();
-        let name_col = cat
-            .schema
-            .cols
-            .iter()
-            .position(|c| *c == crate::catalog::Col::Name)
-            .unwrap_or(0);
-        let skip = opts.skip_bad_rows;
-        confirm_duplicates(cat, (!all).then_some(&names), |name, line, firstl| {
-            if skip {
-                exclude.insert((fi, line));
-            }
-            dup_total += 1;
-            if errors.len() < 1000 {
-                errors.push(Error::input(
-                    Location::in_file(&file)
-                        .with_line(line)
-                        .with_column(name_col as u64 + 1),
-                    format!("duplicate section name '{name}' (first on line {firstl})"),
-                ));
-            }
-        })?;
-    }
+        (names, sel.check_all_names.contains(&fi))
+    };
+    let rep = find_repeats(open()?, flagged, keep, opts.skip_bad_rows)?;
+    let (errors, exclude, dup_total) = (rep.errors, rep.lines, rep.total);
     if errors.is_empty() {
         sel.suspects.clear();
         sel.check_all_names.clear();
         return Ok(sel);
     }
     if !opts.skip_bad_rows {
-        let n = dup_total;
-        if n > errors.len() {
-            errors.push(Error::msg(format!("... and {} more", n - errors.len())));
-        }
-        errors.push(Error::msg(format!(
-            "{n} duplicate name(s): the catalogue is refused (fix them, or use --skip-bad-rows to keep only the first of each)"
-        )));
-        return Err(Error::Many(errors));
+        return Err(refuse_repeats(errors, dup_total));
     }
     let mut again = scan_excluding(prep, open()?, mats, opts, &exclude, progress)?;
     again.skipped.extend(errors.iter().map(|e| e.to_string()));

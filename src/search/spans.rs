@@ -1,0 +1,290 @@
+//! The lightest passing row at each of several spans in one reading of the
+//! catalogues, in select's memory: rows are parsed and checked in parallel
+//! block by block, and a row is checked at a span only while it is lighter
+//! than the best found there so far (a snapshot taken before each block, so
+//! the result does not depend on the thread count). The answer equals
+//! sorting every row lightest first and taking each span's first pass
+//! (`sweep::lightest`; tests/sweep.rs compares the two).
+
+use super::{
+    Bloom, Counts, Filters, find_repeats, map_block, refuse_repeats, to_candidate_unchecked,
+};
+use crate::catalog::read::Catalog;
+use crate::catalog::records::{Block, Records};
+use crate::catalog::{Materials, parse_row};
+use crate::check::{CheckKind, Prepared, SectionInput, Summary, Verdict};
+use crate::error::{Error, Location, Result};
+use std::cmp::Ordering;
+use std::collections::HashSet;
+use std::io::Read;
+
+/// The result at one span.
+#[derive(Clone, Debug, serde::Serialize)]
+pub struct SpanBest {
+    /// The lightest passing row (mass order: mass, depth, name, file, line).
+    pub best: Option<super::Candidate>,
+    pub utilisation: Option<f64>,
+    pub governing: Option<CheckKind>,
+    /// Not-verified rows lighter than the best (all of them when none
+    /// passes): never taken as passing.
+    pub lighter_not_verified: u64,
+    /// The reasons of the lightest of them.
+    pub not_verified_reasons: Vec<String>,
+}
+
+/// The mass order of rows.
+#[derive(Clone, Debug, PartialEq)]
+struct Key {
+    mass: f64,
+    depth: f64,
+    name: String,
+    file: usize,
+    line: u64,
+}
+
+fn cmp(a: (f64, f64, &str, usize, u64), b: &Key) -> Ordering {
+    a.0.total_cmp(&b.mass)
+        .then(a.1.total_cmp(&b.depth))
+        .then_with(|| a.2.cmp(b.name.as_str()))
+        .then(a.3.cmp(&b.file))
+        .then(a.4.cmp(&b.line))
+}
+
+#[derive(Default)]
+struct State {
+    best: Option<(Key, super::Candidate, Summary)>,
+    /// Not-verified rows lighter than `best`.
+    lighter_nv: Vec<Key>,
+    /// The lightest not-verified row and its reasons.
+    lightest_nv: Option<(Key, Vec<String>)>,
+}
+
+enum RowOut<'r> {
+    Bad(u64, usize, String),
+    Filtered,
+    Excluded,
+    Checked {
+        name: &'r str,
+        mass: f64,
+        depth: f64,
+        suspect: bool,
+        /// (span index, summary) where the row was checked.
+        at: Vec<(usize, Summary)>,
+    },
+}
+
+/// What one pass gives: each span's state, the counts, the bad rows'
+/// errors and the names the duplicate filter flagged ((file, name)).
+type Pass = (Vec<State>, Counts, Vec<Error>, Vec<(usize, String)>);
+
+/// One pass; rows in `exclude` ((file, line)) count as bad.
+fn pass<R: Read + Send>(
+    preps: &[Prepared],
+    catalogs: Vec<Catalog<R>>,
+    mats: &Materials<'_>,
+    filters: &Filters,
+    exclude: &HashSet<(usize, u64)>,
+) -> Result<Pass> {
+    let mut states: Vec<State> = (0..preps.len()).map(|_| State::default()).collect();
+    let mut counts = Counts::default();
+    let mut errors = Vec::new();
+    let mut suspects = Vec::new();
+    for (fi, mut cat) in catalogs.into_iter().enumerate() {
+        let bloom = Bloom::for_input(cat.size_hint);
+        let file = cat.file.clone();
+        let schema = cat.schema.clone();
+        let delim = cat.delimiter;
+        let rows_before = counts.rows;
+        let mut block = Block::default();
+        let mut pool: Vec<Records> = Vec::new();
+        while cat.next_block(&mut block)? {
+            // Each span's best so far: a row at least as heavy cannot win.
+            let bound: Vec<Option<Key>> = states
+                .iter()
+                .map(|s| s.best.as_ref().map(|b| b.0.clone()))
+                .collect();
+            let parsed = map_block(&block, delim, &mut pool, |rec| {
+                let line = rec.line();
+                if !exclude.is_empty() && exclude.contains(&(fi, line)) {
+                    return RowOut::Excluded;
+                }
+                let row = match parse_row(&schema, &rec, mats) {
+                    Ok(r) => r,
+                    Err(e) => return RowOut::Bad(line, e.column, e.message),
+                };
+                let suspect = bloom.insert(row.name);
+                if !filters.admits(&row) {
+                    return RowOut::Filtered;
+                }
+                let key = (row.mass, row.props.depth, row.name, fi, line);
+                let mat = mats.get(&row.material);
+                let at = preps
+                    .iter()
+                    .enumerate()
+                    .filter(|(k, _)| {
+                        bound[*k]
+                            .as_ref()
+                            .is_none_or(|b| cmp(key, b) == Ordering::Less)
+                    })
+                    .map(|(k, p)| {
+                        (
+                            k,
+                            p.check(SectionInput::new(&row.props, row.mass).with_material(mat)),
+                        )
+                    })
+                    .collect();
+                RowOut::Checked {
+                    name: row.name,
+                    mass: row.mass,
+                    depth: row.props.depth,
+                    suspect,
+                    at,
+                }
+            });
+            for (rec, out) in parsed
+                .into_iter()
+                .flat_map(|(recs, outs)| recs.iter().zip(outs))
+            {
+                counts.rows += 1;
+                let line = rec.line();
+                match out {
+                    RowOut::Bad(line, col, msg) => {
+                        counts.bad += 1;
+                        if errors.len() < 1000 {
+                            errors.push(Error::input(
+                                Location::in_file(&file)
+                                    .with_line(line)
+                                    .with_column(col as u64),
+                                msg,
+                            ));
+                        }
+                    }
+                    RowOut::Excluded => counts.bad += 1,
+                    RowOut::Filtered => counts.filtered += 1,
+                    RowOut::Checked {
+                        name,
+                        mass,
+                        depth,
+                        suspect,
+                        at,
+                    } => {
+                        counts.checked += 1;
+                        if suspect && suspects.len() < super::SUSPECT_CAP {
+                            suspects.push((fi, name.to_string()));
+                        }
+                        let key = (mass, depth, name, fi, line);
+                        let owned = || Key {
+                            mass,
+                            depth,
+                            name: name.to_string(),
+                            file: fi,
+                            line,
+                        };
+                        for (k, s) in at {
+                            let st = &mut states[k];
+                            let lighter = st
+                                .best
+                                .as_ref()
+                                .is_none_or(|b| cmp(key, &b.0) == Ordering::Less);
+                            if !lighter {
+                                continue;
+                            }
+                            if s.passes {
+                                let row = parse_row(&schema, &rec, mats)
+                                    .map_err(|e| Error::Internal(e.message))?;
+                                let cand = to_candidate_unchecked(&row, &s, fi, line);
+                                st.lighter_nv.retain(|n| cmp(key, n) == Ordering::Greater);
+                                st.best = Some((owned(), cand, s));
+                            } else if s.verdict == Verdict::NotVerified {
+                                st.lighter_nv.push(owned());
+                                let lightest = st
+                                    .lightest_nv
+                                    .as_ref()
+                                    .is_none_or(|n| cmp(key, &n.0) == Ordering::Less);
+                                if lightest {
+                                    st.lightest_nv = Some((owned(), s.gaps.describe()));
+                                }
+                            }
+                        }
+                    }
+                }
+            }
+        }
+        if counts.rows == rows_before {
+            return Err(Error::input(
+                Location::in_file(&file).with_line(cat.header_line + 1),
+                "the catalogue has a header but no rows: expected one section per row after the header",
+            ));
+        }
+    }
+    Ok((states, counts, errors, suspects))
+}
+
+/// The lightest passing row at each prepared span, reading each catalogue
+/// once (twice only when the duplicate filter flags a name, three times
+/// when names repeat and `skip_bad_rows` leaves the repeats out).
+pub fn lightest_by_span<R: Read + Send>(
+    preps: &[Prepared],
+    open: &dyn Fn() -> Result<Vec<Catalog<R>>>,
+    mats: &Materials<'_>,
+    filters: &Filters,
+    skip_bad_rows: bool,
+) -> Result<(Vec<SpanBest>, Counts)> {
+    let none = HashSet::new();
+    let (mut states, mut counts, mut errors, suspects) =
+        pass(preps, open()?, mats, filters, &none)?;
+    if !suspects.is_empty() {
+        let keep = |schema: &crate::catalog::Schema, rec: &crate::catalog::records::Record<'_>| {
+            parse_row(schema, rec, mats).is_ok()
+        };
+        let all = suspects.len() >= super::SUSPECT_CAP;
+        let flagged = |fi: usize| {
+            let names: HashSet<String> = suspects
+                .iter()
+                .filter(|s| s.0 == fi)
+                .map(|s| s.1.clone())
+                .collect();
+            (names, all)
+        };
+        let rep = find_repeats(open()?, flagged, keep, true)?;
+        if rep.total > 0 {
+            if !skip_bad_rows {
+                return Err(refuse_repeats(rep.errors, rep.total));
+            }
+            (states, counts, errors, _) = pass(preps, open()?, mats, filters, &rep.lines)?;
+        }
+    }
+    if counts.bad > 0 && !skip_bad_rows {
+        let total = counts.bad as usize;
+        if total > errors.len() {
+            errors.push(Error::msg(format!("... and {} more", total - errors.len())));
+        }
+        errors.push(Error::msg(format!(
+            "{total} bad row(s): the catalogue is refused (fix them, or use --skip-bad-rows to leave them out)"
+        )));
+        return Err(Error::Many(errors));
+    }
+    let out = states
+        .into_iter()
+        .map(|st| {
+            let (best, utilisation, governing) = match st.best {
+                Some((_, c, s)) => (Some(c), Some(s.utilisation), s.governing.map(|g| g.kind)),
+                None => (None, None, None),
+            };
+            SpanBest {
+                best,
+                utilisation,
+                governing,
+                lighter_not_verified: st.lighter_nv.len() as u64,
+                // The lightest not-verified row is lighter than the best
+                // whenever any is.
+                not_verified_reasons: if st.lighter_nv.is_empty() {
+                    Vec::new()
+                } else {
+                    st.lightest_nv.map(|n| n.1).unwrap_or_default()
+                },
+            }
+        })
+        .collect();
+    Ok((out, counts))
+}
