@@ -671,6 +671,10 @@ pub fn fmt_num(v: f64) -> String {
     let digits = 4 - 1 - a.log10().floor() as i32;
     let decimals = digits.max(0) as usize;
     let s = format!("{v:.decimals$}");
+    // Rounding can carry into the thousands (999.96 → 1000): group then.
+    if s.trim_start_matches('-').starts_with("1000") {
+        return group_thousands(v.round());
+    }
     let s = if s.contains('.') {
         s.trim_end_matches('0').trim_end_matches('.').to_string()
     } else {

@@ -141,10 +141,13 @@ fn engineering_number_format() {
     assert_eq!(fmt_num(0.0), "0");
     assert_eq!(fmt_num(83.5612), "83.56");
     assert_eq!(fmt_num(5381.2), "5,381");
+    // Rounding that carries into the thousands keeps the separator.
+    assert_eq!(fmt_num(999.96), "1,000");
+    assert_eq!(fmt_num(-999.97), "-1,000");
+    assert_eq!(fmt_num(999.94), "999.9");
     assert_eq!(fmt_num(1234567.0), "1,234,567");
     assert_eq!(fmt_num(-0.012345), "-0.01235");
     assert_eq!(fmt_num(7.1), "7.1");
-    assert_eq!(fmt_num(999.96), "1000");
 }
 
 #[test]
