@@ -993,8 +993,9 @@ pub fn from_toml(text: &str, file: &str) -> Result<Job> {
             // The key whose value is off the beam: `at`, or the end of a
             // distributed load that lies outside (`from` before 0, else
             // `to`); the case line when the position was defaulted.
+            let length = beam.length();
             let want = match l.kind {
-                LoadKind::Distributed { x1, .. } if x1 < 0.0 => "from",
+                LoadKind::Distributed { x1, .. } if x1 < 0.0 || x1 > length => "from",
                 LoadKind::Distributed { .. } => "to",
                 _ => "at",
             };

@@ -319,7 +319,7 @@ fn one_reading_equals_the_sorted_reference() {
                 .num_threads(threads)
                 .build()
                 .unwrap();
-            let (got, counts) = pool
+            let found = pool
                 .install(|| {
                     search::spans::lightest_by_span(
                         &preps,
@@ -330,6 +330,7 @@ fn one_reading_equals_the_sorted_reference() {
                     )
                 })
                 .unwrap();
+            let (got, counts) = (found.spans, found.counts);
             assert_eq!(counts.rows as usize, rows.len());
             for (w, g) in want.iter().zip(&got) {
                 let w_name = w.row.map(|j| rows[j].name.clone());

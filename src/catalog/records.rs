@@ -506,12 +506,15 @@ impl<R: std::io::Read> Blocks<R> {
             let (end, _) = boundaries(&self.carry, self.eof, self.delim, self.line, |_, _| {});
             out.clear();
             let (used, line) = parse(&self.carry[..end], self.delim, self.line, out, Some(count));
-            // What was used is whole records (comments and blank lines
-            // when fewer than `count` were found): drop it, so only the
-            // record still being read counts against the limit.
-            self.carry.drain(..used);
-            self.offset += used as u64;
-            self.line = line;
+            // What was used is whole records: drop it when it is all
+            // there is to hand out, or only comments and blank lines (so
+            // only the record still being read counts against the limit);
+            // records found short of `count` are parsed again next time.
+            if out.len() >= count || self.eof || out.is_empty() {
+                self.carry.drain(..used);
+                self.offset += used as u64;
+                self.line = line;
+            }
             if out.len() >= count || self.eof {
                 return Ok(());
             }
@@ -536,7 +539,14 @@ impl<R: std::io::Read> Blocks<R> {
             let mut seg_start = 0usize;
             let mut seg_line = line0;
             let segments = &mut block.segments;
+            // The limit holds for every record, however the reads fell.
+            let (mut rec_start, mut rec_line, mut too_long) = (0usize, line0, None);
             let (end, line) = boundaries(&self.carry, self.eof, self.delim, line0, |at, next| {
+                if at - rec_start > MAX_RECORD && too_long.is_none() {
+                    too_long = Some(rec_line);
+                }
+                rec_start = at;
+                rec_line = next;
                 if at - seg_start >= segment {
                     segments.push(Segment {
                         start: seg_start,
@@ -547,6 +557,9 @@ impl<R: std::io::Read> Blocks<R> {
                     seg_line = next;
                 }
             });
+            if let Some(line) = too_long {
+                return Err(ReadError::TooLong { line });
+            }
             if end == 0 {
                 // Not one whole record yet: read on (up to the limit).
                 if self.eof {

@@ -225,10 +225,11 @@ fn run_lightest(a: LightestArgs, out: &Out) -> Result<i32> {
         .collect::<Result<Vec<_>>>()?;
     let filters = a.cat.filters_for(&job)?;
     let open = || a.cat.open().map(|c| c.0);
-    let (found, c) =
+    let lightest =
         search::spans::lightest_by_span(&preps, &open, &mats, &filters, a.cat.skip_bad_rows)?;
-    let rows_line = rows_read_line(&c, a.cat.skip_bad_rows);
-    let chosen: Vec<Candidate> = found.iter().filter_map(|f| f.best.clone()).collect();
+    let rows_line = rows_read_line(&lightest.counts, a.cat.skip_bad_rows);
+    let found = lightest.spans;
+    let samples = lightest.samples;
     let optima: Vec<Option<(f64, String)>> = match a.optimise {
         Some(fam) => {
             use rayon::prelude::*;
@@ -384,7 +385,7 @@ fn run_lightest(a: LightestArgs, out: &Out) -> Result<i32> {
             r.not_verified_reasons.clone(),
         );
     }
-    finish(&mut doc, &job, &chosen, &mats)?;
+    finish(&mut doc, &job, &samples, &mats)?;
     emit(out, &report::render(out.format, &result, &doc))?;
     Ok(0)
 }

@@ -32,6 +32,16 @@ pub struct SpanBest {
     pub not_verified_reasons: Vec<String>,
 }
 
+/// What `lightest_by_span` finds.
+pub struct Lightest {
+    /// One per prepared span, in order.
+    pub spans: Vec<SpanBest>,
+    pub counts: Counts,
+    /// One row per section form and material kind met (what the "not
+    /// checked" list depends on).
+    pub samples: Vec<super::Candidate>,
+}
+
 /// The mass order of rows.
 #[derive(Clone, Debug, PartialEq)]
 struct Key {
@@ -61,9 +71,16 @@ struct State {
 
 enum RowOut<'r> {
     Bad(u64, usize, String),
-    Filtered,
+    /// Left out by the filters (its name still counts for repeats).
+    Filtered {
+        name: &'r str,
+        suspect: bool,
+    },
     Excluded,
     Checked {
+        /// What decides the "not checked" list: the section's form and
+        /// the material's kind.
+        kind: Kind,
         name: &'r str,
         mass: f64,
         depth: f64,
@@ -73,9 +90,23 @@ enum RowOut<'r> {
     },
 }
 
-/// What one pass gives: each span's state, the counts, the bad rows'
-/// errors and the names the duplicate filter flagged ((file, name)).
-type Pass = (Vec<State>, Counts, Vec<Error>, Vec<(usize, String)>);
+/// What one pass gives.
+struct Pass {
+    states: Vec<State>,
+    counts: Counts,
+    /// The bad rows' errors (at most 1000).
+    errors: Vec<Error>,
+    /// Names the duplicate filter flagged: (file, name).
+    suspects: Vec<(usize, String)>,
+    /// One checked row per (form, material kind), for the "not checked"
+    /// list (which depends on nothing else).
+    samples: Vec<(Kind, super::Candidate)>,
+}
+
+type Kind = (
+    std::mem::Discriminant<crate::section::Form>,
+    crate::check::MaterialKind,
+);
 
 /// One pass; rows in `exclude` ((file, line)) count as bad.
 fn pass<R: Read + Send>(
@@ -89,6 +120,7 @@ fn pass<R: Read + Send>(
     let mut counts = Counts::default();
     let mut errors = Vec::new();
     let mut suspects = Vec::new();
+    let mut samples: Vec<(Kind, super::Candidate)> = Vec::new();
     for (fi, mut cat) in catalogs.into_iter().enumerate() {
         let bloom = Bloom::for_input(cat.size_hint);
         let file = cat.file.clone();
@@ -112,9 +144,13 @@ fn pass<R: Read + Send>(
                     Ok(r) => r,
                     Err(e) => return RowOut::Bad(line, e.column, e.message),
                 };
+                // Repeats count before the filters, as in `load_rows`.
                 let suspect = bloom.insert(row.name);
                 if !filters.admits(&row) {
-                    return RowOut::Filtered;
+                    return RowOut::Filtered {
+                        name: row.name,
+                        suspect,
+                    };
                 }
                 let key = (row.mass, row.props.depth, row.name, fi, line);
                 let mat = mats.get(&row.material);
@@ -134,6 +170,7 @@ fn pass<R: Read + Send>(
                     })
                     .collect();
                 RowOut::Checked {
+                    kind: (std::mem::discriminant(&row.props.form), mat.kind),
                     name: row.name,
                     mass: row.mass,
                     depth: row.props.depth,
@@ -160,8 +197,14 @@ fn pass<R: Read + Send>(
                         }
                     }
                     RowOut::Excluded => counts.bad += 1,
-                    RowOut::Filtered => counts.filtered += 1,
+                    RowOut::Filtered { name, suspect } => {
+                        counts.filtered += 1;
+                        if suspect && suspects.len() < super::SUSPECT_CAP {
+                            suspects.push((fi, name.to_string()));
+                        }
+                    }
                     RowOut::Checked {
+                        kind,
                         name,
                         mass,
                         depth,
@@ -169,6 +212,18 @@ fn pass<R: Read + Send>(
                         at,
                     } => {
                         counts.checked += 1;
+                        if !samples.iter().any(|s| s.0 == kind) {
+                            let row = parse_row(&schema, &rec, mats)
+                                .map_err(|e| Error::Internal(e.message))?;
+                            let none = crate::check::Summary {
+                                utilisation: f64::NAN,
+                                governing: None,
+                                verdict: Verdict::NotVerified,
+                                gaps: crate::check::Gaps::default(),
+                                passes: false,
+                            };
+                            samples.push((kind, to_candidate_unchecked(&row, &none, fi, line)));
+                        }
                         if suspect && suspects.len() < super::SUSPECT_CAP {
                             suspects.push((fi, name.to_string()));
                         }
@@ -217,7 +272,13 @@ fn pass<R: Read + Send>(
             ));
         }
     }
-    Ok((states, counts, errors, suspects))
+    Ok(Pass {
+        states,
+        counts,
+        errors,
+        suspects,
+        samples,
+    })
 }
 
 /// The lightest passing row at each prepared span, reading each catalogue
@@ -229,15 +290,27 @@ pub fn lightest_by_span<R: Read + Send>(
     mats: &Materials<'_>,
     filters: &Filters,
     skip_bad_rows: bool,
-) -> Result<(Vec<SpanBest>, Counts)> {
+) -> Result<Lightest> {
     let none = HashSet::new();
-    let (mut states, mut counts, mut errors, suspects) =
-        pass(preps, open()?, mats, filters, &none)?;
-    if !suspects.is_empty() {
+    let mut p = pass(preps, open()?, mats, filters, &none)?;
+    // Bad rows first, as select reports them.
+    if p.counts.bad > 0 && !skip_bad_rows {
+        let total = p.counts.bad as usize;
+        let mut errors = p.errors;
+        if total > errors.len() {
+            errors.push(Error::msg(format!("... and {} more", total - errors.len())));
+        }
+        errors.push(Error::msg(format!(
+            "{total} bad row(s): the catalogue is refused (fix them, or use --skip-bad-rows to leave them out)"
+        )));
+        return Err(Error::Many(errors));
+    }
+    if !p.suspects.is_empty() {
         let keep = |schema: &crate::catalog::Schema, rec: &crate::catalog::records::Record<'_>| {
             parse_row(schema, rec, mats).is_ok()
         };
-        let all = suspects.len() >= super::SUSPECT_CAP;
+        let all = p.suspects.len() >= super::SUSPECT_CAP;
+        let suspects = &p.suspects;
         let flagged = |fi: usize| {
             let names: HashSet<String> = suspects
                 .iter()
@@ -251,19 +324,12 @@ pub fn lightest_by_span<R: Read + Send>(
             if !skip_bad_rows {
                 return Err(refuse_repeats(rep.errors, rep.total));
             }
-            (states, counts, errors, _) = pass(preps, open()?, mats, filters, &rep.lines)?;
+            p = pass(preps, open()?, mats, filters, &rep.lines)?;
         }
     }
-    if counts.bad > 0 && !skip_bad_rows {
-        let total = counts.bad as usize;
-        if total > errors.len() {
-            errors.push(Error::msg(format!("... and {} more", total - errors.len())));
-        }
-        errors.push(Error::msg(format!(
-            "{total} bad row(s): the catalogue is refused (fix them, or use --skip-bad-rows to leave them out)"
-        )));
-        return Err(Error::Many(errors));
-    }
+    let samples = p.samples.into_iter().map(|s| s.1).collect();
+    let states = p.states;
+    let counts = p.counts;
     let out = states
         .into_iter()
         .map(|st| {
@@ -286,5 +352,9 @@ pub fn lightest_by_span<R: Read + Send>(
             }
         })
         .collect();
-    Ok((out, counts))
+    Ok(Lightest {
+        spans: out,
+        counts,
+        samples,
+    })
 }
