@@ -51,16 +51,18 @@ def svg(points):
     w, h, left, bottom, top, right = 640, 380, 80, 50, 30, 150
     xs = [math.log10(r) for r, _, _ in points]
     ymax = max(max(a, b) for _, a, b in points) * 1.1
-    x0, x1 = math.floor(min(xs)), math.ceil(max(xs))
+    x0, x1 = math.floor(min(xs)), max(xs) + 0.15
     px = lambda v: left + (v - x0) / (x1 - x0) * (w - left - right)
     py = lambda v: h - bottom - v / ymax * (h - bottom - top)
     out = [f'<svg xmlns="http://www.w3.org/2000/svg" width="{w}" height="{h}" font-family="sans-serif" font-size="12">',
            f'<rect width="{w}" height="{h}" fill="white"/>',
            f'<line x1="{left}" y1="{h-bottom}" x2="{w-right}" y2="{h-bottom}" stroke="black"/>',
            f'<line x1="{left}" y1="{top}" x2="{left}" y2="{h-bottom}" stroke="black"/>']
-    for e in range(x0, x1 + 1):
+    for e in range(x0, math.floor(x1) + 1):
         out.append(f'<text x="{px(e)}" y="{h-bottom+18}" text-anchor="middle">10^{e}</text>')
-    step = 10 ** math.floor(math.log10(ymax / 4))
+    raw = ymax / 5
+    mag = 10 ** math.floor(math.log10(raw))
+    step = next(m * mag for m in (1, 2, 5, 10) if m * mag >= raw)
     k = 0
     while k * step <= ymax:
         y = py(k * step)
@@ -75,6 +77,8 @@ def svg(points):
         for r, *p in points:
             out.append(f'<circle cx="{px(math.log10(r))}" cy="{py(p[idx])}" r="3" fill="{colour}"/>')
         out.append(f'<text x="{w-right+10}" y="{top+20+18*idx}" fill="{colour}">{label}</text>')
+    out.append(f'<text x="{w-right+10}" y="{top+66}" font-size="10">workers; one more</text>')
+    out.append(f'<text x="{w-right+10}" y="{top+80}" font-size="10">thread reads</text>')
     out.append("</svg>")
     return "\n".join(out)
 
