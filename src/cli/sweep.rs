@@ -191,8 +191,9 @@ pub fn run(cmd: Cmd, out: &Out) -> Result<i32> {
 fn run_lightest(a: LightestArgs, out: &Out) -> Result<i32> {
     let job = a.job.load()?;
     let spans = parse_spans(&a.spans)?;
-    // Each span is a full scan (and with --optimise an optimisation, about
-    // 50 ms): bound the work a typo in a range can ask for.
+    // Each span is a prepared job checked against the catalogue (and with
+    // --optimise an optimisation, about 50 ms): bound the work a typo in a
+    // range can ask for.
     let most = if a.optimise.is_some() { 200 } else { 1000 };
     if spans.len() > most {
         return Err(Error::msg(format!(

@@ -654,30 +654,37 @@ pub fn scan_excluding<R: Read + Send>(
                 let block = msg?;
                 let pos = block.end_offset;
                 let schema = &schema;
-                let mut parsed = map_block(&block, delim, &mut pool, |rec| {
-                    if !exclude.is_empty() && exclude.contains(&(fi, rec.line())) {
-                        return Outcome::Excluded;
-                    }
-                    match parse_row(schema, &rec, mats) {
-                        Err(e) => Outcome::Bad(rec.line(), e.column, e.message),
-                        Ok(row) => {
-                            if !opts.filters.admits(&row) {
-                                return Outcome::Filtered;
-                            }
-                            let mat = mats.get(&row.material);
-                            let s = prep
-                                .check(SectionInput::new(&row.props, row.mass).with_material(mat));
-                            Outcome::Checked {
-                                name: row.name,
-                                suspect: false,
-                                mass: row.mass,
-                                depth: row.props.depth,
-                                cost: row.cost,
-                                summary: s,
+                let mut parsed = map_block(
+                    &block,
+                    delim,
+                    &mut pool,
+                    || (),
+                    |_, rec| {
+                        if !exclude.is_empty() && exclude.contains(&(fi, rec.line())) {
+                            return Outcome::Excluded;
+                        }
+                        match parse_row(schema, &rec, mats) {
+                            Err(e) => Outcome::Bad(rec.line(), e.column, e.message),
+                            Ok(row) => {
+                                if !opts.filters.admits(&row) {
+                                    return Outcome::Filtered;
+                                }
+                                let mat = mats.get(&row.material);
+                                let s = prep.check(
+                                    SectionInput::new(&row.props, row.mass).with_material(mat),
+                                );
+                                Outcome::Checked {
+                                    name: row.name,
+                                    suspect: false,
+                                    mass: row.mass,
+                                    depth: row.props.depth,
+                                    cost: row.cost,
+                                    summary: s,
+                                }
                             }
                         }
-                    }
-                });
+                    },
+                );
                 parsed
                     .par_iter_mut()
                     .for_each(|(_, outs)| bloom.insert_all(outs));
@@ -907,16 +914,19 @@ pub(crate) fn refuse_repeats(mut errors: Vec<Error>, total: usize) -> Error {
 }
 
 /// Parse a block's segments and map each record, in parallel: one
-/// (records, results) pair per segment, in file order.
-pub(crate) fn map_block<'p, T, F>(
+/// (records, results) pair per segment, in file order. `init` makes the
+/// state one segment's records share, in order (see search::spans).
+pub(crate) fn map_block<'p, T, S, I, F>(
     block: &Block,
     delim: u8,
     pool: &'p mut Vec<Records>,
+    init: I,
     f: F,
 ) -> Vec<(&'p Records, Vec<T>)>
 where
     T: Send + 'p,
-    F: Fn(crate::catalog::records::Record<'p>) -> T + Sync,
+    I: Fn() -> S + Sync,
+    F: Fn(&mut S, crate::catalog::records::Record<'p>) -> T + Sync,
 {
     let nseg = block.segments.len();
     if pool.len() < nseg {
@@ -928,7 +938,8 @@ where
         .map(|(k, recs)| {
             block.parse_segment(k, delim, recs);
             let recs: &'p Records = recs;
-            (recs, recs.iter().map(&f).collect())
+            let mut state = init();
+            (recs, recs.iter().map(|r| f(&mut state, r)).collect())
         })
         .collect()
 }

@@ -1,8 +1,10 @@
 //! The lightest passing row at each of several spans in one reading of the
 //! catalogues, in select's memory: rows are parsed and checked in parallel
 //! block by block, and a row is checked at a span only while it is lighter
-//! than the best found there so far (a snapshot taken before each block, so
-//! the result does not depend on the thread count). The answer equals
+//! than the best found there so far (the best of the earlier blocks, and of
+//! the earlier rows of its own segment); only passes and not-verified
+//! outcomes are kept for the merge. Both prunings are exact, so the result
+//! depends on neither the thread count nor the block size. The answer equals
 //! sorting every row lightest first and taking each span's first pass
 //! (`sweep::lightest`; tests/sweep.rs compares the two).
 
@@ -52,12 +54,19 @@ struct Key {
     line: u64,
 }
 
-fn cmp(a: (f64, f64, &str, usize, u64), b: &Key) -> Ordering {
-    a.0.total_cmp(&b.mass)
-        .then(a.1.total_cmp(&b.depth))
-        .then_with(|| a.2.cmp(b.name.as_str()))
-        .then(a.3.cmp(&b.file))
-        .then(a.4.cmp(&b.line))
+/// A row's place in the mass order, borrowed from its record.
+type RowKey<'a> = (f64, f64, &'a str, usize, u64);
+
+fn cmp_keys(a: RowKey<'_>, b: RowKey<'_>) -> Ordering {
+    a.0.total_cmp(&b.0)
+        .then(a.1.total_cmp(&b.1))
+        .then_with(|| a.2.cmp(b.2))
+        .then(a.3.cmp(&b.3))
+        .then(a.4.cmp(&b.4))
+}
+
+fn cmp(a: RowKey<'_>, b: &Key) -> Ordering {
+    cmp_keys(a, (b.mass, b.depth, &b.name, b.file, b.line))
 }
 
 #[derive(Default)]
@@ -135,7 +144,11 @@ fn pass<R: Read + Send>(
                 .iter()
                 .map(|s| s.best.as_ref().map(|b| b.0.clone()))
                 .collect();
-            let parsed = map_block(&block, delim, &mut pool, |rec| {
+            let nspans = preps.len();
+            // Per segment, in order: the lightest pass found so far at
+            // each span, so a heavier row there is not checked either.
+            let init = || -> Vec<Option<RowKey<'_>>> { vec![None; nspans] };
+            let parsed = map_block(&block, delim, &mut pool, init, |local, rec| {
                 let line = rec.line();
                 if !exclude.is_empty() && exclude.contains(&(fi, line)) {
                     return RowOut::Excluded;
@@ -154,21 +167,26 @@ fn pass<R: Read + Send>(
                 }
                 let key = (row.mass, row.props.depth, row.name, fi, line);
                 let mat = mats.get(&row.material);
-                let at = preps
-                    .iter()
-                    .enumerate()
-                    .filter(|(k, _)| {
-                        bound[*k]
-                            .as_ref()
-                            .is_none_or(|b| cmp(key, b) == Ordering::Less)
-                    })
-                    .map(|(k, p)| {
-                        (
-                            k,
-                            p.check(SectionInput::new(&row.props, row.mass).with_material(mat)),
-                        )
-                    })
-                    .collect();
+                // Only passes and not-verified rows matter to the merge: a
+                // failing row is kept out (memory stays small at any span
+                // count).
+                let mut at = Vec::new();
+                for (k, p) in preps.iter().enumerate() {
+                    let lighter = bound[k]
+                        .as_ref()
+                        .is_none_or(|b| cmp(key, b) == Ordering::Less)
+                        && local[k].is_none_or(|b| cmp_keys(key, b) == Ordering::Less);
+                    if !lighter {
+                        continue;
+                    }
+                    let s = p.check(SectionInput::new(&row.props, row.mass).with_material(mat));
+                    if s.passes {
+                        local[k] = Some(key);
+                        at.push((k, s));
+                    } else if s.verdict == Verdict::NotVerified {
+                        at.push((k, s));
+                    }
+                }
                 RowOut::Checked {
                     kind: (std::mem::discriminant(&row.props.form), mat.kind),
                     name: row.name,
