@@ -6,6 +6,8 @@
 //! its message must hold, with the file's line and column where there is
 //! one) runs in a scratch folder.
 
+mod common;
+
 use std::path::{Path, PathBuf};
 use std::process::Command;
 
@@ -121,19 +123,6 @@ fn every_bad_input_is_refused_clearly() {
     );
 }
 
-fn copy_dir(from: &Path, to: &Path) {
-    std::fs::create_dir_all(to).unwrap();
-    for e in std::fs::read_dir(from).unwrap() {
-        let e = e.unwrap();
-        let p = e.path();
-        if p.is_dir() {
-            copy_dir(&p, &to.join(e.file_name()));
-        } else {
-            std::fs::copy(&p, to.join(e.file_name())).unwrap();
-        }
-    }
-}
-
 /// Snapshot of a folder's files (name, length, modified), to see that a
 /// refused command wrote nothing.
 fn listing(dir: &Path) -> Vec<(PathBuf, u64, std::time::SystemTime)> {
@@ -158,8 +147,8 @@ fn listing(dir: &Path) -> Vec<(PathBuf, u64, std::time::SystemTime)> {
 fn every_listed_case_ends_as_documented() {
     let text = std::fs::read_to_string(root().join("tests/corpus/cases.txt")).unwrap();
     let scratch = tempfile::tempdir().unwrap();
-    copy_dir(&root().join("catalogs"), &scratch.path().join("catalogs"));
-    copy_dir(
+    common::copy_dir(&root().join("catalogs"), &scratch.path().join("catalogs"));
+    common::copy_dir(
         &root().join("tests/corpus/cases"),
         &scratch.path().join("cases"),
     );

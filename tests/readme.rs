@@ -2,6 +2,8 @@
 //! README says it prints (the lines shown, in order; `…` marks lines left
 //! out). Commands run in a scratch folder holding a copy of catalogs/.
 
+mod common;
+
 use std::path::{Path, PathBuf};
 use std::process::Command;
 
@@ -39,19 +41,6 @@ fn split(cmd: &str) -> Vec<String> {
     out
 }
 
-fn copy_dir(from: &Path, to: &Path) {
-    std::fs::create_dir_all(to).unwrap();
-    for e in std::fs::read_dir(from).unwrap() {
-        let e = e.unwrap();
-        let p = e.path();
-        if p.is_dir() {
-            copy_dir(&p, &to.join(e.file_name()));
-        } else {
-            std::fs::copy(&p, to.join(e.file_name())).unwrap();
-        }
-    }
-}
-
 fn run(args: &[String], dir: &Path) -> (i32, String, String) {
     let o = Command::new(env!("CARGO_BIN_EXE_beamsift"))
         .args(args)
@@ -69,7 +58,7 @@ fn run(args: &[String], dir: &Path) -> (i32, String, String) {
 fn readme_commands_run_and_print_what_the_readme_shows() {
     let readme = std::fs::read_to_string(root().join("README.md")).unwrap();
     let scratch = tempfile::tempdir().unwrap();
-    copy_dir(&root().join("catalogs"), &scratch.path().join("catalogs"));
+    common::copy_dir(&root().join("catalogs"), &scratch.path().join("catalogs"));
     let mut blocks: Vec<(String, Vec<String>)> = Vec::new();
     let mut lines = readme.lines();
     let mut sh_commands = Vec::new();

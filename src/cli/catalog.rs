@@ -243,6 +243,7 @@ struct ValidateResult {
     problems: Vec<String>,
     /// Problems beyond those listed.
     unlisted: u64,
+    caution: &'static str,
 }
 
 pub fn run(cmd: Cmd, out: &Out) -> Result<i32> {
@@ -259,6 +260,7 @@ pub fn run(cmd: Cmd, out: &Out) -> Result<i32> {
                 good: v.good,
                 problems: problems.clone(),
                 unlisted: v.unlisted,
+                caution: beamsift::report::CAUTION,
             };
             let mut doc = Document::new(format!("Catalogue {file}"));
             if problems.is_empty() {
@@ -281,6 +283,8 @@ pub fn run(cmd: Cmd, out: &Out) -> Result<i32> {
             if !have_job {
                 doc.para("No --job given: grades were not looked up and masses were not compared with A·ρ.");
             }
+            doc.para("A valid row is well-formed and self-consistent; whether its values are those of the real section is for the user to check.");
+            doc.para(beamsift::report::CAUTION);
             emit(out, &report::render(out.format, &result, &doc))?;
             if problems.is_empty() {
                 Ok(0)

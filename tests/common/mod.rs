@@ -129,3 +129,17 @@ pub fn text(o: &Output) -> (String, String) {
         String::from_utf8_lossy(&o.stderr).into_owned(),
     )
 }
+
+/// Copy a folder and everything below it (scratch copies of catalogs/).
+pub fn copy_dir(from: &std::path::Path, to: &std::path::Path) {
+    std::fs::create_dir_all(to).unwrap();
+    for e in std::fs::read_dir(from).unwrap() {
+        let e = e.unwrap();
+        let p = e.path();
+        if p.is_dir() {
+            copy_dir(&p, &to.join(e.file_name()));
+        } else {
+            std::fs::copy(&p, to.join(e.file_name())).unwrap();
+        }
+    }
+}
