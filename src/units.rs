@@ -523,7 +523,7 @@ pub fn parse_number(text: &str) -> Result<f64> {
 }
 
 /// The output unit system.
-#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Serialize, Deserialize, clap::ValueEnum)]
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Serialize, Deserialize)]
 #[serde(rename_all = "lowercase")]
 pub enum System {
     /// SI: mm, m, kN, kN·m, MPa.

@@ -15,6 +15,7 @@ mod report;
 mod section;
 mod select;
 mod sweep;
+mod values;
 
 use beamsift::Error;
 use beamsift::report::Format;

@@ -26,7 +26,7 @@ pub struct Args {
     #[command(flatten)]
     pub job: JobArgs,
     /// Section family to proportion.
-    #[arg(value_enum)]
+    #[arg(value_parser = super::values::family())]
     pub family: Family,
     /// Bounds on a variable as NAME=LOW..HIGH (e.g. hw=300mm..900mm); repeatable.
     #[arg(long = "bound", value_name = "NAME=LOW..HIGH")]
@@ -54,7 +54,7 @@ pub struct Args {
     #[arg(long)]
     pub compact: bool,
     /// What to minimise.
-    #[arg(long, value_enum, default_value_t = Objective::Area)]
+    #[arg(long, value_parser = super::values::objective(), default_value = "area")]
     pub objective: Objective,
     /// Plate thicknesses available (a list with one unit at the end)
     /// [default: 6,8,10,12,15,20,25,30,35,40,45,50mm].

@@ -9,10 +9,10 @@ use std::path::PathBuf;
 #[derive(clap::Args, Debug)]
 pub struct OutputArgs {
     /// Unit system of the output.
-    #[arg(long, global = true, value_enum, default_value_t = System::Si)]
+    #[arg(long, global = true, value_parser = super::values::system(), default_value = "si")]
     pub units: System,
     /// Output format.
-    #[arg(long, global = true, value_enum, default_value_t = Format::Table)]
+    #[arg(long, global = true, value_parser = super::values::format(), default_value = "table")]
     pub format: Format,
     /// Shorthand for --format json.
     #[arg(long, global = true)]

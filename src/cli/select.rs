@@ -31,7 +31,7 @@ pub struct Args {
     #[command(flatten)]
     pub cat: CatalogArgs,
     /// Rank the passing sections by this criterion.
-    #[arg(long, value_enum, default_value_t = Rank::Mass)]
+    #[arg(long, value_parser = super::values::rank(), default_value = "mass")]
     pub rank: Rank,
     /// How many passing sections to list (1–100,000).
     #[arg(long, default_value_t = 10, value_parser = super::count_in::<1, 100_000>)]

@@ -47,7 +47,7 @@ pub struct LightestArgs {
     #[arg(long)]
     pub spans: String,
     /// Also the least-area parametric section of this family at each span.
-    #[arg(long, value_enum)]
+    #[arg(long, value_parser = super::values::family())]
     pub optimise: Option<Family>,
     /// Write the chart (SVG) here.
     #[arg(long, value_name = "FILE")]

@@ -140,7 +140,7 @@ fn with_context(mut v: serde_json::Value, doc: &Document) -> serde_json::Value {
 }
 
 /// Output formats.
-#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, clap::ValueEnum)]
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq)]
 pub enum Format {
     /// Aligned tables for the terminal.
     #[default]

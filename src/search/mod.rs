@@ -25,7 +25,7 @@ use std::collections::HashSet;
 use std::io::Read;
 
 /// Ranking criterion.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize, clap::ValueEnum)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
 #[serde(rename_all = "lowercase")]
 pub enum Rank {
     /// Lightest first (mass per length).
