@@ -246,7 +246,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         shown,
         template.material.name
     ));
-    let mut legend = super::select::Legend::default();
+    let mut legend = beamsift::report::select::Legend::default();
     let mut t = Table::new(
         if a.objective == "cost" {
             "Members (cheapest passing section each)"
@@ -359,7 +359,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     };
     let assumptions = grouped(&|m| &m.assumptions);
     let notes = grouped(&|m| &m.notes);
-    super::select::finish_doc(
+    beamsift::report::select::finish_doc(
         &mut doc,
         &template.criteria.exclude.list(),
         &assumptions,

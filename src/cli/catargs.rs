@@ -1,9 +1,13 @@
 //! Catalogue options shared by select, shortlist and batch.
 
+use super::progress;
+use beamsift::catalog::Materials;
 use beamsift::catalog::read::{self, Catalog, ReadOptions};
+use beamsift::check::Prepared;
 use beamsift::error::{Error, Result};
 use beamsift::job::Job;
 use beamsift::search::Filters;
+use beamsift::search::{self, ScanOptions, Selection};
 use beamsift::units::{self, Dim};
 use std::fs::File;
 use std::io::BufReader;
@@ -242,4 +246,34 @@ pub fn currency(job: &Job, cats: &[String]) -> String {
         .clone()
         .or_else(|| cats.first().cloned())
         .unwrap_or_else(|| "cost".into())
+}
+
+/// The prepared demand of a job.
+pub fn prepare(job: &Job) -> Result<Prepared> {
+    Prepared::new(&job.beam, job.material.clone(), job.criteria.clone())
+}
+
+pub fn run_scan(
+    job: &Job,
+    prep: &Prepared,
+    cat: &CatalogArgs,
+    opts: &ScanOptions,
+) -> Result<(Selection, String)> {
+    cat.setup_threads()?;
+    let (cats, bytes) = cat.open()?;
+    let currencies: Vec<String> = cats
+        .iter()
+        .filter_map(|c| c.schema.currency.clone())
+        .collect();
+    let mats = Materials {
+        base: &job.material,
+        grades: &job.grades,
+    };
+    drop(cats);
+    let pb = progress::bytes_bar(bytes, cat.quiet);
+    // The files are opened again for the exact duplicate confirmation.
+    let open = || cat.open().map(|(c, _)| c);
+    let sel = search::scan_checked(prep, &open, &mats, opts, &|_, b| pb.set_position(b))?;
+    pb.finish_and_clear();
+    Ok((sel, currency(job, &currencies)))
 }

@@ -1,10 +1,10 @@
 //! `beamsift check`: one section against one job.
 
+use super::Out;
 use super::jobargs::JobArgs;
 use super::output::emit;
-use super::{EXIT_FAILS, Out};
 use beamsift::check::Prepared;
-use beamsift::report::{self, member};
+use beamsift::report::{self, member, sheet};
 use beamsift::section::spec::{shape_from_pairs, split_pairs};
 
 pub const EXAMPLES: &str = "Examples:
@@ -40,27 +40,18 @@ pub fn run(a: Args, out: &Out) -> beamsift::Result<i32> {
     let doc = member::document(&job, &result, out.units);
     emit(out, &report::render(out.format, &result, &doc))?;
     if let Some(p) = &a.report {
-        super::report::write(
-            &job,
-            &prep,
-            &result.section,
-            &props,
-            mass,
-            "properties computed from the dimensions (section module)",
-            None,
-            out.units,
-            p,
-            None,
-        )?;
+        let w = sheet::Written {
+            sheet: sheet::build(
+                &job,
+                &prep,
+                &result,
+                "properties computed from the dimensions (section module)",
+                None,
+                out.units,
+            ),
+            verdict: result.verdict,
+        };
+        super::output::write_sheet(&w, p)?;
     }
-    Ok(verdict_code(result.verdict))
-}
-
-/// The exit code of a verdict.
-pub fn verdict_code(v: beamsift::check::Verdict) -> i32 {
-    match v {
-        beamsift::check::Verdict::Passes => 0,
-        beamsift::check::Verdict::Fails => EXIT_FAILS,
-        beamsift::check::Verdict::NotVerified => super::EXIT_NOT_VERIFIED,
-    }
+    Ok(super::verdict_code(result.verdict))
 }

@@ -140,6 +140,15 @@ pub fn main() -> i32 {
     }
 }
 
+/// The exit code of a verdict.
+pub fn verdict_code(v: beamsift::check::Verdict) -> i32 {
+    match v {
+        beamsift::check::Verdict::Passes => 0,
+        beamsift::check::Verdict::Fails => EXIT_FAILS,
+        beamsift::check::Verdict::NotVerified => EXIT_NOT_VERIFIED,
+    }
+}
+
 /// The documented exit code of an error.
 pub fn exit_code(e: &Error) -> i32 {
     match e {
@@ -187,7 +196,7 @@ impl Command {
                 outputs.push(p.to_path_buf());
                 return;
             }
-            let (md, html) = report::report_paths(p);
+            let (md, html) = output::sheet_paths(p);
             outputs.push(md);
             outputs.push(html);
         };
@@ -219,7 +228,7 @@ impl Command {
             Command::Optimise(a) => inputs.extend(a.job.job.clone()),
             Command::Report(a) => {
                 inputs.extend(a.job.job.clone());
-                inputs.extend(a.catalog.clone());
+                inputs.extend(a.cat.catalog.clone());
                 pair(&a.to, &mut outputs);
             }
             Command::Sweep(sweep::Cmd::Lightest(a)) => {

@@ -64,3 +64,30 @@ pub fn emit(out: &Out, text: &str) -> Result<()> {
 pub fn write_atomic(path: &std::path::Path, bytes: &[u8]) {
     super::files::queue(path, bytes.to_vec());
 }
+
+/// The two files a sheet prefix names: PREFIX.md and PREFIX.html (a
+/// prefix already ending in either is taken without it).
+pub fn sheet_paths(prefix: &std::path::Path) -> (PathBuf, PathBuf) {
+    let s = prefix.as_os_str().to_string_lossy();
+    let s = s
+        .strip_suffix(".md")
+        .or_else(|| s.strip_suffix(".html"))
+        .unwrap_or(&s)
+        .to_string();
+    (
+        PathBuf::from(format!("{s}.md")),
+        PathBuf::from(format!("{s}.html")),
+    )
+}
+
+/// Queue a calculation sheet's two files; returns their paths.
+pub fn write_sheet(
+    w: &beamsift::report::sheet::Written,
+    prefix: &std::path::Path,
+) -> Result<(PathBuf, PathBuf)> {
+    use beamsift::report::sheet;
+    let (md, html) = sheet_paths(prefix);
+    write_atomic(&md, sheet::markdown(&w.sheet).as_bytes());
+    write_atomic(&html, sheet::html(&w.sheet).as_bytes());
+    Ok((md, html))
+}

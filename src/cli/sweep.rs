@@ -92,11 +92,11 @@ fn finish(
     mats: &Materials<'_>,
 ) -> Result<()> {
     let prep = Prepared::new(&job.beam, job.material.clone(), job.criteria.clone())?;
-    let mut legend = super::select::Legend::default();
+    let mut legend = beamsift::report::select::Legend::default();
     for r in rows {
         legend.keys(&prep.not_checked(&r.properties, Some(mats.get(&r.material))));
     }
-    super::select::finish_doc(
+    beamsift::report::select::finish_doc(
         doc,
         &prep.criteria.exclude.list(),
         &prep.assumptions(),

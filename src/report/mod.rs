@@ -7,6 +7,7 @@ pub mod chart;
 pub mod csv_out;
 pub mod markdown;
 pub mod member;
+pub mod select;
 pub mod sheet;
 pub mod text;
 

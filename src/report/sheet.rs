@@ -5,10 +5,133 @@
 
 use super::calc::{self, Sheet, TableOut};
 use super::member::{self, MemberCheck};
-use super::{CAUTION, Table};
-use crate::check::Prepared;
+use super::{Align, CAUTION, Table};
+use crate::check::{Material, Prepared, Verdict};
 use crate::job::Job;
-use crate::units::System;
+use crate::search::{Candidate, Selection};
+use crate::section::Properties;
+use crate::units::{Show, System};
+
+/// A sheet with the verdict it reports.
+pub struct Written {
+    pub sheet: Sheet,
+    pub verdict: Verdict,
+}
+
+impl Written {
+    pub fn verdict_word(&self) -> &'static str {
+        self.verdict.word()
+    }
+}
+
+/// What a sheet is about: the section, where it came from, what else passed.
+pub struct Subject<'a> {
+    pub name: &'a str,
+    pub properties: &'a Properties,
+    /// kg/m.
+    pub mass: f64,
+    pub source: String,
+    pub alternatives: Option<Table>,
+    /// The row's own material, where a catalogue row names a grade.
+    pub material: Option<&'a Material>,
+}
+
+/// Check a section and write its sheet.
+pub fn for_section(job: &Job, prep: &Prepared, s: Subject<'_>, sys: System) -> Written {
+    let r = member::member_check(job, prep, s.name, s.properties, s.mass, s.material);
+    Written {
+        sheet: build(job, prep, &r, &s.source, s.alternatives, sys),
+        verdict: r.verdict,
+    }
+}
+
+/// The sheet of a catalogue row found by a scan (with the next lightest
+/// passing rows as alternatives).
+pub fn for_candidate(
+    job: &Job,
+    prep: &Prepared,
+    sel: &Selection,
+    c: &Candidate,
+    sys: System,
+) -> Written {
+    let mats = crate::catalog::Materials {
+        base: &job.material,
+        grades: &job.grades,
+    };
+    let m = mats.get(&c.material).clone();
+    for_section(
+        job,
+        prep,
+        Subject {
+            name: &c.name,
+            properties: &c.properties,
+            mass: c.mass,
+            source: candidate_source(sel, c),
+            alternatives: alternatives(&sel.lists[0].items, &c.name, sys),
+            material: Some(&m),
+        },
+        sys,
+    )
+}
+
+/// A table of alternatives from a scan.
+pub fn alternatives(list: &[Candidate], skip: &str, sys: System) -> Option<Table> {
+    let mut t = Table::new(
+        "Next lightest passing sections",
+        &[
+            ("Section", Align::Left),
+            ("Mass", Align::Right),
+            ("Depth", Align::Right),
+            ("Utilisation", Align::Right),
+            ("Governed by", Align::Left),
+        ],
+    );
+    for c in list.iter().filter(|c| c.name != skip).take(5) {
+        t.row(vec![
+            c.name.clone(),
+            Show::Mass.fmt(c.mass, sys),
+            Show::Dimension.fmt(c.depth, sys),
+            format!("{:.3}", c.utilisation),
+            c.governing
+                .map(|g| g.kind.label().to_string())
+                .unwrap_or_default(),
+        ]);
+    }
+    (!t.rows.is_empty()).then_some(t)
+}
+
+/// How the scan that found a sheet's section read its catalogue: rows
+/// read, the filters and what they left out, bad rows skipped.
+pub fn scan_note(sel: &Selection, filters: &crate::search::Filters, skip_bad_rows: bool) -> String {
+    let c = &sel.counts;
+    let mut s = format!("chosen among {} row(s) read", c.rows);
+    let f = filters.describe();
+    if !f.is_empty() {
+        s.push_str(&format!(
+            ", filtered to {} ({} row(s) left out)",
+            f.join(", "),
+            c.filtered
+        ));
+    }
+    if skip_bad_rows {
+        s.push_str(&format!(", {} bad row(s) skipped", c.bad));
+    }
+    s
+}
+
+/// Where a catalogue section's properties came from, for the sheet.
+pub fn candidate_source(sel: &Selection, c: &Candidate) -> String {
+    format!(
+        "catalogue {} line {}; {}",
+        sel.files.get(c.file).cloned().unwrap_or_default(),
+        c.line,
+        if c.shape.is_some() {
+            "properties computed from its dimensions (given values used where the row has them)"
+        } else {
+            "properties as given by the row"
+        }
+    )
+}
 
 /// Assemble the sheet for a checked member.
 pub fn build(
@@ -48,7 +171,7 @@ pub fn build(
             g.label,
             g.combination,
             g.part,
-            if r.verdict == crate::check::Verdict::NotVerified {
+            if r.verdict == Verdict::NotVerified {
                 " Some limit states that apply could not be evaluated (section 7): this is not a pass."
             } else {
                 ""

@@ -78,6 +78,32 @@ pub fn glob(pattern: &str, s: &str) -> bool {
 }
 
 impl Filters {
+    /// The filters in words (empty when none is set), e.g. "in stock only,
+    /// depth at most 350 mm".
+    pub fn describe(&self) -> Vec<String> {
+        let mm = |v: f64| format!("{} mm", crate::units::fmt_num(v));
+        let mut out = Vec::new();
+        if let Some(v) = self.max_depth {
+            out.push(format!("depth at most {}", mm(v)));
+        }
+        if let Some(v) = self.min_depth {
+            out.push(format!("depth at least {}", mm(v)));
+        }
+        if let Some(v) = self.max_width {
+            out.push(format!("width at most {}", mm(v)));
+        }
+        if let Some(g) = &self.grade {
+            out.push(format!("grade {g}"));
+        }
+        if self.in_stock_only {
+            out.push("in stock only".into());
+        }
+        if let Some(n) = &self.name {
+            out.push(format!("names matching '{n}'"));
+        }
+        out
+    }
+
     fn admits(&self, row: &Row<'_>) -> bool {
         let d = row.props.depth;
         if self.max_depth.is_some_and(|m| d > m * (1.0 + 1e-12)) {
@@ -272,6 +298,36 @@ pub struct Selection {
     pub suspects: Vec<Suspect>,
     /// Files with more than `SUSPECT_CAP` suspects: confirm every name.
     pub check_all_names: Vec<usize>,
+}
+
+impl Selection {
+    /// The row with exactly this name among every row kept (ranked, near
+    /// misses, not verified), whatever its verdict; the error names rows
+    /// that differ only in case.
+    pub fn named(&self, name: &str) -> Result<&Candidate> {
+        let all = || {
+            self.lists[0]
+                .items
+                .iter()
+                .chain(self.near_misses.items.iter())
+                .chain(self.unverified.items.iter())
+        };
+        if let Some(c) = all().find(|c| c.name == name) {
+            return Ok(c);
+        }
+        let similar: Vec<String> = all()
+            .filter(|c| c.name.eq_ignore_ascii_case(name))
+            .map(|c| format!("'{}'", c.name))
+            .collect();
+        Err(if similar.is_empty() {
+            Error::msg(format!("no section named '{name}' in the catalogue"))
+        } else {
+            Error::msg(format!(
+                "no section named '{name}' in the catalogue (names are matched exactly, case included); similar: {}",
+                similar.join(", ")
+            ))
+        })
+    }
 }
 
 /// What the parallel phase hands to the merge: small, so moving a chunk

@@ -1,0 +1,534 @@
+//! The selection and the shortlist: ranked rows as serialised, and their
+//! documents (the tables a person reads). Built from a finished scan; no
+//! checking happens here.
+
+use super::{Align, CAUTION, Document, Table, member};
+use crate::check::{Prepared, Verdict};
+use crate::job::Job;
+use crate::search::{self, Candidate, Rank, Selection};
+use crate::units::{self, Show, System};
+use serde::Serialize;
+
+/// A ranked row as printed and serialised.
+#[derive(Serialize)]
+pub struct RankedRow {
+    pub rank: usize,
+    #[serde(flatten)]
+    pub candidate: Candidate,
+    pub governing_check: String,
+    pub governing_combination: String,
+    pub governing_where: String,
+    /// 1 − utilisation.
+    pub margin: f64,
+    pub file: String,
+}
+
+#[derive(Serialize)]
+pub struct SelectResult<'a> {
+    pub title: String,
+    pub rank: Rank,
+    pub passing: Vec<RankedRow>,
+    pub pareto: Vec<RankedRow>,
+    pub near_misses: Vec<RankedRow>,
+    /// Rows that are not verified, lightest first (never ranked with the
+    /// passing ones unless --include-unverified).
+    pub not_verified: Vec<RankedRow>,
+    pub counts: &'a search::Counts,
+    pub skipped_rows: &'a [String],
+    pub currency: String,
+    pub excluded: Vec<String>,
+    pub assumptions: Vec<String>,
+    pub notes: Vec<String>,
+    pub caution: &'static str,
+}
+
+pub fn ranked(prep: &Prepared, sel: &Selection, list: &[Candidate]) -> Vec<RankedRow> {
+    list.iter()
+        .enumerate()
+        .map(|(i, c)| {
+            let (check, combo, place) = match &c.governing {
+                Some(g) => (
+                    g.kind.short().to_string(),
+                    prep.demand.combos[g.combo].name.clone(),
+                    format!("{}, {}", member::part_of(prep, g), format_x(g.x)),
+                ),
+                None => (String::new(), String::new(), String::new()),
+            };
+            RankedRow {
+                rank: i + 1,
+                candidate: c.clone(),
+                governing_check: check,
+                governing_combination: combo,
+                governing_where: place,
+                margin: 1.0 - c.utilisation,
+                file: sel.files.get(c.file).cloned().unwrap_or_default(),
+            }
+        })
+        .collect()
+}
+
+fn format_x(x: f64) -> String {
+    format!("x = {} m", units::fmt_num(x / 1000.0))
+}
+
+fn row_cells(r: &RankedRow, sys: System, legend: &mut Legend) -> Vec<String> {
+    let c = &r.candidate;
+    vec![
+        r.rank.to_string(),
+        if c.verdict == Verdict::NotVerified {
+            format!("{} (NOT VERIFIED)", c.name)
+        } else {
+            c.name.clone()
+        },
+        Show::Mass.fixed(c.mass, sys, 1),
+        Show::Dimension.num(c.depth, sys),
+        format!("{:.3}", c.utilisation),
+        r.governing_check.clone(),
+        r.governing_combination.clone(),
+        r.governing_where.clone(),
+        c.cost
+            .map(|v| format!("{:.2}", per_len(v, sys)))
+            .unwrap_or_else(|| "—".into()),
+        if c.pareto {
+            "yes".into()
+        } else {
+            String::new()
+        },
+        legend.keys(&c.not_checked),
+    ]
+}
+
+/// Short keys for the lists of what is not checked, with their legend: each
+/// row of a table carries its own list, printed as keys.
+#[derive(Default)]
+pub struct Legend {
+    items: Vec<String>,
+}
+
+impl Legend {
+    pub fn keys(&mut self, list: &[String]) -> String {
+        list.iter()
+            .map(|s| {
+                let i = match self.items.iter().position(|x| x == s) {
+                    Some(i) => i,
+                    None => {
+                        self.items.push(s.clone());
+                        self.items.len() - 1
+                    }
+                };
+                ((b'a' + (i % 26) as u8) as char).to_string()
+            })
+            .collect::<Vec<_>>()
+            .join(" ")
+    }
+    pub fn into_list(self) -> Vec<String> {
+        self.items
+            .into_iter()
+            .enumerate()
+            .map(|(i, s)| format!("{}: {s}", (b'a' + (i % 26) as u8) as char))
+            .collect()
+    }
+}
+
+/// Cost per display length (m or ft) from cost per mm.
+pub fn per_len(cost_per_mm: f64, sys: System) -> f64 {
+    cost_per_mm * Show::Span.unit(sys).1
+}
+
+fn headers(sys: System, cur: &str) -> Vec<(String, Align)> {
+    vec![
+        ("#".into(), Align::Right),
+        ("Section".into(), Align::Left),
+        (format!("Mass [{}]", Show::Mass.label(sys)), Align::Right),
+        (
+            format!("Depth [{}]", Show::Dimension.label(sys)),
+            Align::Right,
+        ),
+        ("Utilisation".into(), Align::Right),
+        ("Governed by".into(), Align::Left),
+        ("Combination".into(), Align::Left),
+        ("Where".into(), Align::Left),
+        (
+            format!("Cost [{cur}/{}]", Show::Span.label(sys)),
+            Align::Right,
+        ),
+        ("Mass–depth front".into(), Align::Left),
+        ("Not checked".into(), Align::Left),
+    ]
+}
+
+fn table(title: &str, rows: &[RankedRow], sys: System, cur: &str, legend: &mut Legend) -> Table {
+    let hs = headers(sys, cur);
+    let refs: Vec<(&str, Align)> = hs.iter().map(|(h, a)| (h.as_str(), *a)).collect();
+    let mut t = Table::new(title, &refs);
+    for r in rows {
+        t.row(row_cells(r, sys, legend));
+    }
+    t
+}
+
+pub fn counts_line(sel: &Selection, skip_bad_rows: bool) -> String {
+    let c = &sel.counts;
+    let mut s = format!(
+        "{} row(s) read from {}: {} checked, {} pass, {} fail, {} not verified",
+        c.rows,
+        sel.files.join(", "),
+        c.checked,
+        c.passing,
+        c.failing,
+        c.not_verified
+    );
+    if c.filtered > 0 {
+        s.push_str(&format!(", {} left out by the filters", c.filtered));
+    }
+    if c.bad > 0 || skip_bad_rows {
+        s.push_str(&format!(", {} bad row(s) skipped", c.bad));
+    }
+    s.push('.');
+    s
+}
+
+/// The not-verified rows, each with its reasons (never ranked with the
+/// passing ones).
+pub fn not_verified_table(doc: &mut Document, rows: &[RankedRow], sys: System) {
+    let mut t = Table::new(
+        "Not verified (nothing evaluated fails, but a limit state that applies could not be evaluated; not ranked)",
+        &[
+            ("Section", Align::Left),
+            (&format!("Mass [{}]", Show::Mass.label(sys)), Align::Right),
+            ("Utilisation of what was evaluated", Align::Right),
+            ("Not verified", Align::Left),
+        ],
+    );
+    for r in rows {
+        t.row(vec![
+            r.candidate.name.clone(),
+            Show::Mass.fixed(r.candidate.mass, sys, 1),
+            format!("{:.3}", r.candidate.utilisation),
+            r.candidate.not_verified.join("; "),
+        ]);
+    }
+    doc.table(t);
+}
+
+/// The end of every selection-like document: exclusions, assumptions,
+/// notes, the legend of what is not checked, and the caution.
+pub fn finish_doc(
+    doc: &mut Document,
+    excluded: &[String],
+    assumptions: &[String],
+    notes: &[String],
+    legend: Legend,
+) {
+    doc.excluded(excluded.to_vec());
+    doc.assumptions(assumptions.to_vec());
+    if !notes.is_empty() {
+        doc.list("Notes:", notes.to_vec());
+    }
+    doc.caution(legend.into_list());
+}
+
+#[derive(Serialize)]
+pub struct PricedRow {
+    #[serde(flatten)]
+    pub row: RankedRow,
+    /// mm, all pieces.
+    pub total_length: f64,
+    /// kg.
+    pub total_mass: f64,
+    pub total_cost: Option<f64>,
+}
+
+#[derive(Serialize)]
+pub struct ShortlistResult {
+    pub title: String,
+    pub count: u32,
+    /// mm per piece.
+    pub length: f64,
+    pub currency: String,
+    pub by_cost: Vec<PricedRow>,
+    pub by_mass: Vec<PricedRow>,
+    pub counts: search::Counts,
+    pub excluded: Vec<String>,
+    pub assumptions: Vec<String>,
+    pub notes: Vec<String>,
+    pub caution: &'static str,
+}
+
+impl<'a> SelectResult<'a> {
+    /// The result of a scan, ranked as the document and JSON show it.
+    pub fn new(
+        job: &Job,
+        prep: &Prepared,
+        sel: &'a Selection,
+        rank: Rank,
+        currency: String,
+    ) -> SelectResult<'a> {
+        SelectResult {
+            title: job.title.clone(),
+            rank,
+            passing: ranked(prep, sel, &sel.lists[0].items),
+            pareto: ranked(prep, sel, &sel.pareto),
+            near_misses: ranked(prep, sel, &sel.near_misses.items),
+            not_verified: ranked(prep, sel, &sel.unverified.items),
+            counts: &sel.counts,
+            skipped_rows: &sel.skipped,
+            currency,
+            excluded: prep.criteria.exclude.list(),
+            assumptions: prep.assumptions(),
+            notes: job.notes.clone(),
+            caution: CAUTION,
+        }
+    }
+
+    /// How many of the ranked rows pass (not verified ones may be listed
+    /// with them under --include-unverified).
+    pub fn passing_count(&self) -> usize {
+        self.passing.iter().filter(|r| r.candidate.passes).count()
+    }
+}
+
+/// How a selection is shown.
+pub struct SelectView<'a> {
+    pub sys: System,
+    pub include_unverified: bool,
+    pub skip_bad_rows: bool,
+    /// A line about the calculation sheet written for the best row.
+    pub sheet_line: Option<String>,
+    pub job: &'a Job,
+    pub selection: &'a Selection,
+}
+
+/// The document of a selection.
+pub fn select_document(result: &SelectResult<'_>, v: &SelectView<'_>) -> Document {
+    let (sys, cur, job, sel) = (v.sys, &result.currency, v.job, v.selection);
+    let mut legend = Legend::default();
+    let mut doc = Document::new(format!("Selection for {}", job.title));
+    for t in member::job_tables(job, sys) {
+        doc.table(t);
+    }
+    doc.para(counts_line(sel, v.skip_bad_rows));
+    let rank_word = match result.rank {
+        Rank::Mass => "lightest first",
+        Rank::Cost => "cheapest first",
+        Rank::Depth => "shallowest first",
+        Rank::Utilisation => "most utilised first",
+    };
+    if result.passing_count() == 0 && result.near_misses.is_empty() {
+        doc.para(
+            "No section passes, and none fails either: every section checked is not verified (listed below with the reasons).",
+        );
+    } else if result.passing_count() == 0 {
+        doc.para("No section passes. The nearest misses, with what governs and by how much:");
+        let mut t = table(
+            "Nearest misses (lowest utilisation first)",
+            &result.near_misses,
+            sys,
+            cur,
+            &mut legend,
+        );
+        t.headers[9] = "Over by".into();
+        for (row, r) in t.rows.iter_mut().zip(&result.near_misses) {
+            row[9] = format!("{:.1} %", 100.0 * (r.candidate.utilisation - 1.0));
+        }
+        doc.table(t);
+    } else {
+        doc.table(table(
+            &if v.include_unverified {
+                format!("Passing and NOT VERIFIED sections (--include-unverified), {rank_word}")
+            } else {
+                format!("Passing sections, {rank_word}")
+            },
+            &result.passing,
+            sys,
+            cur,
+            &mut legend,
+        ));
+        if let Some(best) = result.passing.iter().find(|r| r.candidate.passes) {
+            doc.para(format!(
+                "Best: {} — {} {}, utilisation {:.3} ({} under {}, {}), margin {:.1} %.",
+                best.candidate.name,
+                Show::Mass.fixed(best.candidate.mass, sys, 1),
+                Show::Mass.label(sys),
+                best.candidate.utilisation,
+                best.governing_check,
+                best.governing_combination,
+                best.governing_where,
+                100.0 * best.margin
+            ));
+        }
+        let front: Vec<String> = result
+            .pareto
+            .iter()
+            .map(|r| {
+                format!(
+                    "{} ({} {}, {} {})",
+                    r.candidate.name,
+                    Show::Mass.num(r.candidate.mass, sys),
+                    Show::Mass.label(sys),
+                    Show::Dimension.num(r.candidate.depth, sys),
+                    Show::Dimension.label(sys)
+                )
+            })
+            .collect();
+        doc.list(
+            "Mass–depth front (no other passing section is both lighter and shallower):",
+            front,
+        );
+    }
+    // The reasons are listed whenever a section is not verified, also when
+    // --include-unverified shows it among the passing ones.
+    if !result.not_verified.is_empty() {
+        not_verified_table(&mut doc, &result.not_verified, sys);
+    }
+    if !sel.skipped.is_empty() {
+        doc.list(
+            "Skipped rows:",
+            sel.skipped.iter().take(10).cloned().collect(),
+        );
+    }
+    if let Some(line) = &v.sheet_line {
+        doc.para(line.clone());
+    }
+    finish_doc(
+        &mut doc,
+        &result.excluded,
+        &result.assumptions,
+        &result.notes,
+        legend,
+    );
+    doc
+}
+
+impl ShortlistResult {
+    /// The priced shortlist of a scan ranked by cost (first list) and by
+    /// mass (second list).
+    pub fn new(
+        job: &Job,
+        prep: &Prepared,
+        sel: &Selection,
+        count: u32,
+        length: f64,
+        currency: String,
+    ) -> ShortlistResult {
+        let total_len = length * count as f64;
+        let priced = |list: &[Candidate]| -> Vec<PricedRow> {
+            ranked(prep, sel, list)
+                .into_iter()
+                .map(|r| PricedRow {
+                    total_length: total_len,
+                    total_mass: r.candidate.mass * total_len / 1000.0,
+                    total_cost: r.candidate.cost.map(|c| c * total_len),
+                    row: r,
+                })
+                .collect()
+        };
+        ShortlistResult {
+            title: job.title.clone(),
+            count,
+            length,
+            currency,
+            by_cost: priced(&sel.lists[0].items),
+            by_mass: priced(&sel.lists[1].items),
+            counts: sel.counts.clone(),
+            excluded: prep.criteria.exclude.list(),
+            assumptions: prep.assumptions(),
+            notes: job.notes.clone(),
+            caution: CAUTION,
+        }
+    }
+}
+
+/// The document of a shortlist.
+pub fn shortlist_document(
+    result: &ShortlistResult,
+    prep: &Prepared,
+    sel: &Selection,
+    sys: System,
+    skip_bad_rows: bool,
+) -> Document {
+    let cur = &result.currency;
+    let total_len = result.length * result.count as f64;
+    let mut doc = Document::new(format!("Shortlist for {}", result.title));
+    doc.para(format!(
+        "{} piece(s) of {} each = {} in all. {}",
+        result.count,
+        Show::Span.fmt(result.length, sys),
+        Show::Span.fmt(total_len, sys),
+        counts_line(sel, skip_bad_rows)
+    ));
+    let mut legend = Legend::default();
+    let w = if sys == System::Si { "kg" } else { "lb" };
+    let wf = if sys == System::Si {
+        1.0
+    } else {
+        1.0 / units::KG_PER_LB
+    };
+    for (title, list) in [
+        ("Cheapest passing sections", &result.by_cost),
+        ("Lightest passing sections", &result.by_mass),
+    ] {
+        let mut t = Table::new(
+            title,
+            &[
+                ("#", Align::Right),
+                ("Section", Align::Left),
+                (&format!("Mass [{}]", Show::Mass.label(sys)), Align::Right),
+                (
+                    &format!("Depth [{}]", Show::Dimension.label(sys)),
+                    Align::Right,
+                ),
+                ("Utilisation", Align::Right),
+                ("Governed by", Align::Left),
+                (
+                    &format!("Unit cost [{cur}/{}]", Show::Span.label(sys)),
+                    Align::Right,
+                ),
+                (&format!("Total mass [{w}]"), Align::Right),
+                (&format!("Total cost [{cur}]"), Align::Right),
+                ("Mass–depth front", Align::Left),
+                ("Not checked", Align::Left),
+            ],
+        );
+        for p in list {
+            let c = &p.row.candidate;
+            t.row(vec![
+                p.row.rank.to_string(),
+                c.name.clone(),
+                Show::Mass.fixed(c.mass, sys, 1),
+                Show::Dimension.num(c.depth, sys),
+                format!("{:.3}", c.utilisation),
+                p.row.governing_check.clone(),
+                c.cost
+                    .map(|v| format!("{:.2}", per_len(v, sys)))
+                    .unwrap_or_else(|| "—".into()),
+                format!("{:.0}", p.total_mass * wf),
+                p.total_cost
+                    .map(|v| format!("{:.2}", v))
+                    .unwrap_or_else(|| "—".into()),
+                if c.pareto {
+                    "yes".into()
+                } else {
+                    String::new()
+                },
+                legend.keys(&c.not_checked),
+            ]);
+        }
+        doc.table(t);
+    }
+    if result.by_mass.is_empty() {
+        doc.para("No section passes: run `beamsift select` to see the nearest misses.");
+    }
+    let unverified = ranked(prep, sel, &sel.unverified.items);
+    if !unverified.is_empty() {
+        not_verified_table(&mut doc, &unverified, sys);
+    }
+    finish_doc(
+        &mut doc,
+        &result.excluded,
+        &result.assumptions,
+        &result.notes,
+        legend,
+    );
+    doc
+}
