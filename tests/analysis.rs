@@ -4,6 +4,8 @@
 //! Table 8.1 (from memory). The analysis is exact for these load types,
 //! so the tolerance is round-off: 1e-9 relative.
 
+mod common;
+
 use beamsift::beam::demand::element_extremes;
 use beamsift::beam::solve::{self};
 use beamsift::beam::*;
@@ -11,12 +13,15 @@ use proptest::prelude::*;
 
 const TOL: f64 = 1e-9;
 
+/// This file's round-off check: the shared one with TOL and a floor of
+/// 1e-6 (values that vanish are held to 1e-15 absolute, not 1e-9).
+#[track_caller]
 fn close(what: &str, got: f64, want: f64) {
-    let ok = (got - want).abs() <= TOL * want.abs().max(1e-6);
-    assert!(ok, "{what}: got {got}, expected {want}");
+    common::close_floor(what, got, want, TOL, 1e-6);
 }
 
-/// Beam with one dead case and one strength combination (factor 1).
+/// Beam with one dead case and one strength combination (factor 1), no
+/// loads yet: each test places its own (the common builders load the span).
 fn single(spans: Vec<f64>, supports: Vec<Support>) -> (Beam, usize) {
     let mut b = Beam::new(spans, supports);
     let d = b.case("D", Category::Dead);

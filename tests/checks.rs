@@ -106,20 +106,24 @@ fn w14x22_limiting_lengths_aisc_table_3_2() {
     };
     let ft = 304.8;
     let kipft = 4448.222 * 304.8;
-    let near = |a: f64, b: f64, tol: f64| ((a - b) / b).abs() < tol;
-    assert!(near(lp / ft, 3.67, 0.03), "Lp {}", lp / ft);
-    assert!(near(lr / ft, 10.4, 0.03), "Lr {}", lr / ft);
-    assert!(near(mp / 1.67 / kipft, 82.8, 0.03));
-    assert!(near(mr / 1.67 / kipft, 50.6, 0.03));
+    common::close("Lp [ft]", lp / ft, 3.67, 0.03);
+    common::close("Lr [ft]", lr / ft, 10.4, 0.03);
+    common::close("Mp/Ωb [kip-ft]", mp / 1.67 / kipft, 82.8, 0.03);
+    common::close("Mr/Ωb [kip-ft]", mr / 1.67 / kipft, 50.6, 0.03);
     // The F2-2 line and the F2-3 curve meet at Lr (Cb = 1): a check that
     // F2-4 and F2-6 were typed in correctly.
     let below = f.ltb.nominal(e, lr * (1.0 - 1e-9), 1.0).mn;
     let above = f.ltb.nominal(e, lr * (1.0 + 1e-9), 1.0).mn;
     // F2-6 carries the rounded constants 1.95 and 6.76 (exact: 1.949 and
     // 6.748 from F2-4 with Fcr = 0.7Fy), so the two meet to about 0.2 %.
-    assert!(near(below, mr, 1e-9), "{below} {mr}");
-    assert!(near(above, below, 2e-3), "{below} {above}");
-    assert!(near(f.ltb.nominal(e, 0.5 * lp, 1.0).mn, mp, 1e-12));
+    common::close("Mn just below Lr = Mr", below, mr, 1e-9);
+    common::close("Mn just above Lr", above, below, 2e-3);
+    common::close(
+        "Mn at Lp/2 = Mp",
+        f.ltb.nominal(e, 0.5 * lp, 1.0).mn,
+        mp,
+        1e-12,
+    );
     // Uniform moment gives Cb = 1; a uniform load on a simple span gives
     // 1.14 (AISC 360-16 Commentary Fig. C-F1.2, from memory).
     assert!((cb(1.0, 1.0, 1.0, 1.0) - 1.0).abs() < 1e-12);

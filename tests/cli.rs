@@ -1,26 +1,8 @@
 //! End-to-end: the real binary, run as a user would, in a temporary folder.
 
-use std::path::PathBuf;
-use std::process::{Command, Output};
+mod common;
 
-fn bin() -> Command {
-    Command::new(env!("CARGO_BIN_EXE_beamsift"))
-}
-
-fn repo(p: &str) -> PathBuf {
-    PathBuf::from(env!("CARGO_MANIFEST_DIR")).join(p)
-}
-
-fn run(args: &[&str]) -> Output {
-    bin().args(args).output().expect("binary runs")
-}
-
-fn text(o: &Output) -> (String, String) {
-    (
-        String::from_utf8_lossy(&o.stdout).into_owned(),
-        String::from_utf8_lossy(&o.stderr).into_owned(),
-    )
-}
+use common::{repo, run, text};
 
 const IPE300: [&str; 6] = [
     "rolled-i",

@@ -2,17 +2,16 @@
 //! is fed to the real binary. Each run must end with the documented
 //! bad-input exit code (2), a message naming the file and a line/column or
 //! field, no panic, and no output file left behind. Then every case of
-//! tests/corpus/cases.txt (a command, its documented exit code and the text
-//! its message must hold, with the file's line and column where there is
-//! one) runs in a scratch folder.
+//! tests/corpus/cases.trycmd (a command, its documented exit code and all
+//! it prints, with the text its message must hold: the file's line and
+//! column where there is one) runs by trycmd in a scratch folder.
 
 mod common;
 
 use std::path::{Path, PathBuf};
-use std::process::Command;
 
 fn root() -> PathBuf {
-    PathBuf::from(env!("CARGO_MANIFEST_DIR"))
+    common::repo("")
 }
 
 fn files(dir: &str) -> Vec<PathBuf> {
@@ -27,7 +26,7 @@ fn files(dir: &str) -> Vec<PathBuf> {
 fn run_case(args: &[&str], file: &Path, failures: &mut Vec<String>) {
     let dir = tempfile::tempdir().unwrap();
     let out = dir.path().join("out.txt");
-    let o = Command::new(env!("CARGO_BIN_EXE_beamsift"))
+    let o = common::bin()
         .args(args)
         .arg("-o")
         .arg(&out)
@@ -143,79 +142,76 @@ fn listing(dir: &Path) -> Vec<(PathBuf, u64, std::time::SystemTime)> {
     v
 }
 
+/// The cases of tests/corpus/cases.trycmd, run by trycmd in a scratch
+/// folder; then every case's expected output must hold the text its
+/// `Holds:` line names and no panic, and the folder must be as it was.
 #[test]
 fn every_listed_case_ends_as_documented() {
-    let text = std::fs::read_to_string(root().join("tests/corpus/cases.txt")).unwrap();
+    let src = root().join("tests/corpus/cases.trycmd");
     let scratch = tempfile::tempdir().unwrap();
-    common::copy_dir(&root().join("catalogs"), &scratch.path().join("catalogs"));
-    common::copy_dir(
-        &root().join("tests/corpus/cases"),
-        &scratch.path().join("cases"),
+    let base = scratch.path().join("cases.in");
+    common::copy_dir(&root().join("catalogs"), &base.join("catalogs"));
+    common::copy_dir(&root().join("tests/corpus/cases"), &base.join("cases"));
+    let case = scratch.path().join("cases.trycmd");
+    std::fs::copy(&src, &case).unwrap();
+    let before = listing(&base);
+    let bin = std::path::Path::new(env!("CARGO_BIN_EXE_beamsift"));
+    trycmd::TestCases::new()
+        .register_bin("beamsift", bin)
+        // For the cases that read standard input from a file.
+        .register_bin("sh", std::path::Path::new("/bin/sh"))
+        .env("BEAMSIFT", bin.to_string_lossy())
+        .case(&case)
+        .run();
+    if std::env::var_os("TRYCMD").is_some_and(|m| m == "overwrite") {
+        std::fs::copy(&case, &src).unwrap();
+    }
+    assert!(
+        listing(&base) == before,
+        "a case changed the scratch folder (no case in cases.trycmd may write a file)"
     );
+    let text = std::fs::read_to_string(&src).unwrap();
     let mut failures = Vec::new();
     let mut n = 0;
-    for (k, line) in text.lines().enumerate() {
-        let line = line.trim();
-        if line.is_empty() || line.starts_with('#') {
-            continue;
-        }
-        n += 1;
-        let parts: Vec<&str> = line.splitn(3, " | ").collect();
-        assert_eq!(
-            parts.len(),
-            3,
-            "cases.txt:{}: expected 'exit | text | arguments'",
-            k + 1
-        );
-        let exit: i32 = parts[0].trim().parse().unwrap();
-        let want = parts[1].replace("\\n", "\n");
-        let (args, stdin) = match parts[2].split_once(" < ") {
-            Some((a, f)) => (a, Some(f.trim())),
-            None => (parts[2], None),
-        };
-        let args: Vec<&str> = args.split_whitespace().collect();
-        let before = listing(scratch.path());
-        let mut cmd = Command::new(env!("CARGO_BIN_EXE_beamsift"));
-        cmd.args(&args).current_dir(scratch.path());
-        cmd.stdin(match stdin {
-            Some(f) => {
-                std::process::Stdio::from(std::fs::File::open(scratch.path().join(f)).unwrap())
+    let mut holds: Option<(usize, String)> = None;
+    let mut lines = text.lines().enumerate();
+    while let Some((k, l)) = lines.next() {
+        if let Some(h) = l.strip_prefix("Holds: `").and_then(|h| h.strip_suffix('`')) {
+            holds = Some((k + 1, h.replace("\\n", "\n")));
+        } else if l == "```console" {
+            n += 1;
+            let body: Vec<&str> = lines
+                .by_ref()
+                .map(|x| x.1)
+                .take_while(|x| *x != "```")
+                .collect();
+            let Some((at, want)) = holds.take() else {
+                failures.push(format!(
+                    "cases.trycmd:{}: no 'Holds:' line before the case",
+                    k + 1
+                ));
+                continue;
+            };
+            // `? N`: the exit code; none for 0 (trycmd's default, success).
+            let status = body.get(1).and_then(|s| s.strip_prefix("? "));
+            if !body[0].starts_with("$ ") || status.is_some_and(|s| s.parse::<i32>().is_err()) {
+                failures.push(format!(
+                    "cases.trycmd:{}: expected '$ command' and '? exit code'",
+                    k + 2
+                ));
+                continue;
             }
-            None => std::process::Stdio::null(),
-        });
-        let o = cmd.output().unwrap();
-        let all = format!(
-            "{}{}",
-            String::from_utf8_lossy(&o.stdout),
-            String::from_utf8_lossy(&o.stderr)
-        );
-        let mut why = Vec::new();
-        if o.status.code() != Some(exit) {
-            why.push(format!("exit {:?} (expected {exit})", o.status.code()));
-        }
-        if !all.contains(&want) {
-            why.push(format!("output does not hold '{want}'"));
-        }
-        if all.contains("panicked") || all.contains("internal error") {
-            why.push("panicked".into());
-        }
-        if exit != 0 && listing(scratch.path()) != before {
-            why.push("a refused command changed the folder".into());
-        }
-        if !why.is_empty() {
-            failures.push(format!(
-                "cases.txt:{}: {} — {}",
-                k + 1,
-                why.join("; "),
-                all.lines().take(4).collect::<Vec<_>>().join(" / ")
-            ));
+            let expected = body[if status.is_some() { 2 } else { 1 }..].join("\n");
+            if !expected.contains(&want) {
+                failures.push(format!(
+                    "cases.trycmd:{at}: the output does not hold '{want}'"
+                ));
+            }
+            if expected.contains("panicked") || expected.contains("internal error") {
+                failures.push(format!("cases.trycmd:{}: panicked", k + 2));
+            }
         }
     }
-    assert!(n >= 60, "cases.txt has {n} cases; at least 60 expected");
-    assert!(
-        failures.is_empty(),
-        "{} of {n} cases failed:\n{}",
-        failures.len(),
-        failures.join("\n")
-    );
+    assert!(n >= 60, "cases.trycmd has {n} cases; at least 60 expected");
+    assert!(failures.is_empty(), "{}", failures.join("\n"));
 }

@@ -6,18 +6,10 @@
 
 mod common;
 
-use common::repo;
+use common::{bin, repo, run_in};
 use proptest::prelude::*;
 use std::path::{Path, PathBuf};
-use std::process::{Command, Output, Stdio};
-
-fn bin() -> Command {
-    Command::new(env!("CARGO_BIN_EXE_beamsift"))
-}
-
-fn run_in(dir: &Path, args: &[String]) -> Output {
-    bin().args(args).current_dir(dir).output().unwrap()
-}
+use std::process::{Command, Stdio};
 
 fn s(x: &str) -> String {
     x.to_string()

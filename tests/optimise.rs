@@ -8,20 +8,9 @@ use beamsift::check::*;
 use beamsift::optimise::discrete::{self, Grid};
 use beamsift::optimise::{self, Family, Objective, Problem};
 
+/// A simple span under dead load, D ≤ L/360 (self-weight set per test).
 fn beam(l: f64, w: f64) -> Beam {
-    let mut b = Beam::new(vec![l], vec![Support::Pinned, Support::Roller]);
-    let d = b.case("D", Category::Dead);
-    b.udl(d, w);
-    b.combo("D", ComboKind::Strength, &[(d, 1.0)]);
-    b.service(
-        "D",
-        &[(d, 1.0)],
-        DeflectionLimit {
-            ratio: Some(360.0),
-            absolute: None,
-        },
-    );
-    b
+    common::dead_span(l, w, 360.0)
 }
 
 /// Allowable bending stress only (no Fv).

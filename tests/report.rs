@@ -1,11 +1,14 @@
 //! The calculation sheet: deterministic bytes (snapshots), numbers that
-//! agree with the check result, and well-formed HTML.
+//! agree with the check result and a hand calculation, and well-formed
+//! HTML.
+
+mod common;
 
 use beamsift::check::Prepared;
 use beamsift::job::from_toml;
 use beamsift::report::{member, sheet};
 use beamsift::section::Shape;
-use beamsift::units::{Show, System};
+use beamsift::units::System;
 
 const JOB: &str = r#"
 title = "Snapshot beam (invented test data)"
@@ -66,52 +69,176 @@ fn build() -> (String, String, member::MemberCheck) {
     (sheet::markdown(&s), sheet::html(&s), r)
 }
 
-/// Same input, same bytes; and the bytes match the reviewed snapshot
-/// (set BEAMSIFT_UPDATE_SNAPSHOTS=1 to rewrite it after reviewing a change).
+/// The Markdown sheet with each chart's base64 data URI replaced by the SVG
+/// it encodes (so a snapshot diff reads), after checking that encoding the
+/// SVG again gives the very same blob (so the snapshot still pins every
+/// byte of the sheet).
+fn readable(md: &str) -> String {
+    use base64::Engine;
+    const URI: &str = "data:image/svg+xml;base64,";
+    let b64 = base64::engine::general_purpose::STANDARD;
+    let mut out = String::new();
+    let mut rest = md;
+    let mut charts = 0;
+    while let Some(i) = rest.find(URI) {
+        let blob_start = i + URI.len();
+        let len = rest[blob_start..]
+            .find(')')
+            .expect("a data URI inside an image link");
+        let blob = &rest[blob_start..blob_start + len];
+        let svg = b64.decode(blob).expect("valid base64");
+        assert_eq!(
+            b64.encode(&svg),
+            blob,
+            "the blob is the SVG's canonical base64"
+        );
+        let svg = String::from_utf8(svg).expect("the SVG is UTF-8");
+        out.push_str(&rest[..blob_start]);
+        out.push_str("[SVG below, decoded for the snapshot])\n");
+        out.push_str(&svg);
+        if !svg.ends_with('\n') {
+            out.push('\n');
+        }
+        out.push_str("[end of SVG]");
+        rest = &rest[blob_start + len + 1..];
+        charts += 1;
+    }
+    out.push_str(rest);
+    assert_eq!(charts, 3, "V, M and deflection diagrams");
+    out
+}
+
+/// Same input, same bytes; and the bytes match the reviewed snapshots in
+/// tests/snapshots (insta: review a deliberate change with `cargo insta
+/// review`, or accept it with INSTA_UPDATE=always; a mismatch fails).
 #[test]
 fn report_is_deterministic_and_matches_snapshot() {
     let (md1, html1, _) = build();
     let (md2, html2, _) = build();
     assert_eq!(md1, md2);
     assert_eq!(html1, html2);
-    let dir = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/snapshots");
-    for (name, text) in [("report.md", &md1), ("report.html", &html1)] {
-        let path = dir.join(name);
-        if std::env::var_os("BEAMSIFT_UPDATE_SNAPSHOTS").is_some() {
-            std::fs::write(&path, text).unwrap();
-        }
-        let want = std::fs::read_to_string(&path).unwrap_or_default();
-        assert!(
-            want == *text,
-            "{name} differs from its snapshot (review, then BEAMSIFT_UPDATE_SNAPSHOTS=1)"
-        );
+    insta::assert_snapshot!("calculation_sheet_markdown", readable(&md1));
+    insta::assert_snapshot!("calculation_sheet_html", html1);
+}
+
+/// One check line of the sheet, read back as numbers: the heading ("3.29
+/// lateral-torsional buckling — D+L, segment 0.000–4.000 m") and its line
+/// "utilisation: D unit / C unit = U — passes", demand and capacity in N,
+/// N·mm or MPa (the units the library works in).
+struct SheetLine {
+    heading: String,
+    demand: f64,
+    capacity: f64,
+    utilisation: f64,
+}
+
+/// A shown quantity ("14.8 kN·m", "1,234 MPa") in library units.
+fn quantity(s: &str) -> f64 {
+    let (num, unit) = s.trim().split_once(' ').expect("number and unit");
+    let v: f64 = num.replace(',', "").parse().expect("a number");
+    v * match unit {
+        "MPa" | "mm" => 1.0,
+        "kN" => 1e3,
+        "kN·m" => 1e6,
+        other => panic!("unit {other} not expected in this sheet"),
     }
 }
 
-/// Every check line's demand, capacity and utilisation, as formatted, is in
-/// the sheet — the same numbers `check --json` reports.
+fn sheet_lines(md: &str) -> Vec<SheetLine> {
+    let mut v = Vec::new();
+    for block in md.split("\n### ").skip(1) {
+        let heading = block.lines().next().unwrap().to_string();
+        let Some(u) = block
+            .lines()
+            .find_map(|l| l.trim().strip_prefix("utilisation: "))
+        else {
+            continue;
+        };
+        let (ratio, _) = u.split_once(" — ").expect("'— passes' or '— fails'");
+        let (dc, util) = ratio.rsplit_once(" = ").expect("D / C = U");
+        let (d, c) = dc.split_once(" / ").expect("D / C");
+        v.push(SheetLine {
+            heading,
+            demand: quantity(d),
+            capacity: quantity(c),
+            utilisation: util.parse().expect("utilisation"),
+        });
+    }
+    v
+}
+
+/// Every check line's demand, capacity and utilisation in the sheet are
+/// the numbers of the check result (read back from the text, not rebuilt
+/// with the library's formatter), and the governing lines equal a hand
+/// calculation.
 #[test]
 fn report_numbers_agree_with_the_check() {
     let (md, _, r) = build();
+    let lines = sheet_lines(&md);
     assert!(!r.lines.is_empty());
-    for l in &r.lines {
-        let (_, d, c) = member::fmt_values(l, System::Si);
-        let u = format!("{:.3}", l.utilisation);
+    assert_eq!(lines.len(), r.lines.len(), "one sheet entry per check line");
+    // Shown to 4 significant figures, capacities rounded down: within 1e-3
+    // relative of the value; utilisations to 3 decimals.
+    for (s, l) in lines.iter().zip(&r.lines) {
+        assert!(s.heading.contains(&l.label), "{} / {}", s.heading, l.label);
+        common::close(&format!("{}: demand", s.heading), s.demand, l.demand, 1e-3);
+        common::close(
+            &format!("{}: capacity", s.heading),
+            s.capacity,
+            l.capacity,
+            1e-3,
+        );
         assert!(
-            md.contains(&format!("{d} / {c} = {u}")),
-            "missing '{d} / {c} = {u}' for {}",
-            l.label
+            (s.utilisation - l.utilisation).abs() <= 5e-4,
+            "{}",
+            s.heading
         );
     }
-    // The verdict's utilisation matches too.
-    assert!(md.contains(&format!("{:.3}", r.utilisation)));
-    assert!(
-        md.contains(
-            &Show::Moment
-                .fmt(r.lines[0].action.abs(), System::Si)
-                .replace(" kN·m", "")
-        )
-    );
+    let find = |prefix: &str| {
+        lines
+            .iter()
+            .find(|s| s.heading.contains(prefix))
+            .unwrap_or_else(|| panic!("no line '{prefix}'"))
+    };
+    // Hand calculation. IPE 200 (the section's dimensions; EN 10365 table,
+    // from memory): W_el = 194.3 cm³, W_pl = 220.6 cm³, 22.4 kg/m, so the
+    // self-weight is 22.4 × 9.80665 = 0.2197 kN/m. D+L, live on both spans:
+    // w = 3 + 5 + 0.2197 = 8.2197 kN/m, and P = 6 kN at a = b = 1.5 m in
+    // span 2. Three-moment equation (Clapeyron; any structural analysis
+    // text) with pinned ends: 2·M_B·(L1 + L2) = −(w·L1³/4 + w·L2³/4 +
+    // P·a·b·(L2 + b)/L2) → M_B = −(131.52 + 55.48 + 20.25)/14 =
+    // −14.80 kN·m. Tolerance 0.1 %: the table values are rounded to 4
+    // figures.
+    let m_b = 14.803e6;
+    let hog = find("bending, hogging, top fibre (tension) — D+L");
+    common::close("f = M_B/S", hog.demand, m_b / 194.3e3, 1e-3);
+    assert_eq!(hog.capacity, 165.0, "Fb as given");
+    // u = 76.19/165 = 0.4617, shown to 3 decimals.
+    common::close("u = f/Fb", hog.utilisation, m_b / 194.3e3 / 165.0, 2e-3);
+    // Shear beside B in span 2: V = w·L2/2 + P·b/L2 + |M_B|/L2 = 12.33 + 3
+    // + 4.934 = 20.26 kN. AISC 360-16 G2.1(a): V_n = 0.6·Fy·d·tw·C_v1 =
+    // 0.6 × 275 × 200 × 5.6 = 184.8 kN, Ω_v = 1.50 → 123.2 kN.
+    let v = find("shear strength — D+L");
+    common::close("V at B", v.demand, 20.264e3, 1e-3);
+    common::close("V_n/Ω_v", v.capacity, 123.2e3, 1e-3);
+    // Flexural yielding, AISC 360-16 F2.1: M_p/Ω_b = Fy·Z_x/1.67 = 275 ×
+    // 220.6e3 / 1.67 = 36.33 kN·m.
+    let y = find("flexural yielding — D+L, span 1, x = 4 m");
+    common::close("M_p/Ω_b", y.capacity, 36.33e6, 1e-3);
+    common::close("M at B", y.demand, m_b, 1e-3);
+    // The buckling segment over span 1 carries the same M_B; it governs
+    // (0.709, the verdict's utilisation).
+    let ltb = find("lateral-torsional buckling — D+L, segment 0.000–4.000 m");
+    common::close("M_a = M_B", ltb.demand, m_b, 1e-3);
+    assert!(md.contains("utilisation of the checks evaluated is 0.709"));
+    assert!((r.utilisation - ltb.utilisation).abs() <= 5e-4);
+    // The self-weight shown beside the properties.
+    let sw = md
+        .lines()
+        .find_map(|l| l.strip_prefix("| Self-weight load | "))
+        .expect("self-weight row");
+    let sw: f64 = sw.split(' ').next().unwrap().parse().unwrap();
+    common::close("self-weight [kN/m]", sw, 0.2197, 5e-3);
 }
 
 /// The HTML is well-formed XML (so it parses in any browser and in XML

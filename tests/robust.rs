@@ -16,20 +16,10 @@ fn timber() -> Material {
     common::allowable(10_000.0, 10.0, Some(1.0), 450.0)
 }
 
+/// A simple span under dead load that carries the self-weight, D ≤ L/360.
 fn job(l: f64, w: f64) -> Beam {
-    let mut b = Beam::new(vec![l], vec![Support::Pinned, Support::Roller]);
-    let d = b.case("D", Category::Dead);
-    b.self_weight_case = Some(d);
-    b.udl(d, w);
-    b.combo("D", ComboKind::Strength, &[(d, 1.0)]);
-    b.service(
-        "D",
-        &[(d, 1.0)],
-        DeflectionLimit {
-            ratio: Some(360.0),
-            absolute: None,
-        },
-    );
+    let mut b = common::dead_span(l, w, 360.0);
+    b.self_weight_case = Some(0);
     b
 }
 

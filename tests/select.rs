@@ -16,32 +16,6 @@ fn timber() -> Material {
     common::allowable(10_000.0, 10.0, Some(1.0), 450.0)
 }
 
-fn simple_job(l: f64, wd: f64, wl: f64) -> Beam {
-    let mut b = Beam::new(vec![l], vec![Support::Pinned, Support::Roller]);
-    let d = b.case("D", Category::Dead);
-    let lv = b.case("L", Category::Live);
-    b.self_weight_case = Some(d);
-    b.udl(d, wd).udl(lv, wl);
-    b.combo("D+L", ComboKind::Strength, &[(d, 1.0), (lv, 1.0)]);
-    b.service(
-        "L",
-        &[(lv, 1.0)],
-        DeflectionLimit {
-            ratio: Some(360.0),
-            absolute: None,
-        },
-    );
-    b.service(
-        "D+L",
-        &[(d, 1.0), (lv, 1.0)],
-        DeflectionLimit {
-            ratio: Some(240.0),
-            absolute: None,
-        },
-    );
-    b
-}
-
 fn scan_text(
     csv: &str,
     beam: &Beam,
@@ -74,7 +48,7 @@ fn scan_text(
 #[test]
 fn hand_worked_selection_picks_the_lightest() {
     let csv = "name,shape,b [mm],d [mm]\n50x200,rect,50,200\n75x225,rect,75,225\n63x250,rect,63,250\n50x250,rect,50,250\n100x300,rect,100,300\n";
-    let beam = simple_job(4000.0, 0.8, 2.0);
+    let beam = common::simple_span(4000.0, 0.8, 2.0);
     let sel = scan_text(csv, &beam, &timber(), &ScanOptions::default()).unwrap();
     let names: Vec<&str> = sel.lists[0].items.iter().map(|c| c.name.as_str()).collect();
     assert_eq!(names, vec!["63x250", "75x225", "100x300"]);
@@ -99,7 +73,7 @@ fn hand_worked_selection_picks_the_lightest() {
 #[test]
 fn header_units_convert() {
     let csv = "name,A [in2],Ix [in4],S [in3],d [in],mass [lb/ft],E [ksi],Fb [psi],cost [USD/ft]\n2x10,13.88,98.93,21.39,9.25,2.7,1600,1000,2.5\n";
-    let beam = simple_job(3000.0, 0.5, 1.0);
+    let beam = common::simple_span(3000.0, 0.5, 1.0);
     let opts = ScanOptions {
         ranks: vec![(Rank::Mass, 10)],
         ..ScanOptions::default()
@@ -159,7 +133,7 @@ fn contradictory_properties_are_reported() {
         "{base}a,rect,100,200,{}\n",
         100.0 * 200f64.powi(3) / 12.0 * 1.05
     );
-    let beam = simple_job(3000.0, 0.5, 1.0);
+    let beam = common::simple_span(3000.0, 0.5, 1.0);
     assert!(scan_text(&good, &beam, &timber(), &ScanOptions::default()).is_ok());
     let e = scan_text(&bad, &beam, &timber(), &ScanOptions::default())
         .unwrap_err()
@@ -172,7 +146,7 @@ fn contradictory_properties_are_reported() {
 
 #[test]
 fn bad_catalogues_are_refused_with_positions() {
-    let beam = simple_job(3000.0, 0.5, 1.0);
+    let beam = common::simple_span(3000.0, 0.5, 1.0);
     let cases: &[(&str, &str)] = &[
         ("", "empty"),
         ("name,b,d\n", "needs its unit"),
@@ -270,7 +244,7 @@ proptest! {
     #[test]
     fn select_equals_brute_force(seed in any::<u64>(), l in 2000.0..6000.0f64, wd in 0.2..2.0f64, wl in 0.5..4.0f64, maxd in 200.0..600.0f64) {
         let csv = random_catalog(seed, 150);
-        let beam = simple_job(l, wd, wl);
+        let beam = common::simple_span(l, wd, wl);
         let mat = timber();
         let filters = Filters { max_depth: Some(maxd), in_stock_only: true, ..Filters::default() };
         let opts = ScanOptions { ranks: vec![(Rank::Mass, usize::MAX)], filters, ..ScanOptions::default() };
@@ -303,7 +277,7 @@ proptest! {
     #[test]
     fn identical_across_thread_counts(seed in any::<u64>()) {
         let csv = random_catalog(seed, 400);
-        let beam = simple_job(4000.0, 0.8, 2.0);
+        let beam = common::simple_span(4000.0, 0.8, 2.0);
         let run = |threads: usize, chunk: usize| {
             let pool = rayon::ThreadPoolBuilder::new().num_threads(threads).build().unwrap();
             let opts = ScanOptions { ranks: vec![(Rank::Cost, 25), (Rank::Mass, 25)], chunk, ..ScanOptions::default() };

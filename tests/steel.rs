@@ -65,10 +65,6 @@ fn w18x50() -> Properties {
     )
 }
 
-fn near(what: &str, got: f64, want: f64, tol: f64) {
-    common::close(what, got, want, tol);
-}
-
 #[test]
 fn w18x50_limiting_lengths_and_strengths_aisc_table_3_2() {
     // AISC Manual Table 3-2 (from memory), W18×50, Fy = 50 ksi:
@@ -80,12 +76,12 @@ fn w18x50_limiting_lengths_and_strengths_aisc_table_3_2() {
     let Ltb::F2 { mp, mr, lp, lr, .. } = f.ltb else {
         panic!()
     };
-    near("Lp", lp / 304.8, 5.83, 0.005);
-    near("Lr", lr / 304.8, 16.9, 0.005);
-    near("Mp/Ω", mp / 1.67 / KIPFT, 252.0, 0.005);
-    near("Mr/Ω", mr / 1.67 / KIPFT, 155.0, 0.005);
+    common::close("Lp", lp / 304.8, 5.83, 0.005);
+    common::close("Lr", lr / 304.8, 16.9, 0.005);
+    common::close("Mp/Ω", mp / 1.67 / KIPFT, 252.0, 0.005);
+    common::close("Mr/Ω", mr / 1.67 / KIPFT, 155.0, 0.005);
     // Example F.1-1A (from memory): continuously braced, Mn/Ωb = Mp/Ωb.
-    near(
+    common::close(
         "F2-1",
         f.ltb.nominal(E_US, 0.0, 1.0).mn / 1.67 / KIPFT,
         252.0,
@@ -112,7 +108,7 @@ fn w18x50_inelastic_and_elastic_ltb_by_hand() {
     let lb = 11.67 * 12.0;
     let cb = 1.01;
     let mn = (cb * (mp - (mp - 0.7 * fy * sx) * (lb - lp) / (lr - lp))).min(mp);
-    near(
+    common::close(
         "F2-2",
         st.flexure[0].ltb.nominal(E_US, lb * IN, cb).mn / (KIP * IN),
         mn,
@@ -124,7 +120,7 @@ fn w18x50_inelastic_and_elastic_ltb_by_hand() {
         * (1.0 + 0.078 * jc * (lb / rts).powi(2)).sqrt();
     let mn = (fcr * sx).min(mp);
     let n = st.flexure[0].ltb.nominal(E_US, lb * IN, 1.3);
-    near("F2-3", n.mn / (KIP * IN), mn, 1e-9);
+    common::close("F2-3", n.mn / (KIP * IN), mn, 1e-9);
     assert_eq!(n.eq, "F2-3");
 }
 
@@ -141,7 +137,7 @@ fn w21x48_noncompact_flange_aisc_example_f3a() {
     assert_eq!(f.provision, Provision::F3);
     let flb = f.flange.unwrap();
     assert_eq!(flb.eq, "F3-1");
-    near("Mn/Ω", flb.mn / 1.67 / KIPFT, 265.0, 0.005);
+    common::close("Mn/Ω", flb.mn / 1.67 / KIPFT, 265.0, 0.005);
     assert_eq!(f.flange_class.unwrap().class, Class::Noncompact);
 }
 
@@ -154,7 +150,7 @@ fn w24x62_shear_aisc_example_g1a() {
         23.7, 7.04, 0.590, 0.430, 18.2, 1550.0, 131.0, 153.0, 34.5, 1.71, 4620.0,
     );
     let st = strengths(&p, 50.0 * KSI, E_US).unwrap();
-    near("Vn/Ω", st.shear.vn / st.shear.omega / KIP, 204.0, 0.005);
+    common::close("Vn/Ω", st.shear.vn / st.shear.omega / KIP, 204.0, 0.005);
     assert_eq!(st.shear.omega, 1.50);
     assert_eq!(st.shear.cv, 1.0);
 }
@@ -184,7 +180,7 @@ fn built_up_flange_limit_is_case_11_not_the_rolled_limit() {
     let st = strengths(&p, fy, e).unwrap();
     let f = &st.flexure[0];
     let fc = f.flange_class.unwrap();
-    near(
+    common::close(
         "λr",
         fc.lambda_r,
         0.95 * (0.40f64 * e / (0.7 * fy)).sqrt(),
@@ -192,7 +188,7 @@ fn built_up_flange_limit_is_case_11_not_the_rolled_limit() {
     );
     assert_eq!(fc.class, Class::Slender);
     let flb = f.flange.unwrap();
-    near(
+    common::close(
         "F3-2",
         flb.mn,
         0.9 * e * 0.40 * p.s_top / (22.0f64 * 22.0),
@@ -223,17 +219,17 @@ fn noncompact_web_uses_f4_by_hand() {
     let (lpw, lrw, lam) = (3.76 * sq, 5.70 * sq, hw / tw);
     let sx = p.s_top;
     let zx = 2.0 * bf * tf * (hw + tf) / 2.0 + tw * hw * hw / 4.0;
-    near("Zx", p.zx.unwrap(), zx, 1e-9);
+    common::close("Zx", p.zx.unwrap(), zx, 1e-9);
     let mp = (fy * zx).min(1.6 * fy * sx);
     let myc = fy * sx;
     let rpc = (mp / myc - (mp / myc - 1.0) * (lam - lpw) / (lrw - lpw)).min(mp / myc);
-    near("F4-1", f.yielding.mn, rpc * myc, 1e-12);
+    common::close("F4-1", f.yielding.mn, rpc * myc, 1e-12);
     let aw = hw * tw / (bf * tf);
     let rt = bf / (12.0 * (1.0 + aw / 6.0)).sqrt();
     let Ltb::F4 { lp, .. } = f.ltb else {
         panic!("{:?}", f.ltb)
     };
-    near("Lp", lp, 1.1 * rt * sq, 1e-12);
+    common::close("Lp", lp, 1.1 * rt * sq, 1e-12);
     // No tension-flange yielding for a doubly symmetric section.
     assert!(f.tension_flange.is_none());
 }
@@ -261,7 +257,7 @@ fn mono_symmetric_i_has_its_own_compression_flange_each_way() {
     // Iyc/Iy ≤ 0.23 for the small flange: Rpc = 1 and J = 0 (F4-10, F4-5).
     let iyc = 12.0 * 180f64.powi(3) / 12.0;
     assert!(iyc / p.iy.unwrap() <= 0.23);
-    near("F4-10", sag.yielding.mn, fy * p.s_top, 1e-12);
+    common::close("F4-10", sag.yielding.mn, fy * p.s_top, 1e-12);
 }
 
 #[test]
@@ -279,7 +275,7 @@ fn slender_web_uses_f5_by_hand() {
     let sq = (e / fy).sqrt();
     let aw = (hw * tw / (bf * tf)).min(10.0);
     let rpg = (1.0 - aw / (1200.0 + 300.0 * aw) * (hw / tw - 5.7 * sq)).min(1.0);
-    near("F5-1", f.yielding.mn, rpg * fy * p.s_top, 1e-12);
+    common::close("F5-1", f.yielding.mn, rpg * fy * p.s_top, 1e-12);
     let rt = bf / (12.0 * (1.0 + aw / 6.0)).sqrt();
     let (lp, lr) = (
         1.1 * rt * sq,
@@ -288,12 +284,12 @@ fn slender_web_uses_f5_by_hand() {
     let lb = 0.5 * (lp + lr);
     let fcr = (1.2 * (fy - 0.3 * fy * (lb - lp) / (lr - lp))).min(fy);
     let n = f.ltb.nominal(e, lb, 1.2);
-    near("F5-2 with F5-3", n.mn, rpg * fcr * p.s_top, 1e-12);
+    common::close("F5-2 with F5-3", n.mn, rpg * fcr * p.s_top, 1e-12);
     // Web shear: h/tw = 187.5 > 1.10√(kv·E/Fy) = 60.1 (kv = 5.34), so
     // Cv1 = 1.10√(kv·E/Fy)/(h/tw) (G2-4), Ωv = 1.67.
     let cv = 1.10 * (5.34 * e / fy).sqrt() / (hw / tw);
-    near("Cv1", st.shear.cv, cv, 1e-12);
-    near(
+    common::close("Cv1", st.shear.cv, cv, 1e-12);
+    common::close(
         "Vn",
         st.shear.vn,
         0.6 * fy * (hw + 2.0 * tf) * tw * cv,
@@ -319,11 +315,11 @@ fn regimes_meet_at_their_edges() {
     };
     let lpf = 0.38 * sq;
     let (a, b) = (mn_at(lpf * (1.0 - 1e-7)), mn_at(lpf * (1.0 + 1e-7)));
-    near("at λpf", b, a, 1e-5);
+    common::close("at λpf", b, a, 1e-5);
     // λrf of a built-up flange on this web: kc = 4/√60.
     let kc = 4.0 / 60f64.sqrt();
     let lrf = 0.95 * (kc * e / (0.7 * fy)).sqrt();
-    near(
+    common::close(
         "at λrf",
         mn_at(lrf * (1.0 + 1e-7)),
         mn_at(lrf * (1.0 - 1e-7)),
@@ -343,11 +339,11 @@ fn regimes_meet_at_their_edges() {
     let (pb, b) = web(3.76 * sq * (1.0 + 1e-7));
     assert_eq!((pa, pb), (Provision::F2, Provision::F4));
     // F2 gives Mp, F4 at λpw gives Rpc·Myc = Mp (Mp ≤ 1.6FySx here).
-    near("at λpw", b, a, 1e-5);
+    common::close("at λpw", b, a, 1e-5);
     let (pa, a) = web(5.70 * sq * (1.0 - 1e-7));
     let (pb, b) = web(5.70 * sq * (1.0 + 1e-7));
     assert_eq!((pa, pb), (Provision::F4, Provision::F5));
-    near("at λrw", b, a, 1e-5);
+    common::close("at λrw", b, a, 1e-5);
     // Lateral-torsional buckling across Lp and Lr (F4 and F5 here).
     for lam in [100.0, 180.0] {
         let tw = 8.0;
@@ -358,7 +354,7 @@ fn regimes_meet_at_their_edges() {
         for x in [lp, lr] {
             let a = l.nominal(e, x * (1.0 - 1e-9), 1.0).mn;
             let b = l.nominal(e, x * (1.0 + 1e-9), 1.0).mn;
-            near("at Lp/Lr", b, a, 2e-3);
+            common::close("at Lp/Lr", b, a, 2e-3);
         }
     }
     // Rolled web shear at h/tw = 2.24√(E/Fy): Ωv 1.50 → 1.67 with Cv1 = 1
@@ -424,7 +420,7 @@ fn slender_web_flange_limit_uses_fl_of_0_7_fy() {
     let st = strengths(&p, fy, e).unwrap();
     let f = &st.flexure[0];
     assert_eq!(f.provision, Provision::F5);
-    near(
+    common::close(
         "λr",
         f.flange_class.unwrap().lambda_r,
         0.95 * (0.35 * e / (0.7 * fy)).sqrt(),
@@ -453,13 +449,13 @@ fn rectangular_hss_by_hand() {
     let bt = (200.0 - 12.0) / 6.0;
     let mp = fy * p.zx.unwrap();
     let want = (mp - (mp - fy * p.s_top) * (3.57 * bt * (fy / e).sqrt() - 4.0)).min(mp);
-    near("F7-2", f.flange.unwrap().mn, want, 1e-12);
+    common::close("F7-2", f.flange.unwrap().mn, want, 1e-12);
     assert!(f.web.is_none());
     // G4: no corner radius given, so h = H − 3t (AISC 360-16 G4: "if the
     // corner radius is not known, h shall be taken as the corresponding
     // outside dimension minus three times the thickness") = 282; Aw = 2ht,
     // kv = 5; h/t = 47 ≤ 1.10√(kv·E/Fy) = 59.2: Cv2 = 1, Vn = 0.6·Fy·Aw.
-    near("G4-1", st.shear.vn, 0.6 * fy * 2.0 * 282.0 * 6.0, 1e-12);
+    common::close("G4-1", st.shear.vn, 0.6 * fy * 2.0 * 282.0 * 6.0, 1e-12);
     // With a known corner radius r_out = 15 mm: h = H − 2·r_out = 270.
     let pr = Shape::Rhs {
         b: 200.0,
@@ -470,7 +466,7 @@ fn rectangular_hss_by_hand() {
     .properties()
     .unwrap();
     let sr = strengths(&pr, fy, e).unwrap();
-    near(
+    common::close(
         "G4-1 (r known)",
         sr.shear.vn,
         0.6 * fy * 2.0 * 270.0 * 6.0,
@@ -496,7 +492,7 @@ fn rectangular_hss_by_hand() {
     let y2 = (p.area * 150.0 - da * 297.0) / a2;
     let i2 = p.ix + p.area * (150.0 - y2).powi(2) - da * 36.0 / 12.0 - da * (297.0 - y2).powi(2);
     let se = i2 / y2.max(300.0 - y2);
-    near("F7-3", st.flexure[0].flange.unwrap().mn, fy * se, 1e-9);
+    common::close("F7-3", st.flexure[0].flange.unwrap().mn, fy * se, 1e-9);
 }
 
 #[test]
@@ -507,13 +503,13 @@ fn round_hss_by_hand() {
     let (e, fy): (f64, f64) = (200_000.0, 345.0);
     let p = Shape::Chs { d: 400.0, t: 5.0 }.properties().unwrap();
     let st = strengths(&p, fy, e).unwrap();
-    near(
+    common::close(
         "F8-2",
         st.flexure[0].flange.unwrap().mn,
         (0.021 * e / 80.0 + fy) * p.s_top,
         1e-12,
     );
-    near(
+    common::close(
         "G5",
         st.shear.vn,
         (0.78 * e / 80f64.powf(1.5)).min(0.6 * fy) * p.area / 2.0,
@@ -537,7 +533,7 @@ fn rectangular_bar_ltb_by_hand() {
     let mp = fy * 25.0 * 300.0 * 300.0 / 4.0;
     let x: f64 = 2000.0 * 300.0 / 625.0;
     let want = ((1.52 - 0.274 * x * fy / e) * my).min(mp);
-    near(
+    common::close(
         "F11-3",
         st.flexure[0].ltb.nominal(e, 2000.0, 1.0).mn,
         want,
@@ -623,8 +619,8 @@ fn strength_lines_divide_by_omega() {
         .iter()
         .find(|i| i.kind == CheckKind::Yielding)
         .unwrap();
-    near("Mp/Ω", y.capacity, 345.0 * p.zx.unwrap() / 1.67, 1e-12);
-    near(
+    common::close("Mp/Ω", y.capacity, 345.0 * p.zx.unwrap() / 1.67, 1e-12);
+    common::close(
         "demand wL²/8",
         y.demand,
         20.0 * 6000.0f64.powi(2) / 8.0,
@@ -634,5 +630,5 @@ fn strength_lines_divide_by_omega() {
         .iter()
         .find(|i| i.kind == CheckKind::WebShear)
         .unwrap();
-    near("Vn/Ω", v.capacity, 0.6 * 345.0 * 300.0 * 7.1 / 1.50, 1e-12);
+    common::close("Vn/Ω", v.capacity, 0.6 * 345.0 * 300.0 * 7.1 / 1.50, 1e-12);
 }

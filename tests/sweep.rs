@@ -49,21 +49,11 @@ fn row(b: f64, d: f64, density: f64) -> Candidate {
     }
 }
 
+/// Pinned at every support, dead load carrying the self-weight, D ≤ L/n.
 fn job(spans: Vec<f64>, w: f64, n: f64) -> Beam {
     let k = spans.len();
-    let mut b = Beam::new(spans, vec![Support::Pinned; k + 1]);
-    let d = b.case("D", Category::Dead);
-    b.self_weight_case = Some(d);
-    b.udl(d, w);
-    b.combo("D", ComboKind::Strength, &[(d, 1.0)]);
-    b.service(
-        "D",
-        &[(d, 1.0)],
-        DeflectionLimit {
-            ratio: Some(n),
-            absolute: None,
-        },
-    );
+    let mut b = common::dead_load(spans, vec![Support::Pinned; k + 1], w, n);
+    b.self_weight_case = Some(0);
     b
 }
 

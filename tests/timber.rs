@@ -14,6 +14,9 @@ use beamsift::check::*;
 use beamsift::search::{self, Rank, ScanOptions};
 use beamsift::section::Shape;
 
+/// Loads only (D 0.5, L 1.5 N/mm), no combinations: each test adds the
+/// combinations whose load duration it checks, so common::simple_span's
+/// fixed set does not fit.
 fn span(l: f64) -> (Beam, usize, usize) {
     let mut b = Beam::new(vec![l], vec![Support::Pinned, Support::Roller]);
     let d = b.case("D", Category::Dead);

@@ -3,16 +3,14 @@
 //! 1 lbf = 4.448 222 N, 1 ksi = 6.894 757 MPa, 1 psf = 47.880 26 Pa,
 //! 1 kip·ft = 1.355 818 kN·m, 1 lb/ft³ = 16.018 46 kg/m³).
 
-use beamsift::units::{Dim, Show, System, fmt_num, parse};
+mod common;
 
-fn close(a: f64, b: f64, tol: f64) -> bool {
-    (a - b).abs() <= tol * b.abs()
-}
+use beamsift::units::{Dim, Show, System, fmt_num, parse};
 
 #[track_caller]
 fn check(text: &str, dim: Dim, want: f64) {
     let got = parse(text, dim).unwrap_or_else(|e| panic!("{text}: {e}"));
-    assert!(close(got, want, 1e-6), "{text}: got {got}, want {want}");
+    common::close(text, got, want, 1e-6);
 }
 
 #[test]
@@ -100,7 +98,7 @@ fn round_trips_through_display_units() {
         for (show, dim, v) in cases {
             let text = format!("{} {}", show.value(v, sys), show.label(sys));
             let back = parse(&text, dim).unwrap_or_else(|e| panic!("{text}: {e}"));
-            assert!(close(back, v, 1e-12), "{text}: {back} vs {v}");
+            common::close(&text, back, v, 1e-12);
         }
     }
 }

@@ -20,19 +20,7 @@ const FY: f64 = 345.0;
 
 /// Simple span L under uniform dead w (N/mm), strength D, service D ≤ L/240.
 fn span(l: f64, w: f64) -> Beam {
-    let mut b = Beam::new(vec![l], vec![Support::Pinned, Support::Roller]);
-    let d = b.case("D", Category::Dead);
-    b.udl(d, w);
-    b.combo("D", ComboKind::Strength, &[(d, 1.0)]);
-    b.service(
-        "D",
-        &[(d, 1.0)],
-        DeflectionLimit {
-            ratio: Some(240.0),
-            absolute: None,
-        },
-    );
-    b
+    common::dead_span(l, w, 240.0)
 }
 
 fn summary(beam: &Beam, m: Material, c: Criteria, shape: &Shape) -> (Summary, Vec<Item>) {

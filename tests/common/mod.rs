@@ -4,7 +4,8 @@
 
 use beamsift::beam::{Beam, Category, ComboKind, DeflectionLimit, Support};
 use beamsift::check::{Criteria, Exclusions, Material, MaterialKind, TimberFactors};
-use std::path::PathBuf;
+use std::ffi::OsStr;
+use std::path::{Path, PathBuf};
 use std::process::{Command, Output};
 
 /// A material of allowable stresses only (kind not stated), MPa and kg/m³.
@@ -92,30 +93,71 @@ pub fn simple_span(l: f64, wd: f64, wl: f64) -> Beam {
     b
 }
 
+/// A beam under one uniform dead load `w` (N/mm) on every span, with
+/// strength D and service D ≤ L/n. The self-weight is not a case of it: set
+/// `self_weight_case = Some(0)` where the dead case should carry it.
+pub fn dead_load(spans: Vec<f64>, supports: Vec<Support>, w: f64, n: f64) -> Beam {
+    let mut b = Beam::new(spans, supports);
+    let d = b.case("D", Category::Dead);
+    b.udl(d, w);
+    b.combo("D", ComboKind::Strength, &[(d, 1.0)]);
+    b.service(
+        "D",
+        &[(d, 1.0)],
+        DeflectionLimit {
+            ratio: Some(n),
+            absolute: None,
+        },
+    );
+    b
+}
+
+/// `dead_load` on a simple span L (mm), pinned and roller.
+pub fn dead_span(l: f64, w: f64, n: f64) -> Beam {
+    dead_load(vec![l], vec![Support::Pinned, Support::Roller], w, n)
+}
+
 /// |got − want| ≤ tol·|want| (or ≤ tol when want is 0).
+#[track_caller]
 pub fn close(what: &str, got: f64, want: f64, tol: f64) {
-    let ok = (got - want).abs() <= tol * want.abs().max(if want == 0.0 { 1.0 } else { 0.0 });
+    close_floor(what, got, want, tol, if want == 0.0 { 1.0 } else { 0.0 });
+}
+
+/// |got − want| ≤ tol·max(|want|, floor): relative, with the absolute
+/// allowance tol·floor for values at or near zero (a round-off check of a
+/// value that should vanish needs a floor of its scale, not 1).
+#[track_caller]
+pub fn close_floor(what: &str, got: f64, want: f64, tol: f64, floor: f64) {
+    let ok = (got - want).abs() <= tol * want.abs().max(floor);
     assert!(
         ok,
-        "{what}: got {got}, expected {want} (relative tolerance {tol})"
+        "{what}: got {got}, expected {want} (relative tolerance {tol}, floor {floor})"
     );
+}
+
+/// |a − b| / |b| (b at least 1e-300): for `prop_assert!`, which wants a
+/// condition rather than a panic.
+pub fn rel(a: f64, b: f64) -> f64 {
+    (a - b).abs() / b.abs().max(1e-300)
 }
 
 pub fn repo(p: &str) -> PathBuf {
     PathBuf::from(env!("CARGO_MANIFEST_DIR")).join(p)
 }
 
-/// Run the built binary.
-pub fn run(args: &[&str]) -> Output {
+/// The built binary, as a command to configure (standard input, spawn).
+pub fn bin() -> Command {
     Command::new(env!("CARGO_BIN_EXE_beamsift"))
-        .args(args)
-        .output()
-        .expect("run beamsift")
+}
+
+/// Run the built binary.
+pub fn run<S: AsRef<OsStr>>(args: &[S]) -> Output {
+    bin().args(args).output().expect("run beamsift")
 }
 
 /// Run the binary in a folder.
-pub fn run_in(dir: &std::path::Path, args: &[&str]) -> Output {
-    Command::new(env!("CARGO_BIN_EXE_beamsift"))
+pub fn run_in<S: AsRef<OsStr>>(dir: &Path, args: &[S]) -> Output {
+    bin()
         .args(args)
         .current_dir(dir)
         .output()
@@ -131,7 +173,7 @@ pub fn text(o: &Output) -> (String, String) {
 }
 
 /// Copy a folder and everything below it (scratch copies of catalogs/).
-pub fn copy_dir(from: &std::path::Path, to: &std::path::Path) {
+pub fn copy_dir(from: &Path, to: &Path) {
     std::fs::create_dir_all(to).unwrap();
     for e in std::fs::read_dir(from).unwrap() {
         let e = e.unwrap();
