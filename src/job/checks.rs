@@ -71,50 +71,39 @@ pub(super) fn criteria(src: &Source<'_>, raw: Option<&RawChecks>) -> Result<Crit
     Ok(criteria)
 }
 
-/// Check settings that would change nothing are refused, not ignored.
-pub(super) fn refuse_idle(
-    src: &Source<'_>,
-    raw: Option<&RawChecks>,
-    criteria: &Criteria,
-    material: &Material,
-    grades: &[(String, Material)],
-) -> Result<()> {
-    let Some(c) = raw else {
-        return Ok(());
-    };
-    if let Some(f) = &c.braced_flange
-        && !matches!(criteria.bracing, Bracing::Continuous | Bracing::Spacing(_))
-    {
-        return src.err(
-            f.span(),
-            "checks.braced_flange",
-            "braced_flange says which flange the braces between supports restrain, but lateral_bracing gives none (braced at the supports only): set lateral_bracing = \"continuous\" or a spacing, or leave braced_flange out",
-        );
-    }
-    if let Some(sh) = &c.shear
-        && criteria.shear == ShearMethod::PeakVq
-        && material.fv.is_none()
-        && grades.iter().all(|(_, g)| g.fv.is_none())
-    {
-        return src.err(
-            sh.span(),
-            "checks.shear",
-            "shear = \"peak_vq\" chooses how the stress checked against the allowable Fv is found, but no material gives Fv (steel shear is checked by AISC 360-16 G): give Fv, or leave shear out",
-        );
-    }
-    Ok(())
-}
-
-/// The criteria must suit the job's material and every grade (a load
+/// Check settings that would change nothing are refused, not ignored;
+/// and the criteria must suit the job's material and every grade (a load
 /// height or overhang factor for a material without a stability method is
 /// refused at its key).
-pub(super) fn fit(
+pub(super) fn refuse_unsuitable(
     src: &Source<'_>,
     raw: Option<&RawChecks>,
     criteria: &Criteria,
     material: &Material,
     grades: &[(String, Material)],
 ) -> Result<()> {
+    if let Some(c) = raw {
+        if let Some(f) = &c.braced_flange
+            && !matches!(criteria.bracing, Bracing::Continuous | Bracing::Spacing(_))
+        {
+            return src.err(
+                f.span(),
+                "checks.braced_flange",
+                "braced_flange says which flange the braces between supports restrain, but lateral_bracing gives none (braced at the supports only): set lateral_bracing = \"continuous\" or a spacing, or leave braced_flange out",
+            );
+        }
+        if let Some(sh) = &c.shear
+            && criteria.shear == ShearMethod::PeakVq
+            && material.fv.is_none()
+            && grades.iter().all(|(_, g)| g.fv.is_none())
+        {
+            return src.err(
+                sh.span(),
+                "checks.shear",
+                "shear = \"peak_vq\" chooses how the stress checked against the allowable Fv is found, but no material gives Fv (steel shear is checked by AISC 360-16 G): give Fv, or leave shear out",
+            );
+        }
+    }
     for (name, m) in
         std::iter::once(("material", material)).chain(grades.iter().map(|(n, m)| (n.as_str(), m)))
     {

@@ -116,8 +116,7 @@ pub fn from_toml(text: &str, file: &str) -> Result<Job> {
     )?;
     combinations::need_strength(&src, &beam)?;
     let criteria = checks::criteria(&src, raw.checks.as_ref())?;
-    checks::refuse_idle(&src, raw.checks.as_ref(), &criteria, &material, &grades)?;
-    checks::fit(&src, raw.checks.as_ref(), &criteria, &material, &grades)?;
+    checks::refuse_unsuitable(&src, raw.checks.as_ref(), &criteria, &material, &grades)?;
     if criteria.self_weight && beam.self_weight_case.is_none() {
         notes.push("no dead load case: the section's self-weight is not included".into());
     }
