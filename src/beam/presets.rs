@@ -27,7 +27,7 @@
 //! or snow, L/180 under the total load. The total takes every gravity case
 //! of the job (see [`service`]).
 
-use super::model::{Category, Combination, ComboKind, DeflectionLimit, LoadCase};
+use super::model::{Beam, Category, Combination, ComboKind, DeflectionLimit, LoadCase, Pattern};
 use crate::error::{Error, Result};
 
 /// Combinations of a preset, and what the reader should know about them.
@@ -55,6 +55,28 @@ fn term(factor: f64, label: &str) -> String {
 /// loading of continuous beams (ASCE 7-16 §7.5)?
 pub fn partial_snow(strength: Option<&str>) -> bool {
     strength.is_some_and(is_asce)
+}
+
+/// Snow cases without a pattern of their own get partial loading (full or
+/// half by span) on a beam of more than one span, as the preset's standard
+/// asks (ASCE 7-16 §7.5).
+pub fn set_partial_snow(beam: &mut Beam, explicit: &[bool], notes: &mut Vec<String>) {
+    if beam.stretches().len() < 2 {
+        return;
+    }
+    let mut named = Vec::new();
+    for (i, c) in beam.cases.iter_mut().enumerate() {
+        if c.category == Category::Snow && !explicit.get(i).copied().unwrap_or(false) {
+            c.pattern = Pattern::Partial;
+            named.push(c.name.clone());
+        }
+    }
+    if !named.is_empty() {
+        notes.push(format!(
+            "snow case(s) {} partially loaded: full on some spans, half on the others, the worst at every station (ASCE 7-16 §7.5; set pattern = false on the case to turn it off)",
+            named.join(", ")
+        ));
+    }
 }
 
 fn is_asce(name: &str) -> bool {

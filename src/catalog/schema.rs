@@ -1,0 +1,367 @@
+//! The catalogue's header: what each column holds, and the unit it is in.
+
+use crate::error::{Error, Location, Result};
+use crate::units::{self, Dim};
+use std::collections::HashSet;
+
+/// What a column holds.
+#[derive(Clone, Debug, PartialEq)]
+pub enum Col {
+    Name,
+    Shape,
+    Series,
+    Grade,
+    Stock,
+    /// Ignored (a column whose name starts with "note").
+    Note,
+    /// A shape dimension (index into `DIMS`, mm per unit).
+    Dim(usize, f64),
+    /// A property (key, internal units per unit).
+    Prop(Prop, f64),
+    /// Cost per length (currency per mm, per unit).
+    Cost(f64),
+    /// A dimensionless timber adjustment factor of the row (C_F, C_r, ...).
+    Factor(Factor),
+}
+
+/// Timber adjustment factors a row may give (no unit).
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Factor {
+    Cd,
+    CmFb,
+    CmFv,
+    CmE,
+    Ct,
+    Ci,
+    CtE,
+    CiE,
+    Cf,
+    Cr,
+    Cfu,
+}
+
+pub(super) fn factor_of(key: &str) -> Option<Factor> {
+    Some(match key {
+        "cd" | "c_d" => Factor::Cd,
+        "cm_fb" => Factor::CmFb,
+        "cm_fv" => Factor::CmFv,
+        "cm_e" => Factor::CmE,
+        "ct" | "c_t" => Factor::Ct,
+        "ci" | "c_i" => Factor::Ci,
+        "ct_e" | "c_t_e" => Factor::CtE,
+        "ci_e" | "c_i_e" => Factor::CiE,
+        "cf" | "c_f" => Factor::Cf,
+        "cr" | "c_r" => Factor::Cr,
+        "cfu" | "c_fu" => Factor::Cfu,
+        _ => return None,
+    })
+}
+
+/// Properties a column may give.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Prop {
+    Area,
+    Ix,
+    Iy,
+    J,
+    Cw,
+    S,
+    STop,
+    SBot,
+    Zx,
+    CTop,
+    CBot,
+    Q,
+    Mass,
+    E,
+    Fb,
+    Fbt,
+    Fbc,
+    Fv,
+    Fy,
+    Density,
+    Emin,
+}
+
+pub(super) const DIMS: &[&str] = &[
+    "d", "b", "h", "bf", "tf", "tw", "hw", "r", "t", "r_out", "bf_top", "tf_top", "bf_bot",
+    "tf_bot",
+];
+// Indices into DIMS (the per-row path looks dimensions up by index).
+pub(super) const D: usize = 0;
+pub(super) const B: usize = 1;
+pub(super) const H: usize = 2;
+pub(super) const BF: usize = 3;
+pub(super) const TF: usize = 4;
+pub(super) const TW: usize = 5;
+pub(super) const HW: usize = 6;
+pub(super) const R: usize = 7;
+pub(super) const T: usize = 8;
+pub(super) const R_OUT: usize = 9;
+pub(super) const BF_TOP: usize = 10;
+pub(super) const TF_TOP: usize = 11;
+pub(super) const BF_BOT: usize = 12;
+pub(super) const TF_BOT: usize = 13;
+
+/// Known column names, for error messages.
+pub const KNOWN: &str = "name, shape, series, grade, stock, cost [CUR/m], dimensions (d, b, h, bf, tf, tw, hw, r, t, r_out, bf_top, tf_top, bf_bot, tf_bot), \
+A, Ix, Iy, J, Cw, S (or S_top, S_bot), Zx, c_top, c_bot, Q, mass, E, Fb, Fbt, Fbc, Fv, Fy, density, Emin, \
+timber adjustment factors without unit (CD, CM_Fb, CM_Fv, CM_E, Ct, Ci, Ct_E, Ci_E, CF, Cr, Cfu); columns named note... are ignored";
+
+/// The parsed header.
+#[derive(Clone, Debug)]
+pub struct Schema {
+    pub cols: Vec<Col>,
+    pub headers: Vec<String>,
+    /// Currency named in a cost header (`cost [EUR/m]`).
+    pub currency: Option<String>,
+    pub(super) name: Option<usize>,
+    pub(super) shape: Option<usize>,
+}
+
+fn split_header(h: &str) -> (String, Option<String>) {
+    let h = h.trim();
+    match (h.find('['), h.rfind(']')) {
+        (Some(a), Some(b)) if b > a => (
+            h[..a].trim().to_string(),
+            Some(h[a + 1..b].trim().to_string()),
+        ),
+        _ => (h.to_string(), None),
+    }
+}
+
+fn prop_of(key: &str) -> Option<(Prop, Dim)> {
+    Some(match key {
+        "a" | "area" => (Prop::Area, Dim::Area),
+        "ix" | "i" | "i_x" => (Prop::Ix, Dim::SecondMoment),
+        "iy" | "i_y" => (Prop::Iy, Dim::SecondMoment),
+        "j" => (Prop::J, Dim::SecondMoment),
+        "cw" => (Prop::Cw, Dim::Warping),
+        "s" | "sx" | "s_x" => (Prop::S, Dim::Modulus),
+        "s_top" => (Prop::STop, Dim::Modulus),
+        "s_bot" => (Prop::SBot, Dim::Modulus),
+        "zx" | "z" | "z_x" => (Prop::Zx, Dim::Modulus),
+        "c_top" => (Prop::CTop, Dim::Length),
+        "c_bot" => (Prop::CBot, Dim::Length),
+        "q" => (Prop::Q, Dim::Modulus),
+        "mass" | "mass_per_length" | "weight" => (Prop::Mass, Dim::MassPerLength),
+        "e" => (Prop::E, Dim::Stress),
+        "fb" => (Prop::Fb, Dim::Stress),
+        "fbt" => (Prop::Fbt, Dim::Stress),
+        "fbc" => (Prop::Fbc, Dim::Stress),
+        "fv" => (Prop::Fv, Dim::Stress),
+        "fy" => (Prop::Fy, Dim::Stress),
+        "density" => (Prop::Density, Dim::Density),
+        "emin" | "e_min" => (Prop::Emin, Dim::Stress),
+        _ => return None,
+    })
+}
+
+/// Parse a cost unit: `EUR/m`, `$/ft`, `per m`, `/m`.
+fn cost_unit(unit: &str) -> Result<(Option<String>, f64)> {
+    let u = unit.trim();
+    let (cur, len) = if let Some(rest) = u.strip_prefix("per ") {
+        (None, rest)
+    } else if let Some((c, l)) = u.rsplit_once('/') {
+        let c = c.trim();
+        (
+            if c.is_empty() {
+                None
+            } else {
+                Some(c.to_string())
+            },
+            l,
+        )
+    } else {
+        return Err(Error::msg(format!(
+            "cost unit '{u}' is not of the form CURRENCY/LENGTH, e.g. cost [EUR/m] or cost [USD/ft]"
+        )));
+    };
+    let mm = units::unit_factor(len, Dim::Length)?;
+    Ok((cur, 1.0 / mm))
+}
+
+impl Schema {
+    /// The index of the name column (0 when there is none).
+    pub fn name_column(&self) -> usize {
+        self.cols.iter().position(|c| *c == Col::Name).unwrap_or(0)
+    }
+
+    /// Parse the header row; every problem is reported at once.
+    pub fn parse(headers: &[String], loc: &Location) -> Result<Schema> {
+        let mut cols = Vec::new();
+        let mut errors = Vec::new();
+        let mut currency = None;
+        let mut seen: HashSet<String> = HashSet::new();
+        for (i, h) in headers.iter().enumerate() {
+            let at = loc.clone().with_column(i as u64 + 1).with_field(h.clone());
+            match column(h, &at, &mut seen, &mut currency) {
+                Ok(c) => cols.push(c),
+                Err(e) => {
+                    errors.push(e);
+                    cols.push(Col::Note);
+                }
+            }
+        }
+        let name = cols.iter().position(|c| *c == Col::Name);
+        let shape = cols.iter().position(|c| *c == Col::Shape);
+        if name.is_none() {
+            errors.push(Error::input(
+                loc.clone(),
+                "no 'name' column: every section needs a name",
+            ));
+        }
+        let has_dims = cols.iter().any(|c| matches!(c, Col::Dim(..)));
+        let has_props = cols.iter().any(|c| matches!(c, Col::Prop(Prop::Ix, _)));
+        if !has_props && (!has_dims || shape.is_none()) {
+            errors.push(Error::input(
+                loc.clone(),
+                "the catalogue gives neither properties (A, Ix, ...) nor a 'shape' column with dimensions",
+            ));
+        }
+        if !errors.is_empty() {
+            return Err(header_problems(errors, loc));
+        }
+        Ok(Schema {
+            cols,
+            headers: headers.to_vec(),
+            currency,
+            name,
+            shape,
+        })
+    }
+}
+
+/// What one header names (`at` is its place), or the problem with it. A
+/// column seen before is refused (notes excepted); a cost header sets the
+/// catalogue's currency.
+fn column(
+    h: &str,
+    at: &Location,
+    seen: &mut HashSet<String>,
+    currency: &mut Option<String>,
+) -> Result<Col> {
+    let (name, unit) = split_header(h);
+    let key = name.to_ascii_lowercase().replace([' ', '-'], "_");
+    if key.is_empty() {
+        return Err(Error::input(
+            at.clone(),
+            format!("empty column header: expected one of {KNOWN}"),
+        ));
+    }
+    if seen.contains(&key) && !key.starts_with("note") {
+        return Err(Error::input(
+            at.clone(),
+            format!("column '{name}' appears twice"),
+        ));
+    }
+    seen.insert(key.clone());
+    let col = match key.as_str() {
+        "name" | "designation" | "section" => Ok(Col::Name),
+        "shape" | "family" => Ok(Col::Shape),
+        "series" => Ok(Col::Series),
+        "grade" => Ok(Col::Grade),
+        "stock" | "in_stock" => Ok(Col::Stock),
+        k if k.starts_with("note") => Ok(Col::Note),
+        "cost" | "price" => match &unit {
+            Some(u) => cost_unit(u).map(|(c, f)| {
+                *currency = c;
+                Col::Cost(f)
+            }),
+            None => Err(Error::msg(
+                "column 'cost' needs its unit in brackets, e.g. cost [EUR/m]",
+            )),
+        },
+        k if factor_of(k).is_some() => match unit.as_deref() {
+            None | Some("-") | Some("") => Ok(Col::Factor(factor_of(k).unwrap_or(Factor::Cd))),
+            Some(u) => Err(Error::msg(format!(
+                "column '{name}' is a dimensionless adjustment factor: expected no unit, found [{u}]"
+            ))),
+        },
+        k => quantity(k, &name, unit.as_deref()),
+    };
+    col.map_err(|e| e.at(at))
+}
+
+/// A dimension or property column, which needs its unit.
+fn quantity(key: &str, name: &str, unit: Option<&str>) -> Result<Col> {
+    let need_unit = |dim: Dim| -> Result<f64> {
+        match unit {
+            Some(u) => units::unit_factor(u, dim),
+            None => Err(Error::msg(format!(
+                "column '{name}' needs its unit in brackets, e.g. {name} [{}]",
+                example_unit(dim)
+            ))),
+        }
+    };
+    if let Some(d) = DIMS.iter().position(|d| *d == key) {
+        need_unit(Dim::Length).map(|f| Col::Dim(d, f))
+    } else if let Some((p, dim)) = prop_of(key) {
+        need_unit(dim).map(|f| Col::Prop(p, f))
+    } else {
+        Err(Error::msg(format!(
+            "unknown column '{name}': expected one of {KNOWN}"
+        )))
+    }
+}
+
+/// The header's problems as one error. A header of thousands of bad
+/// columns is one mistake (a wrong delimiter, a data row as header): the
+/// first few say so.
+fn header_problems(mut errors: Vec<Error>, loc: &Location) -> Error {
+    const SHOWN: usize = 20;
+    if errors.len() > SHOWN {
+        let more = errors.len() - SHOWN;
+        errors.truncate(SHOWN);
+        errors.push(Error::input(
+            loc.clone(),
+            format!("... and {more} more header problem(s)"),
+        ));
+    }
+    if errors.len() == 1 {
+        errors.remove(0)
+    } else {
+        Error::Many(errors)
+    }
+}
+
+fn example_unit(dim: Dim) -> &'static str {
+    match dim {
+        Dim::Length => "mm",
+        Dim::Area => "cm2",
+        Dim::SecondMoment => "cm4",
+        Dim::Modulus => "cm3",
+        Dim::Warping => "cm6",
+        Dim::MassPerLength => "kg/m",
+        Dim::Stress => "MPa",
+        Dim::Density => "kg/m3",
+        _ => "unit",
+    }
+}
+
+fn prop_label(p: Prop) -> &'static str {
+    match p {
+        Prop::Area => "A",
+        Prop::Ix => "Ix",
+        Prop::Iy => "Iy",
+        Prop::STop => "S_top",
+        Prop::SBot => "S_bot",
+        Prop::Zx => "Zx",
+        Prop::J => "J",
+        Prop::Cw => "Cw",
+        Prop::Q => "Q",
+        Prop::CTop => "c_top",
+        Prop::CBot => "c_bot",
+        _ => "",
+    }
+}
+
+/// The column that gives the quantity `label` (an S column gives both
+/// S_top and S_bot; tw and tf are dimension columns).
+pub(super) fn column_of(schema: &Schema, label: &str) -> Option<usize> {
+    schema.cols.iter().position(|col| match col {
+        Col::Prop(pp, _) => prop_label(*pp) == label || (label.starts_with("S_") && *pp == Prop::S),
+        Col::Dim(k, ..) => DIMS.get(*k).is_some_and(|d| *d == label),
+        _ => false,
+    })
+}

@@ -1,0 +1,207 @@
+//! The job file (TOML): turns a user's description of a member into a
+//! validated [`Beam`], [`Material`] and [`Criteria`]. Pure: it takes text,
+//! not files (except [`read_text`], which reads one for the command line).
+//!
+//! Every quantity is a string with its unit (`"5.4 m"`, `"2.5 kN/m"`).
+//! Errors carry the file name, line and column of the offending value.
+//!
+//! The combination presets a job may name (`[presets]`) and the standard
+//! combinations of a beam built from flags live with the combinations, in
+//! [`crate::beam::presets`].
+//!
+//! One file per part of the job: `raw` (the TOML as written), `source`
+//! (spans to locations), `values` (the words flags and schedules share),
+//! `beam` (spans, supports, cases), `loads`, `combinations` (with the
+//! presets), `material` (and grades), `checks` (the criteria).
+
+mod beam;
+mod checks;
+mod combinations;
+mod loads;
+mod material;
+mod raw;
+mod source;
+mod values;
+
+pub use crate::beam::presets::{set_partial_snow, standard as standard_combinations};
+pub use values::{
+    RATIO_RANGE, parse_braced_flange, parse_bracing, parse_kind, parse_load_height, parse_ratio,
+    parse_support,
+};
+
+use crate::beam::model::Beam;
+use crate::check::{Criteria, Material};
+use crate::error::{Error, Location, Result};
+use crate::units;
+use raw::RawJob;
+use source::Source;
+
+/// A job ready to analyse.
+#[derive(Clone, Debug)]
+pub struct Job {
+    pub title: String,
+    pub beam: Beam,
+    pub material: Material,
+    pub criteria: Criteria,
+    /// Named material grades a catalogue row may refer to.
+    pub grades: Vec<(String, Material)>,
+    /// Currency of catalogue costs (for display).
+    pub currency: Option<String>,
+    /// Preset names used (strength, service), so a schedule can regenerate
+    /// the combinations for its own cases.
+    pub presets: (Option<String>, Option<String>),
+    /// Notes on how the job was interpreted (defaults applied, ...).
+    pub notes: Vec<String>,
+}
+
+/// Read a text file (a job file), reporting invalid UTF-8 as bad input at
+/// its line and column rather than as an I/O failure.
+pub fn read_text(path: &std::path::Path, shown: &str) -> Result<String> {
+    // Read at most one byte past the limit (from_toml then refuses it).
+    let mut bytes = Vec::new();
+    std::fs::File::open(path)
+        .and_then(|f| {
+            use std::io::Read;
+            f.take(MAX_JOB_BYTES as u64 + 1).read_to_end(&mut bytes)
+        })
+        .map_err(|e| Error::io(shown, e))?;
+    if bytes.len() > MAX_JOB_BYTES {
+        return Err(Error::input(
+            Location::in_file(shown),
+            format!(
+                "the job file is more than {} bytes, the most a job may have: is it the right file?",
+                units::count(MAX_JOB_BYTES as u64)
+            ),
+        ));
+    }
+    String::from_utf8(bytes).map_err(|e| {
+        let good = &e.as_bytes()[..e.utf8_error().valid_up_to()];
+        let line = good.iter().filter(|b| **b == b'\n').count() as u64 + 1;
+        let col = good.iter().rev().take_while(|b| **b != b'\n').count() as u64 + 1;
+        Error::input(
+            Location::in_file(shown).with_line(line).with_column(col),
+            "not valid UTF-8 text: save the file as UTF-8",
+        )
+    })
+}
+
+/// Largest job file read (a job with the most loads allowed is well under
+/// 1 MB): a larger file is refused before it is parsed.
+pub const MAX_JOB_BYTES: usize = 4 << 20;
+
+/// Most spans, load cases, loads and combinations one job may hold.
+pub const MAX_SPANS: usize = 100;
+pub const MAX_CASES: usize = 200;
+pub const MAX_LOADS: usize = 10_000;
+pub const MAX_COMBINATIONS: usize = 2_000;
+
+/// Read a job from TOML text; `file` names it in errors.
+pub fn from_toml(text: &str, file: &str) -> Result<Job> {
+    let src = Source { file, text };
+    let raw = parse(&src)?;
+    within_limits(&src, &raw)?;
+    let mut notes = Vec::new();
+    let mut beam = beam::beam(&src, &raw.beam)?;
+    let material = material::parse_material(&src, &raw.material, "material", &mut notes)?;
+    let grades = material::grades(&src, raw.materials.as_ref(), &material)?;
+    let explicit_pattern = beam::cases(&src, &mut beam, &raw.case)?;
+    let loads = loads::loads(&src, &mut beam, &raw.load)?;
+    combinations::combinations(&src, &mut beam, &raw.combination)?;
+    combinations::presets(
+        &src,
+        &mut beam,
+        raw.presets.as_ref(),
+        &explicit_pattern,
+        &mut notes,
+    )?;
+    combinations::need_strength(&src, &beam)?;
+    let criteria = checks::criteria(&src, raw.checks.as_ref())?;
+    checks::refuse_unsuitable(&src, raw.checks.as_ref(), &criteria, &material, &grades)?;
+    if criteria.self_weight && beam.self_weight_case.is_none() {
+        notes.push("no dead load case: the section's self-weight is not included".into());
+    }
+    loads::validate(&src, &beam, &loads)?;
+    Ok(Job {
+        title: raw.title.unwrap_or_else(|| "beam".into()),
+        beam,
+        material,
+        criteria,
+        grades,
+        currency: raw.currency.clone(),
+        presets: (
+            raw.presets
+                .as_ref()
+                .and_then(|p| p.strength.as_ref().map(|s| s.get_ref().clone())),
+            raw.presets
+                .as_ref()
+                .and_then(|p| p.service.as_ref().map(|s| s.get_ref().clone())),
+        ),
+        notes,
+    })
+}
+
+/// The TOML parsed into the raw tables, refused before parsing when the
+/// text is too large.
+fn parse(src: &Source<'_>) -> Result<RawJob> {
+    let (text, file) = (src.text, src.file);
+    if text.len() > MAX_JOB_BYTES {
+        return Err(Error::input(
+            Location::in_file(file),
+            format!(
+                "the job file is {} bytes, more than the {} a job may have: is it the right file?",
+                units::count(text.len() as u64),
+                units::count(MAX_JOB_BYTES as u64)
+            ),
+        ));
+    }
+    toml::from_str(text).map_err(|e| {
+        let loc = match e.span() {
+            Some(sp) => src.loc(sp, ""),
+            None => Location::in_file(file),
+        };
+        let loc = Location { field: None, ..loc };
+        Error::input(loc, e.message().to_string())
+    })
+}
+
+/// Counts above the most one job may hold are refused, at the first one
+/// too many where it has a place.
+fn within_limits(src: &Source<'_>, raw: &RawJob) -> Result<()> {
+    for (what, n, most, span) in [
+        (
+            "spans",
+            raw.beam.spans.get_ref().len(),
+            MAX_SPANS,
+            raw.beam.spans.get_ref().get(MAX_SPANS).map(|s| s.span()),
+        ),
+        ("load cases", raw.case.len(), MAX_CASES, None),
+        (
+            "loads",
+            raw.load.len(),
+            MAX_LOADS,
+            raw.load.get(MAX_LOADS).map(|l| l.case.span()),
+        ),
+        (
+            "combinations",
+            raw.combination.len(),
+            MAX_COMBINATIONS,
+            None,
+        ),
+    ] {
+        if n > most {
+            let loc = match span {
+                Some(sp) => src.loc(sp, ""),
+                None => Location::in_file(src.file),
+            };
+            return Err(Error::input(
+                loc,
+                format!(
+                    "the job has {} {what}, more than the {} one job may have",
+                    units::count(n as u64),
+                    units::count(most as u64)
+                ),
+            ));
+        }
+    }
+    Ok(())
+}
