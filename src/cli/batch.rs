@@ -7,10 +7,11 @@ use super::{EXIT_FAILS, Out};
 use beamsift::catalog::Materials;
 use beamsift::error::{Error, Result};
 use beamsift::job;
-use beamsift::report::{self, Align, Document, Table};
-use beamsift::search::batch::{self, BoqLine, MemberResult};
-use beamsift::search::{self, rationalise::Plan};
-use beamsift::units::{self, Show, System};
+use beamsift::report::{
+    self,
+    batch::{BatchView, document},
+};
+use beamsift::search::{self, batch};
 use serde::Serialize;
 use std::path::PathBuf;
 
@@ -47,87 +48,11 @@ pub struct Args {
 }
 
 #[derive(Serialize)]
-struct MemberOut {
-    #[serde(flatten)]
-    result: MemberResult,
-    section: Option<String>,
-    /// kg/m.
-    mass: Option<f64>,
-}
-
-#[derive(Serialize)]
 struct BatchResult {
-    members: Vec<MemberOut>,
-    bill: Vec<BoqLine>,
-    total_mass: f64,
-    total_cost: Option<f64>,
-    rationalised: Option<Rationalised>,
-    not_sized: Vec<String>,
+    #[serde(flatten)]
+    schedule: batch::Schedule,
     currency: String,
     caution: &'static str,
-}
-
-#[derive(Serialize)]
-struct Rationalised {
-    k: usize,
-    plan: Plan,
-    members: Vec<(String, String)>,
-    bill: Vec<BoqLine>,
-    total_mass: f64,
-    total_cost: Option<f64>,
-}
-
-fn totals(bill: &[BoqLine]) -> (f64, Option<f64>) {
-    let m = bill.iter().map(|l| l.total_mass).sum();
-    let c = bill
-        .iter()
-        .try_fold(0.0, |acc, l| l.total_cost.map(|c| acc + c));
-    (m, c)
-}
-
-fn bill_table(title: &str, bill: &[BoqLine], sys: System, cur: &str) -> Table {
-    let w = if sys == System::Si { "kg" } else { "lb" };
-    let wf = if sys == System::Si {
-        1.0
-    } else {
-        1.0 / units::KG_PER_LB
-    };
-    let mut t = Table::new(
-        title,
-        &[
-            ("Section", Align::Left),
-            ("Pieces", Align::Right),
-            (
-                &format!("Total length [{}]", Show::Span.label(sys)),
-                Align::Right,
-            ),
-            (&format!("Total mass [{w}]"), Align::Right),
-            (&format!("Total cost [{cur}]"), Align::Right),
-            ("Marks", Align::Left),
-        ],
-    );
-    for l in bill {
-        t.row(vec![
-            l.section.clone(),
-            l.pieces.to_string(),
-            Show::Span.num(l.total_length, sys),
-            format!("{:.0}", l.total_mass * wf),
-            l.total_cost
-                .map(|c| format!("{c:.2}"))
-                .unwrap_or_else(|| "—".into()),
-            l.marks.join(", "),
-        ]);
-    }
-    let (m, c) = totals(bill);
-    t.row(vec![
-        "Total".into(),
-        bill.iter().map(|l| l.pieces).sum::<u32>().to_string(),
-        Show::Span.num(bill.iter().map(|l| l.total_length).sum(), sys),
-        format!("{:.0}", m * wf),
-        c.map(|c| format!("{c:.2}")).unwrap_or_else(|| "—".into()),
-        String::new(),
-    ]);
-    t
 }
 
 pub fn run(a: Args, out: &Out) -> Result<i32> {
@@ -177,195 +102,32 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     };
     let filters = a.cat.filters_for(&template)?;
     let (rows, counts, _skipped) = search::load_rows(cats, &mats, a.cat.skip_bad_rows, &filters)?;
-    let results = batch::size(&members, &rows, &mats, &filters, a.objective == "cost")?;
-    let choice: Vec<Option<usize>> = results.iter().map(|r| r.chosen).collect();
-    let bill = batch::bill(&results, &choice, &rows);
-    let (total_mass, total_cost) = totals(&bill);
-    let not_sized: Vec<String> = results
-        .iter()
-        .filter(|r| r.chosen.is_none())
-        .map(|r| r.mark.clone())
-        .collect();
-    let rationalised = match a.max_sizes {
-        Some(0) => return Err(Error::msg("--max-sizes must be at least 1")),
-        Some(k) if not_sized.is_empty() => {
-            batch::rationalise_schedule(&results, &rows, k, a.objective == "cost").map(|plan| {
-                let members = results
-                    .iter()
-                    .zip(&plan.choice)
-                    .map(|(r, &j)| (r.mark.clone(), rows[j].name.clone()))
-                    .collect();
-                let ch: Vec<Option<usize>> = plan.choice.iter().map(|&j| Some(j)).collect();
-                let bill = batch::bill(&results, &ch, &rows);
-                let (m, c) = totals(&bill);
-                Rationalised {
-                    k,
-                    plan,
-                    members,
-                    bill,
-                    total_mass: m,
-                    total_cost: c,
-                }
-            })
-        }
-        _ => None,
+    let by_cost = a.objective == "cost";
+    let schedule = batch::schedule(&members, &rows, &mats, &filters, by_cost, a.max_sizes)?;
+    let view = BatchView {
+        sys,
+        schedule: &sched_shown,
+        template: &shown,
+        material: &template.material.name,
+        rows: rows.len(),
+        counts: &counts,
+        skip_bad_rows: a.cat.skip_bad_rows,
+        by_cost,
+        rationalising: a.max_sizes.is_some(),
+        currency: &cur,
+        excluded: template.criteria.exclude.list(),
     };
-    let members_out: Vec<MemberOut> = results
-        .iter()
-        .map(|r| MemberOut {
-            section: r.chosen.map(|j| rows[j].name.clone()),
-            mass: r.chosen.map(|j| rows[j].mass),
-            result: r.clone(),
-        })
-        .collect();
+    let doc = document(&schedule, &view);
+    let code = if schedule.not_sized.is_empty() {
+        0
+    } else {
+        EXIT_FAILS
+    };
     let result = BatchResult {
-        members: members_out,
-        bill,
-        total_mass,
-        total_cost,
-        rationalised,
-        not_sized: not_sized.clone(),
-        currency: cur.clone(),
+        schedule,
+        currency: cur,
         caution: report::CAUTION,
     };
-    let mut doc = Document::new(format!("Schedule {}", sched_shown));
-    doc.para(format!(
-        "{} member mark(s) sized against {} section(s){}{}; template {} ({}).",
-        members.len(),
-        rows.len(),
-        if counts.filtered > 0 {
-            format!(" ({} row(s) left out by the filters)", counts.filtered)
-        } else {
-            String::new()
-        },
-        if a.cat.skip_bad_rows {
-            format!(", {} bad row(s) skipped", counts.bad)
-        } else {
-            String::new()
-        },
-        shown,
-        template.material.name
-    ));
-    let mut legend = beamsift::report::select::Legend::default();
-    let mut t = Table::new(
-        if a.objective == "cost" {
-            "Members (cheapest passing section each)"
-        } else {
-            "Members (lightest passing section each)"
-        },
-        &[
-            ("Mark", Align::Left),
-            ("Count", Align::Right),
-            (&format!("Length [{}]", Show::Span.label(sys)), Align::Right),
-            ("Section", Align::Left),
-            (&format!("Mass [{}]", Show::Mass.label(sys)), Align::Right),
-            ("Utilisation", Align::Right),
-            ("Governed by", Align::Left),
-            ("Passing sections", Align::Right),
-            ("Lighter, not verified", Align::Right),
-            ("Not checked", Align::Left),
-        ],
-    );
-    for m in &result.members {
-        t.row(vec![
-            m.result.mark.clone(),
-            m.result.count.to_string(),
-            Show::Span.num(m.result.length, sys),
-            m.section.clone().unwrap_or_else(|| "NONE PASSES".into()),
-            m.mass
-                .map(|v| Show::Mass.fixed(v, sys, 1))
-                .unwrap_or_else(|| "—".into()),
-            m.result
-                .utilisation
-                .map(|u| format!("{u:.3}"))
-                .unwrap_or_else(|| "—".into()),
-            m.result.governing.clone().unwrap_or_default(),
-            m.result.passing.len().to_string(),
-            m.result.lighter_not_verified.to_string(),
-            legend.keys(&m.result.not_checked),
-        ]);
-    }
-    doc.table(t);
-    if let Some(m) = result
-        .members
-        .iter()
-        .find(|m| m.result.lighter_not_verified > 0)
-    {
-        doc.list(
-            format!(
-                "Lighter sections that are not verified were not chosen (a limit state that applies could not be evaluated), e.g. for {}:",
-                m.result.mark
-            ),
-            m.result.not_verified_reasons.clone(),
-        );
-    }
-    doc.table(bill_table("Bill of quantities", &result.bill, sys, &cur));
-    if let Some(r) = &result.rationalised {
-        doc.heading(format!(
-            "Rationalised to at most {} section size(s) (least total {})",
-            r.k, a.objective
-        ));
-        let mut t = Table::new("", &[("Mark", Align::Left), ("Section", Align::Left)]);
-        for (m, s) in &r.members {
-            t.row(vec![m.clone(), s.clone()]);
-        }
-        doc.table(t);
-        doc.table(bill_table(
-            "Bill of quantities, rationalised",
-            &r.bill,
-            sys,
-            &cur,
-        ));
-        doc.para(if r.plan.exact {
-            format!(
-                "Exact optimum (branch and bound completed). It costs {:.1} % more {} than sizing every member on its own.",
-                100.0 * r.plan.gap,
-                a.objective
-            )
-        } else {
-            format!(
-                "Heuristic (greedy with swaps; the exact search exceeded its budget): at most {:.1} % above the optimum, measured against the unconstrained lower bound.",
-                100.0 * r.plan.gap
-            )
-        });
-    }
-    if !not_sized.is_empty() {
-        doc.para(format!(
-            "No section in the catalogue passes: {}. Check these members with `beamsift select` to see the nearest misses{}.",
-            not_sized.join(", "),
-            if a.max_sizes.is_some() { " (rationalisation needs every member sized)" } else { "" }
-        ));
-    }
-    // Each distinct assumption or note once, with the marks it concerns.
-    let grouped = |pick: &dyn Fn(&MemberResult) -> &Vec<String>| -> Vec<String> {
-        let mut out: Vec<(String, Vec<String>)> = Vec::new();
-        for m in &results {
-            for x in pick(m) {
-                match out.iter_mut().find(|(t, _)| t == x) {
-                    Some((_, marks)) => marks.push(m.mark.clone()),
-                    None => out.push((x.clone(), vec![m.mark.clone()])),
-                }
-            }
-        }
-        out.into_iter()
-            .map(|(t, marks)| {
-                if marks.len() == results.len() {
-                    t
-                } else {
-                    format!("{}: {t}", marks.join(", "))
-                }
-            })
-            .collect()
-    };
-    let assumptions = grouped(&|m| &m.assumptions);
-    let notes = grouped(&|m| &m.notes);
-    beamsift::report::select::finish_doc(
-        &mut doc,
-        &template.criteria.exclude.list(),
-        &assumptions,
-        &notes,
-        legend,
-    );
     emit(out, &report::render(out.format, &result, &doc))?;
-    Ok(if not_sized.is_empty() { 0 } else { EXIT_FAILS })
+    Ok(code)
 }

@@ -10,6 +10,7 @@
 
 pub mod batch;
 pub mod rationalise;
+pub mod schedule;
 pub mod spans;
 
 use crate::catalog::read::{Catalog, Chunk};

@@ -1,0 +1,180 @@
+//! The document of a sized schedule: members, the bill of quantities and
+//! the rationalised plan (computed in `search::batch`).
+
+use super::select::{Legend, finish_doc};
+use super::{Align, Document, Table};
+use crate::search::Counts;
+use crate::search::batch::{BoqLine, Schedule};
+use crate::units::{self, Show, System};
+
+/// How a schedule is shown.
+pub struct BatchView<'a> {
+    pub sys: System,
+    pub schedule: &'a str,
+    pub template: &'a str,
+    pub material: &'a str,
+    pub rows: usize,
+    pub counts: &'a Counts,
+    pub skip_bad_rows: bool,
+    pub by_cost: bool,
+    pub rationalising: bool,
+    pub currency: &'a str,
+    pub excluded: Vec<String>,
+}
+
+pub fn bill_table(title: &str, bill: &[BoqLine], sys: System, cur: &str) -> Table {
+    let w = if sys == System::Si { "kg" } else { "lb" };
+    let wf = if sys == System::Si {
+        1.0
+    } else {
+        1.0 / units::KG_PER_LB
+    };
+    let mut t = Table::new(
+        title,
+        &[
+            ("Section", Align::Left),
+            ("Pieces", Align::Right),
+            (
+                &format!("Total length [{}]", Show::Span.label(sys)),
+                Align::Right,
+            ),
+            (&format!("Total mass [{w}]"), Align::Right),
+            (&format!("Total cost [{cur}]"), Align::Right),
+            ("Marks", Align::Left),
+        ],
+    );
+    for l in bill {
+        t.row(vec![
+            l.section.clone(),
+            l.pieces.to_string(),
+            Show::Span.num(l.total_length, sys),
+            format!("{:.0}", l.total_mass * wf),
+            l.total_cost
+                .map(|c| format!("{c:.2}"))
+                .unwrap_or_else(|| "—".into()),
+            l.marks.join(", "),
+        ]);
+    }
+    let (m, c) = crate::search::batch::totals(bill);
+    t.row(vec![
+        "Total".into(),
+        bill.iter().map(|l| l.pieces).sum::<u32>().to_string(),
+        Show::Span.num(bill.iter().map(|l| l.total_length).sum(), sys),
+        format!("{:.0}", m * wf),
+        c.map(|c| format!("{c:.2}")).unwrap_or_else(|| "—".into()),
+        String::new(),
+    ]);
+    t
+}
+
+/// The document of a sized schedule.
+pub fn document(s: &Schedule, v: &BatchView<'_>) -> Document {
+    let sys = v.sys;
+    let objective = if v.by_cost { "cost" } else { "mass" };
+    let mut doc = Document::new(format!("Schedule {}", v.schedule));
+    doc.para(format!(
+        "{} member mark(s) sized against {} section(s){}{}; template {} ({}).",
+        s.members.len(),
+        v.rows,
+        if v.counts.filtered > 0 {
+            format!(" ({} row(s) left out by the filters)", v.counts.filtered)
+        } else {
+            String::new()
+        },
+        if v.skip_bad_rows {
+            format!(", {} bad row(s) skipped", v.counts.bad)
+        } else {
+            String::new()
+        },
+        v.template,
+        v.material
+    ));
+    let mut legend = Legend::default();
+    let mut t = Table::new(
+        if v.by_cost {
+            "Members (cheapest passing section each)"
+        } else {
+            "Members (lightest passing section each)"
+        },
+        &[
+            ("Mark", Align::Left),
+            ("Count", Align::Right),
+            (&format!("Length [{}]", Show::Span.label(sys)), Align::Right),
+            ("Section", Align::Left),
+            (&format!("Mass [{}]", Show::Mass.label(sys)), Align::Right),
+            ("Utilisation", Align::Right),
+            ("Governed by", Align::Left),
+            ("Passing sections", Align::Right),
+            ("Lighter, not verified", Align::Right),
+            ("Not checked", Align::Left),
+        ],
+    );
+    for m in &s.members {
+        t.row(vec![
+            m.result.mark.clone(),
+            m.result.count.to_string(),
+            Show::Span.num(m.result.length, sys),
+            m.section.clone().unwrap_or_else(|| "NONE PASSES".into()),
+            m.mass
+                .map(|v| Show::Mass.fixed(v, sys, 1))
+                .unwrap_or_else(|| "—".into()),
+            m.result
+                .utilisation
+                .map(|u| format!("{u:.3}"))
+                .unwrap_or_else(|| "—".into()),
+            m.result.governing.clone().unwrap_or_default(),
+            m.result.passing.len().to_string(),
+            m.result.lighter_not_verified.to_string(),
+            legend.keys(&m.result.not_checked),
+        ]);
+    }
+    doc.table(t);
+    if let Some(m) = s.members.iter().find(|m| m.result.lighter_not_verified > 0) {
+        doc.list(
+            format!(
+                "Lighter sections that are not verified were not chosen (a limit state that applies could not be evaluated), e.g. for {}:",
+                m.result.mark
+            ),
+            m.result.not_verified_reasons.clone(),
+        );
+    }
+    doc.table(bill_table("Bill of quantities", &s.bill, sys, v.currency));
+    if let Some(r) = &s.rationalised {
+        doc.heading(format!(
+            "Rationalised to at most {} section size(s) (least total {})",
+            r.k, objective
+        ));
+        let mut t = Table::new("", &[("Mark", Align::Left), ("Section", Align::Left)]);
+        for (m, s) in &r.members {
+            t.row(vec![m.clone(), s.clone()]);
+        }
+        doc.table(t);
+        doc.table(bill_table(
+            "Bill of quantities, rationalised",
+            &r.bill,
+            sys,
+            v.currency,
+        ));
+        doc.para(if r.plan.exact {
+            format!(
+                "Exact optimum (branch and bound completed). It costs {:.1} % more {} than sizing every member on its own.",
+                100.0 * r.plan.gap,
+                objective
+            )
+        } else {
+            format!(
+                "Heuristic (greedy with swaps; the exact search exceeded its budget): at most {:.1} % above the optimum, measured against the unconstrained lower bound.",
+                100.0 * r.plan.gap
+            )
+        });
+    }
+    if !s.not_sized.is_empty() {
+        doc.para(format!(
+            "No section in the catalogue passes: {}. Check these members with `beamsift select` to see the nearest misses{}.",
+            s.not_sized.join(", "),
+            if v.rationalising { " (rationalisation needs every member sized)" } else { "" }
+        ));
+    }
+    finish_doc(&mut doc, &v.excluded, &s.assumptions, &s.notes, legend);
+    doc
+}

@@ -1,0 +1,426 @@
+//! The member schedule format, read into one job per member.
+//!
+//! Schedule CSV (our format; units in brackets as in catalogues):
+//! `mark`, `count`, `spans [m]` (`;`-separated), `supports`
+//! (`;`-separated; default pinned at every node), `dead [kN/m]`,
+//! `live [kN/m]`, `snow [kN/m]` (uniform over the member),
+//! `dead_point [kN]`, `live_point [kN]` with `point_at [m]`,
+//! `max_depth [mm]`, `bracing` (`continuous`, `supports` or a spacing with
+//! its unit), `service` (`floor` or `roof` preset for this member),
+//! `length [m]` (for quantities; default the sum of the spans).
+//! Columns named note... are ignored.
+
+use crate::beam::model::{Beam, Category, ComboKind, LoadKind, Support};
+use crate::error::{Error, Location, Result};
+use crate::job::{self, Job};
+use crate::units::{self, Dim};
+use std::io::Read;
+
+/// One member of a schedule.
+#[derive(Clone, Debug)]
+pub struct Member {
+    pub mark: String,
+    pub count: u32,
+    /// Member length for quantities, mm.
+    pub length: f64,
+    pub job: Job,
+    pub max_depth: Option<f64>,
+    pub line: u64,
+}
+
+#[derive(Clone, Copy, PartialEq)]
+enum SCol {
+    Mark,
+    Count,
+    Spans(f64),
+    Supports,
+    Uniform(Category, f64),
+    Point(Category, f64),
+    PointAt(f64),
+    MaxDepth(f64),
+    Bracing,
+    Service,
+    Length(f64),
+    Note,
+}
+
+const KNOWN: &str = "mark, count, spans [m], supports, dead [kN/m], live [kN/m], snow [kN/m], dead_point [kN], live_point [kN], point_at [m], max_depth [mm], bracing, service (floor or roof), length [m]";
+
+/// Read a schedule; every bad row is reported. `template` supplies the
+/// material, grades, criteria and combination presets.
+pub fn read_schedule<R: Read>(
+    input: R,
+    file: &str,
+    template: &Job,
+    n_live: f64,
+    n_total: f64,
+) -> Result<Vec<Member>> {
+    use crate::catalog::records::{Block, Blocks, Records};
+    let text = |f: &[u8], line: u64, col: usize| -> Result<String> {
+        std::str::from_utf8(f).map(str::to_string).map_err(|_| {
+            Error::input(
+                Location::in_file(file)
+                    .with_line(line)
+                    .with_column(col as u64 + 1),
+                "not valid UTF-8 text",
+            )
+        })
+    };
+    let mut rdr = Blocks::new(input, b',');
+    let mut head = Records::default();
+    rdr.take_records(1, &mut head)
+        .map_err(|e| crate::catalog::read::read_error(file, e))?;
+    if head.is_empty() {
+        return Err(Error::input(
+            Location::in_file(file),
+            "the schedule is empty: expected a header row naming the columns",
+        ));
+    }
+    let header_line = head.get(0).line();
+    let headers: Vec<String> = head
+        .get(0)
+        .iter()
+        .enumerate()
+        .map(|(i, f)| text(f, header_line, i).map(|t| t.trim().to_string()))
+        .collect::<Result<_>>()?;
+    let mut cols = Vec::new();
+    let mut errors = Vec::new();
+    for (i, h) in headers.iter().enumerate() {
+        let h = h.as_str();
+        let (name, unit) = match (h.find('['), h.rfind(']')) {
+            (Some(a), Some(b)) if b > a => {
+                (h[..a].trim().to_ascii_lowercase(), Some(h[a + 1..b].trim()))
+            }
+            _ => (h.to_ascii_lowercase(), None),
+        };
+        let at = Location::in_file(file)
+            .with_line(header_line)
+            .with_column(i as u64 + 1)
+            .with_field(h.to_string());
+        let unit_of = |dim: Dim| -> Result<f64> {
+            match unit {
+                Some(u) => units::unit_factor(u, dim),
+                None => Err(Error::msg(format!(
+                    "column '{name}' needs its unit in brackets"
+                ))),
+            }
+        };
+        let col = match name.as_str() {
+            "mark" => Ok(SCol::Mark),
+            "count" => Ok(SCol::Count),
+            "spans" | "span" => unit_of(Dim::Length).map(SCol::Spans),
+            "supports" => Ok(SCol::Supports),
+            "dead" => unit_of(Dim::LineLoad).map(|f| SCol::Uniform(Category::Dead, f)),
+            "live" => unit_of(Dim::LineLoad).map(|f| SCol::Uniform(Category::Live, f)),
+            "snow" => unit_of(Dim::LineLoad).map(|f| SCol::Uniform(Category::Snow, f)),
+            "dead_point" => unit_of(Dim::Force).map(|f| SCol::Point(Category::Dead, f)),
+            "live_point" => unit_of(Dim::Force).map(|f| SCol::Point(Category::Live, f)),
+            "point_at" => unit_of(Dim::Length).map(SCol::PointAt),
+            "max_depth" => unit_of(Dim::Length).map(SCol::MaxDepth),
+            "bracing" => Ok(SCol::Bracing),
+            "service" => Ok(SCol::Service),
+            "length" => unit_of(Dim::Length).map(SCol::Length),
+            n if n.starts_with("note") => Ok(SCol::Note),
+            _ => Err(Error::msg(format!(
+                "unknown column '{h}': expected {KNOWN}"
+            ))),
+        };
+        match col {
+            Ok(c) => cols.push(c),
+            Err(e) => {
+                errors.push(e.at(&at));
+                cols.push(SCol::Note);
+            }
+        }
+    }
+    if !cols.contains(&SCol::Mark) || !cols.iter().any(|c| matches!(c, SCol::Spans(_))) {
+        errors.push(Error::input(
+            Location::in_file(file).with_line(header_line),
+            "a schedule needs 'mark' and 'spans [unit]' columns",
+        ));
+    }
+    if !errors.is_empty() {
+        return Err(Error::Many(errors));
+    }
+    let mut members = Vec::new();
+    let mut marks = std::collections::HashMap::new();
+    let mut block = Block::default();
+    let mut recs = Records::default();
+    let mut rows: Vec<(u64, std::result::Result<Vec<String>, Error>)> = Vec::new();
+    while rdr
+        .next_records(&mut block, &mut recs)
+        .map_err(|e| crate::catalog::read::read_error(file, e))?
+        > 0
+    {
+        for r in recs.iter() {
+            let line = r.line();
+            let fields = if r.fault().is_some() {
+                Err(Error::input(
+                    Location::in_file(file).with_line(line),
+                    "a quoted field is never closed (the row runs to the end of the file)",
+                ))
+            } else if r.len() != headers.len() {
+                Err(Error::input(
+                    Location::in_file(file).with_line(line),
+                    format!(
+                        "this row has {} field(s) but the header has {}: check the delimiter and quoting",
+                        r.len(),
+                        headers.len()
+                    ),
+                ))
+            } else {
+                r.iter()
+                    .enumerate()
+                    .map(|(i, f)| text(f, line, i))
+                    .collect::<Result<Vec<_>>>()
+            };
+            rows.push((line, fields));
+        }
+    }
+    for (line, rec) in rows {
+        let rec = match rec {
+            Ok(r) => r,
+            Err(e) => {
+                errors.push(e);
+                continue;
+            }
+        };
+        match member_of(&rec, &cols, &headers, template, n_live, n_total) {
+            Ok(mut m) => {
+                m.line = line;
+                if let Some(first) = marks.insert(m.mark.clone(), line) {
+                    errors.push(Error::input(
+                        Location::in_file(file).with_line(line),
+                        format!("mark '{}' appears twice (first on line {first})", m.mark),
+                    ));
+                }
+                members.push(m);
+            }
+            Err((col, e)) => errors.push(
+                e.at(&Location::in_file(file)
+                    .with_line(line)
+                    .with_column(col as u64 + 1)),
+            ),
+        }
+    }
+    if members.is_empty() && errors.is_empty() {
+        errors.push(Error::input(
+            Location::in_file(file),
+            "the schedule has no members",
+        ));
+    }
+    if !errors.is_empty() {
+        return Err(Error::Many(errors));
+    }
+    Ok(members)
+}
+
+fn member_of(
+    rec: &[String],
+    cols: &[SCol],
+    headers: &[String],
+    template: &Job,
+    n_live: f64,
+    n_total: f64,
+) -> std::result::Result<Member, (usize, Error)> {
+    let mut mark = String::new();
+    let mut count = 1u32;
+    let mut spans = Vec::new();
+    let mut supports: Option<Vec<Support>> = None;
+    let mut uniform: Vec<(Category, f64)> = Vec::new();
+    let mut points: Vec<(Category, f64)> = Vec::new();
+    let mut point_at = None;
+    let mut max_depth = None;
+    let mut bracing = None;
+    let mut service: Option<String> = None;
+    let mut length = None;
+    for (i, col) in cols.iter().enumerate() {
+        let cell = rec.get(i).map_or("", |c| c.trim());
+        let h = headers.get(i).map_or("", String::as_str);
+        let fail = |msg: String| (i, Error::msg(msg).in_field(h));
+        let num = |s: &str| -> std::result::Result<f64, (usize, Error)> {
+            units::parse_number(s).map_err(|e| (i, e.in_field(h)))
+        };
+        if cell.is_empty() {
+            continue;
+        }
+        match *col {
+            SCol::Mark => mark = cell.to_string(),
+            SCol::Count => {
+                count = cell
+                    .parse::<u32>()
+                    .ok()
+                    .filter(|c| (1..=1_000_000).contains(c))
+                    .ok_or_else(|| {
+                        fail(format!(
+                            "'{cell}' is not a whole number of pieces from 1 to 1,000,000"
+                        ))
+                    })?
+            }
+            SCol::Spans(f) => {
+                for s in cell.split(';') {
+                    let v = num(s)? * f;
+                    if v <= 0.0 {
+                        return Err(fail(format!("span '{s}' must be greater than zero")));
+                    }
+                    spans.push(v);
+                }
+            }
+            SCol::Supports => {
+                supports = Some(
+                    cell.split(';')
+                        .map(job::parse_support)
+                        .collect::<Result<Vec<_>>>()
+                        .map_err(|e| (i, e.in_field(h)))?,
+                )
+            }
+            SCol::Uniform(c, f) => uniform.push((c, num(cell)? * f)),
+            SCol::Point(c, f) => points.push((c, num(cell)? * f)),
+            SCol::PointAt(f) => point_at = Some(num(cell)? * f),
+            SCol::MaxDepth(f) => {
+                let v = num(cell)? * f;
+                if !(1.0..=100_000.0).contains(&v) {
+                    return Err(fail(format!(
+                        "'{cell}' is outside the supported depth limit, 1 mm to 100 m"
+                    )));
+                }
+                max_depth = Some(v)
+            }
+            SCol::Bracing => {
+                bracing = Some(job::parse_bracing(cell).map_err(|e| (i, e.in_field(h)))?)
+            }
+            SCol::Length(f) => {
+                let v = num(cell)? * f;
+                if !(1.0..=1e6).contains(&v) {
+                    return Err(fail(format!(
+                        "'{cell}' is outside the supported piece length, 1 mm to 1 km"
+                    )));
+                }
+                length = Some(v)
+            }
+            SCol::Service => service = Some(cell.to_string()),
+            SCol::Note => {}
+        }
+    }
+    if mark.is_empty() {
+        return Err((0, Error::msg("every member needs a mark")));
+    }
+    if spans.is_empty() {
+        return Err((0, Error::msg(format!("member '{mark}' has no spans"))));
+    }
+    let supports = supports.unwrap_or_else(|| vec![Support::Pinned; spans.len() + 1]);
+    let mut beam = Beam::new(spans, supports);
+    let total = beam.length();
+    let case_of = |beam: &mut Beam, c: Category| -> usize {
+        match beam.cases.iter().position(|k| k.category == c) {
+            Some(i) => i,
+            None => beam.case(c.name(), c),
+        }
+    };
+    let d = case_of(&mut beam, Category::Dead);
+    beam.self_weight_case = Some(d);
+    for (c, w) in uniform {
+        let ci = case_of(&mut beam, c);
+        beam.load(
+            ci,
+            LoadKind::Distributed {
+                x1: 0.0,
+                x2: total,
+                w1: w,
+                w2: w,
+            },
+        );
+    }
+    for (c, p) in points {
+        let x = point_at.ok_or((
+            0,
+            Error::msg(format!("member '{mark}' has a point load but no point_at")),
+        ))?;
+        let ci = case_of(&mut beam, c);
+        beam.load(ci, LoadKind::Point { x, p });
+    }
+    // The template's own combinations apply to every member, each case
+    // taken by its category (the schedule's columns are dead, live and
+    // snow loads); presets are added where the template names them, and
+    // the default combinations only where it has none of a kind.
+    let own: Vec<&crate::beam::model::Combination> = template
+        .beam
+        .combinations
+        .iter()
+        .filter(|c| c.source.is_none())
+        .collect();
+    let own_strength = own.iter().any(|c| c.kind == ComboKind::Strength);
+    let own_service = own.iter().any(|c| c.kind == ComboKind::Service);
+    for c in &own {
+        let mut factors = Vec::new();
+        for &(ci, f) in &c.factors {
+            let cat = template.beam.cases[ci].category;
+            let same: Vec<&str> = template
+                .beam
+                .cases
+                .iter()
+                .filter(|k| k.category == cat)
+                .map(|k| k.name.as_str())
+                .collect();
+            if same.len() > 1 {
+                return Err((
+                    0,
+                    Error::msg(format!(
+                        "the template's combination '{}' names case '{}', but the template has several {} cases ({}): a schedule gives one load per category, so the combination cannot be applied; keep one case per category in the template",
+                        c.name,
+                        template.beam.cases[ci].name,
+                        cat.name(),
+                        same.join(", ")
+                    )),
+                ));
+            }
+            let mi = case_of(&mut beam, cat);
+            factors.push((mi, f));
+        }
+        beam.combinations.push(crate::beam::model::Combination {
+            factors,
+            source: Some("the template job's own combination".into()),
+            ..(*c).clone()
+        });
+    }
+    let service_preset = service.as_deref().or(template.presets.1.as_deref());
+    let mut notes = crate::beam::presets::standard_with(
+        &mut beam,
+        template.presets.0.as_deref(),
+        service_preset,
+        (!own_strength, !own_service),
+        n_live,
+        n_total,
+    )
+    .map_err(|e| (0, e))?;
+    if !own.is_empty() {
+        notes.push(format!(
+            "the template's {} combination(s) apply, each case taken by its category",
+            own.len()
+        ));
+    }
+    if crate::beam::presets::partial_snow(template.presets.0.as_deref()) {
+        job::set_partial_snow(&mut beam, &[], &mut notes);
+    }
+    beam.validate()
+        .map_err(|e| (0, e.in_field(&format!("member {mark}"))))?;
+    let mut criteria = template.criteria.clone();
+    if let Some(b) = bracing {
+        criteria.bracing = b;
+    }
+    let job = Job {
+        title: mark.clone(),
+        beam,
+        criteria,
+        notes,
+        ..template.clone()
+    };
+    Ok(Member {
+        mark,
+        count,
+        length: length.unwrap_or(total),
+        job,
+        max_depth,
+        line: 0,
+    })
+}
