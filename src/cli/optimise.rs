@@ -77,26 +77,6 @@ pub struct Args {
     pub starts: usize,
 }
 
-/// Parse "6,8,10mm" (one unit at the end, or a unit on each).
-pub fn parse_list(text: &str, field: &str) -> Result<Vec<f64>> {
-    let parts: Vec<&str> = text.split(',').map(str::trim).collect();
-    let last = parts.last().copied().unwrap_or("");
-    let unit: String = last
-        .trim_start_matches(|c: char| c.is_ascii_digit() || c == '.' || c == ' ')
-        .to_string();
-    parts
-        .iter()
-        .map(|p| {
-            let t = if p.chars().last().is_some_and(|c| c.is_ascii_digit()) {
-                format!("{p}{unit}")
-            } else {
-                p.to_string()
-            };
-            units::parse(&t, Dim::Length).map_err(|e| e.in_field(field))
-        })
-        .collect()
-}
-
 pub fn default_bounds_for(f: Family) -> Vec<(f64, f64)> {
     match f {
         Family::Rect => vec![(38.0, 300.0), (75.0, 1200.0)],
@@ -430,10 +410,11 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     {
         notes.push("no yield stress Fy in the job: no default slenderness limits were applied (give --lambda-f and --lambda-w)".to_string());
     }
-    let plates = parse_list(
+    let plates = units::parse_list(
         a.plates
             .as_deref()
             .unwrap_or("6,8,10,12,15,20,25,30,35,40,45,50mm"),
+        Dim::Length,
         "--plates",
     )?;
     let plate_prices = match &a.plate_prices {
@@ -497,13 +478,13 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
             Grid::listed(
                 lo,
                 hi,
-                &parse_list(a.b_sizes.as_deref().unwrap_or(""), "--b-sizes")?,
+                &units::parse_list(a.b_sizes.as_deref().unwrap_or(""), Dim::Length, "--b-sizes")?,
             )
         } else if fam == Family::Rect && i == 1 && a.d_sizes.is_some() {
             Grid::listed(
                 lo,
                 hi,
-                &parse_list(a.d_sizes.as_deref().unwrap_or(""), "--d-sizes")?,
+                &units::parse_list(a.d_sizes.as_deref().unwrap_or(""), Dim::Length, "--d-sizes")?,
             )
         } else if fam.is_thickness(i) {
             Grid::listed(lo, hi, &plates)

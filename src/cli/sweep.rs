@@ -3,7 +3,6 @@
 use super::Out;
 use super::catargs::CatalogArgs;
 use super::jobargs::JobArgs;
-use super::optimise::parse_list;
 use super::output::{emit, write_atomic};
 use beamsift::catalog::Materials;
 use beamsift::check::Prepared;
@@ -113,7 +112,7 @@ fn parse_spans(text: &str) -> Result<Vec<f64>> {
         let p = |t: &str| units::parse(t, Dim::Length).map_err(|e| e.in_field("--spans"));
         return sweep::span_range(p(a)?, p(b)?, p(step)?);
     }
-    parse_list(text, "--spans")
+    units::parse_list(text, Dim::Length, "--spans")
 }
 
 fn short(kind: Option<beamsift::check::CheckKind>) -> &'static str {
@@ -421,7 +420,7 @@ fn run_table(a: TableArgs, out: &Out) -> Result<i32> {
     match (&a.spacings, &a.live_levels) {
         (Some(_), Some(_)) => return Err(Error::msg("give --spacings or --live-levels, not both")),
         (Some(s), None) => {
-            for w in parse_list(s, "--spacings")? {
+            for w in units::parse_list(s, Dim::Length, "--spacings")? {
                 let b = job.beam.with_spacing(w).ok_or_else(|| {
                     Error::msg(
                         "--spacings needs area loads in the job (a [[load]] with area and width)",
