@@ -249,7 +249,7 @@ fn run_lightest(a: LightestArgs, out: &Out) -> Result<i32> {
                         .unwrap_or((None, None));
                     let prob = Problem {
                         family: fam,
-                        bounds: super::optimise::default_bounds_for(fam),
+                        bounds: fam.default_bounds(),
                         max_depth: None,
                         min_depth: None,
                         aspect: None,
