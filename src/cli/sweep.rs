@@ -7,10 +7,10 @@ use super::output::{emit, write_atomic};
 use beamsift::catalog::Materials;
 use beamsift::check::Prepared;
 use beamsift::error::{Error, Result};
-use beamsift::optimise::{self, Family, Objective, Problem};
+use beamsift::optimise::Family;
 use beamsift::report::{self, Align, Document, Table, chart, member};
 use beamsift::search::{self, Candidate};
-use beamsift::sweep::{self, Cell, Method, TableOptions};
+use beamsift::sweep::{self, Cell, Method, SpanOptimum, TableOptions};
 use beamsift::units::{self, Dim, Show};
 use serde::Serialize;
 use std::path::PathBuf;
@@ -143,7 +143,7 @@ struct LightestOut {
     lighter_not_verified: u64,
     not_verified_reasons: Vec<String>,
     /// Parametric optimum at this span (area mm², description).
-    optimum: Option<(f64, String)>,
+    optimum: Option<SpanOptimum>,
 }
 
 #[derive(Serialize)]
@@ -230,54 +230,8 @@ fn run_lightest(a: LightestArgs, out: &Out) -> Result<i32> {
     let rows_line = rows_read_line(&lightest.counts, a.cat.skip_bad_rows);
     let found = lightest.spans;
     let samples = lightest.samples;
-    let optima: Vec<Option<(f64, String)>> = match a.optimise {
-        Some(fam) => {
-            use rayon::prelude::*;
-            spans
-                .par_iter()
-                .map(|&s| {
-                    let prep = Prepared::new(
-                        &sweep::at_span(&job.beam, s),
-                        job.material.clone(),
-                        job.criteria.clone(),
-                    )
-                    .ok()?;
-                    let (lf, lw) = job
-                        .material
-                        .fy
-                        .map(|fy| optimise::default_slenderness(fam, job.material.e, fy))
-                        .unwrap_or((None, None));
-                    let prob = Problem {
-                        family: fam,
-                        bounds: fam.default_bounds(),
-                        max_depth: None,
-                        min_depth: None,
-                        aspect: None,
-                        lambda_f: lf,
-                        lambda_w: lw,
-                        objective: Objective::Area,
-                        plate_prices: vec![],
-                    };
-                    let o = optimise::continuous(&prob, &prep, 3).ok()?;
-                    // Printed as checked: dimensions rounded up to the
-                    // figures shown, and that section passes.
-                    match optimise::as_printed(&prob, &prep, &o.x) {
-                        Some(x) => {
-                            let shape = fam.shape(&x);
-                            let area = shape.properties().ok()?.area;
-                            Some((area, shape.describe(sys)))
-                        }
-                        None => Some((
-                            o.area,
-                            format!(
-                                "{} — at the limit: the printed dimensions do not pass",
-                                o.shape.describe(sys)
-                            ),
-                        )),
-                    }
-                })
-                .collect()
-        }
+    let optima = match a.optimise {
+        Some(fam) => sweep::optimum_by_span(&preps, fam, sys),
         None => vec![None; spans.len()],
     };
     let out_rows: Vec<LightestOut> = found

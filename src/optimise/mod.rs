@@ -26,7 +26,7 @@ pub mod discrete;
 pub mod families;
 pub mod study;
 
-use crate::check::{Group, Prepared, SectionInput};
+use crate::check::{Group, Material, Prepared, SectionInput};
 use crate::error::{Error, Result};
 use crate::section::Shape;
 use argmin::core::{CostFunction, Executor, State};
@@ -216,6 +216,27 @@ pub struct Eval {
 const PENALTY: f64 = 1e6;
 
 impl Problem {
+    /// Least area of `family` within its default bounds, with the default
+    /// slenderness limits for the material's E and Fy (none without Fy)
+    /// and no other limit.
+    pub fn least_area(family: Family, material: &Material) -> Problem {
+        let (lambda_f, lambda_w) = material
+            .fy
+            .map(|fy| default_slenderness(family, material.e, fy))
+            .unwrap_or((None, None));
+        Problem {
+            family,
+            bounds: family.default_bounds(),
+            max_depth: None,
+            min_depth: None,
+            aspect: None,
+            lambda_f,
+            lambda_w,
+            objective: Objective::Area,
+            plate_prices: vec![],
+        }
+    }
+
     pub fn n(&self) -> usize {
         self.bounds.len()
     }
