@@ -522,6 +522,28 @@ pub fn parse_number(text: &str) -> Result<f64> {
     }
 }
 
+/// Parse a list such as `"6,8,10mm"` (one unit at the end, applying to
+/// every bare number) or `"4m,5.5m"` (a unit on each) as quantities of
+/// `dim`; errors name `field`.
+pub fn parse_list(text: &str, dim: Dim, field: &str) -> Result<Vec<f64>> {
+    let parts: Vec<&str> = text.split(',').map(str::trim).collect();
+    let last = parts.last().copied().unwrap_or("");
+    let unit: String = last
+        .trim_start_matches(|c: char| c.is_ascii_digit() || c == '.' || c == ' ')
+        .to_string();
+    parts
+        .iter()
+        .map(|p| {
+            let t = if p.chars().last().is_some_and(|c| c.is_ascii_digit()) {
+                format!("{p}{unit}")
+            } else {
+                p.to_string()
+            };
+            parse(&t, dim).map_err(|e| e.in_field(field))
+        })
+        .collect()
+}
+
 /// The output unit system.
 #[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Serialize, Deserialize)]
 #[serde(rename_all = "lowercase")]

@@ -6,7 +6,7 @@ mod common;
 use beamsift::beam::*;
 use beamsift::check::*;
 use beamsift::optimise::discrete::{self, Grid};
-use beamsift::optimise::{self, Family, Objective, Problem};
+use beamsift::optimise::{self, Constraint, Family, Objective, Problem};
 
 /// A simple span under dead load, D ≤ L/360 (self-weight set per test).
 fn beam(l: f64, w: f64) -> Beam {
@@ -491,4 +491,109 @@ fn exhaustive_grid_equals_brute_force_on_random_problems() {
         branch_changes > 0,
         "no random case reached a noncompact or slender web"
     );
+}
+
+/// Consistency check (structural, no outside source): every family's
+/// implementation agrees with itself — as many default bounds and rounding
+/// axes as variables, bounds 0 < lower < upper, a valid shape at the
+/// middle of the bounds, a valid default problem, the geometric
+/// constraints it adds exactly the limits it says apply (the command line
+/// refuses the others on that word), a fabrication grid with a value on
+/// every axis and thicknesses only from the plate list, and, at a price
+/// of 1 per kg for every thickness, a cost equal to the mass of the whole
+/// section (the plates priced make up the section; exact to 1e-12).
+#[test]
+fn every_family_is_consistent() {
+    let mut names = Vec::new();
+    for fam in Family::ALL {
+        let k = fam.kind();
+        let vars = k.variables();
+        let what = format!("{fam:?}");
+        assert_eq!(k.default_bounds().len(), vars.len(), "{what}: bounds");
+        assert_eq!(k.axes().len(), vars.len(), "{what}: axes");
+        assert_eq!(fam.default_bounds(), k.default_bounds().to_vec());
+        assert!(
+            k.default_bounds()
+                .iter()
+                .all(|(lo, hi)| 0.0 < *lo && lo < hi),
+            "{what}: {:?}",
+            k.default_bounds()
+        );
+        let mid: Vec<f64> = k
+            .default_bounds()
+            .iter()
+            .map(|(lo, hi)| 0.5 * (lo + hi))
+            .collect();
+        let shape = fam.shape(&mid);
+        shape
+            .validate()
+            .unwrap_or_else(|e| panic!("{what} at the mid-point: {e}"));
+        let p = shape.properties().unwrap();
+        assert!(p.area > 0.0);
+        // The default problem of the family, and every limit set.
+        let mat = steel();
+        let base = Problem::least_area(fam, &mat);
+        base.validate().unwrap();
+        assert_eq!(base.bounds, fam.default_bounds());
+        let prob = Problem {
+            aspect: Some(3.0),
+            lambda_f: Some(10.0),
+            lambda_w: Some(100.0),
+            ..base.clone()
+        };
+        let prep = Prepared::new(&beam(6000.0, 10.0), mat.clone(), Criteria::default()).unwrap();
+        let e = prob.eval(&prep, &mid).unwrap();
+        let has = |c: Constraint| e.g.iter().any(|(k, _)| *k == c);
+        let lim = k.limits();
+        assert_eq!(has(Constraint::Aspect), lim.aspect, "{what}: aspect");
+        assert_eq!(
+            has(Constraint::FlangeSlenderness),
+            lim.flange,
+            "{what}: flange"
+        );
+        assert_eq!(
+            has(Constraint::WebSlenderness) || has(Constraint::WallSlenderness),
+            lim.web,
+            "{what}: web"
+        );
+        // Defaults only where the family has slender plates.
+        let (df, dw) = k.default_slenderness(200_000.0, 345.0);
+        assert!(df.is_none() || lim.flange, "{what}: default λf");
+        assert!(dw.is_none() || lim.web, "{what}: default λw");
+        // The fabrication grid.
+        let plates = [6.0, 8.0, 10.0, 12.0, 15.0, 20.0, 25.0, 30.0];
+        let grid = Grid::for_problem(
+            &base,
+            &discrete::GridOptions {
+                plates: plates.to_vec(),
+                step: 10.0,
+                widths: None,
+                depths: None,
+            },
+        )
+        .unwrap();
+        assert_eq!(grid.values.len(), vars.len());
+        for (i, v) in grid.values.iter().enumerate() {
+            assert!(!v.is_empty(), "{what}: {}", vars[i]);
+            if fam.is_thickness(i) {
+                assert!(v.iter().all(|t| plates.contains(t)), "{what}: {}", vars[i]);
+            }
+        }
+        // Cost at 1 per kg = mass per mm.
+        let priced = Problem {
+            objective: Objective::Cost,
+            plate_prices: plates.iter().map(|t| (*t, 1.0)).collect(),
+            ..prob
+        };
+        let cost = priced.cost_of(&mid, mat.density);
+        let mass = p.area * mat.density * 1e-9;
+        assert!(
+            (cost - mass).abs() <= 1e-12 * mass,
+            "{what}: cost {cost} vs mass {mass}"
+        );
+        names.push(k.name());
+    }
+    names.sort();
+    names.dedup();
+    assert_eq!(names.len(), Family::ALL.len(), "family names are distinct");
 }

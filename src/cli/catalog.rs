@@ -129,7 +129,7 @@ fn sizes(text: &Option<String>, name: &str) -> Result<Vec<f64>> {
         check_sizes(&v, name)?;
         return Ok(v);
     }
-    let v = super::optimise::parse_list(t, &format!("--{name}"))?;
+    let v = units::parse_list(t, Dim::Length, &format!("--{name}"))?;
     check_sizes(&v, name)?;
     Ok(v)
 }

@@ -4,13 +4,12 @@
 use super::Out;
 use super::jobargs::JobArgs;
 use super::output::emit;
-use beamsift::check::{Prepared, SectionInput};
+use beamsift::check::Prepared;
 use beamsift::error::{Error, Result};
-use beamsift::optimise::discrete::{self, Grid};
-use beamsift::optimise::{self, Constraint, Family, Objective, Optimum, Problem};
-use beamsift::report::{self, Align, Document, Table, member};
-use beamsift::units::{self, Dim, Show};
-use serde::Serialize;
+use beamsift::optimise::discrete::{self, GridOptions};
+use beamsift::optimise::{self, Axis, Family, Objective, Problem, Study, StudyOptions, Variant};
+use beamsift::report::{self, Align, Document, Table};
+use beamsift::units::{self, Dim, Show, System};
 
 pub const EXAMPLES: &str = "Examples:
   beamsift optimise --job catalogs/demo-joists.toml rect --aspect 4 --b-sizes 38,47,63,75mm --d-sizes 100,125,150,175,200,225,250,300mm
@@ -77,301 +76,35 @@ pub struct Args {
     pub starts: usize,
 }
 
-/// Parse "6,8,10mm" (one unit at the end, or a unit on each).
-pub fn parse_list(text: &str, field: &str) -> Result<Vec<f64>> {
-    let parts: Vec<&str> = text.split(',').map(str::trim).collect();
-    let last = parts.last().copied().unwrap_or("");
-    let unit: String = last
-        .trim_start_matches(|c: char| c.is_ascii_digit() || c == '.' || c == ' ')
-        .to_string();
-    parts
-        .iter()
-        .map(|p| {
-            let t = if p.chars().last().is_some_and(|c| c.is_ascii_digit()) {
-                format!("{p}{unit}")
-            } else {
-                p.to_string()
-            };
-            units::parse(&t, Dim::Length).map_err(|e| e.in_field(field))
-        })
-        .collect()
-}
-
-pub fn default_bounds_for(f: Family) -> Vec<(f64, f64)> {
-    match f {
-        Family::Rect => vec![(38.0, 300.0), (75.0, 1200.0)],
-        Family::WeldedI => vec![(100.0, 600.0), (6.0, 50.0), (150.0, 2000.0), (5.0, 30.0)],
-        Family::MonoI => vec![
-            (100.0, 600.0),
-            (6.0, 50.0),
-            (100.0, 600.0),
-            (6.0, 50.0),
-            (150.0, 2000.0),
-            (5.0, 30.0),
-        ],
-        Family::Rhs => vec![(50.0, 400.0), (50.0, 600.0), (3.0, 20.0)],
-    }
-}
-
-#[derive(Serialize)]
-struct Variant {
-    x: Vec<(String, f64)>,
-    description: String,
-    area: f64,
-    /// kg/m.
-    mass: f64,
-    /// Cost per mm (objective cost only).
-    cost: Option<f64>,
-    utilisation: f64,
-    governing: Option<String>,
-    by_check: Vec<(String, f64)>,
-}
-
-#[derive(Serialize)]
-struct Sensitivity {
-    constraint: String,
-    change: String,
-    /// Change of the objective (area mm², cost, or depth mm); negative saves.
-    delta: f64,
-    words: String,
-}
-
-#[derive(Serialize)]
-struct OptimiseResult {
-    title: String,
-    problem: Problem,
-    continuous: Variant,
-    discrete: Variant,
-    /// (discrete − continuous) / continuous objective.
-    gap: f64,
-    active: Vec<String>,
-    sensitivities: Vec<Sensitivity>,
-    evaluations: u64,
-    grid_points_checked: u64,
-    whole_grid: bool,
-    /// Windowed search only: the bound on its gap to the grid optimum.
-    gap_bound: Option<f64>,
-    not_checked: Vec<String>,
-    excluded: Vec<String>,
-    assumptions: Vec<String>,
-    caution: &'static str,
-}
-
-fn variant(prob: &Problem, prep: &Prepared, x: &[f64], sys: units::System) -> Variant {
-    let shape = prob.family.shape(x);
-    let p = shape.properties().ok();
-    let mass = p
-        .as_ref()
-        .map(|p| p.mass_per_length(prep.material.density))
-        .unwrap_or(0.0);
-    let (util, gov, by_check) = match &p {
-        Some(p) => {
-            let s = prep.check(SectionInput::new(p, mass));
-            let mut by: Vec<(String, f64)> = Vec::new();
-            prep.visit(
-                SectionInput::new(p, mass),
-                &mut |it: beamsift::check::Item| {
-                    let k = match it.kind.group() {
-                        beamsift::check::Group::Bending => "bending",
-                        beamsift::check::Group::Shear => "shear",
-                        beamsift::check::Group::LocalBuckling => "local buckling",
-                        beamsift::check::Group::LateralTorsional => "lateral-torsional buckling",
-                        beamsift::check::Group::Deflection => "deflection",
-                    }
-                    .to_string();
-                    match by.iter_mut().find(|(n, _)| *n == k) {
-                        Some(e) => e.1 = e.1.max(it.utilisation),
-                        None => by.push((k, it.utilisation)),
-                    }
-                },
-            );
-            (
-                s.utilisation,
-                s.governing
-                    .map(|g| member::line(prep, SectionInput::new(p, mass), &g))
-                    .map(|l| format!("{} under {}", l.label, l.combination)),
-                by,
-            )
-        }
-        None => (f64::NAN, None, Vec::new()),
-    };
-    Variant {
-        x: prob
-            .family
-            .variables()
-            .iter()
-            .map(|v| v.to_string())
-            .zip(x.iter().copied())
-            .collect(),
-        description: shape.describe(sys),
-        area: p.as_ref().map(|p| p.area).unwrap_or(f64::NAN),
-        mass,
-        cost: (prob.objective == Objective::Cost).then(|| prob.cost_of(x, prep.material.density)),
-        utilisation: util,
-        governing: gov,
-        by_check,
-    }
-}
-
-fn objective_words(o: Objective) -> &'static str {
-    match o {
-        Objective::Area => "area",
-        Objective::Cost => "cost",
-        Objective::Depth => "depth",
-    }
-}
-
-/// Relax each active, adjustable constraint a little, re-optimise, and say
-/// what it buys.
-fn sensitivities(
-    prob: &Problem,
-    prep: &Prepared,
-    best: &Optimum,
-    sys: units::System,
-) -> Vec<Sensitivity> {
-    let vars = prob.family.variables();
-    let mut out = Vec::new();
-    let base = best.objective;
-    let unit = match prob.objective {
-        Objective::Area => Show::Area.label(sys).to_string(),
-        Objective::Cost => "per mm".to_string(),
-        Objective::Depth => Show::Dimension.label(sys).to_string(),
-    };
-    let fmt_delta = |d: f64| -> String {
-        match prob.objective {
-            Objective::Area => Show::Area.num(-d, sys),
-            Objective::Depth => Show::Dimension.num(-d, sys),
-            Objective::Cost => format!("{:.4}", -d * 1000.0),
-        }
-    };
-    for (c, g) in &best.constraints {
-        if *g < -2e-3 {
-            continue;
-        }
-        let (change, p2, prep2): (String, Problem, Option<Prepared>) = match c {
-            Constraint::MaxDepth => {
-                let mut p = prob.clone();
-                let d = prob.max_depth.unwrap_or(0.0);
-                p.max_depth = Some(d + 10.0);
-                (
-                    format!("allowing {} more depth", Show::Dimension.fmt(10.0, sys)),
-                    p,
-                    None,
-                )
-            }
-            Constraint::Aspect => {
-                let mut p = prob.clone();
-                p.aspect = prob.aspect.map(|k| k + 0.5);
-                ("allowing d/b half a unit larger".into(), p, None)
-            }
-            Constraint::FlangeSlenderness => {
-                let mut p = prob.clone();
-                p.lambda_f = prob.lambda_f.map(|l| l * 1.1);
-                ("a flange slenderness limit 10 % higher".into(), p, None)
-            }
-            Constraint::WebSlenderness | Constraint::WallSlenderness => {
-                let mut p = prob.clone();
-                p.lambda_w = prob.lambda_w.map(|l| l * 1.1);
-                ("a web slenderness limit 10 % higher".into(), p, None)
-            }
-            Constraint::Lower(i) => {
-                let mut p = prob.clone();
-                p.bounds[*i].0 *= 0.9;
-                (format!("a lower bound on {} 10 % lower", vars[*i]), p, None)
-            }
-            Constraint::Upper(i) => {
-                let mut p = prob.clone();
-                p.bounds[*i].1 *= 1.1;
-                (
-                    format!("an upper bound on {} 10 % higher", vars[*i]),
-                    p,
-                    None,
-                )
-            }
-            Constraint::Bending
-            | Constraint::Shear
-            | Constraint::LocalBuckling
-            | Constraint::LateralTorsional => {
-                let mut m = prep.material.clone();
-                m.fb_tension = m.fb_tension.map(|v| v * 1.05);
-                m.fb_compression = m.fb_compression.map(|v| v * 1.05);
-                m.fv = m.fv.map(|v| v * 1.05);
-                m.fy = m.fy.map(|v| v * 1.05);
-                let text = format!(
-                    "allowable stresses 5 % higher ({} governs)",
-                    c.describe(vars)
-                );
-                (text, prob.clone(), Prepared::new_from(prep, m))
-            }
-            Constraint::Deflection => {
-                // δ ∝ 1/E: a limit 10 % looser is exactly E 10 % higher for
-                // the deflection checks.
-                let mut m = prep.material.clone();
-                m.e *= 1.1;
-                let mut p2 = prep.clone();
-                p2.material = m;
-                // Keep the stress checks as they were: only deflection uses E
-                // (and lateral buckling, which E also helps: slight overestimate).
-                (
-                    "deflection limits 10 % looser".into(),
-                    prob.clone(),
-                    Some(p2),
-                )
-            }
-            _ => continue,
-        };
-        let prep_used = prep2.as_ref().unwrap_or(prep);
-        if let Some(o) = optimise::continuous_from(&p2, prep_used, &best.x) {
-            let delta = o.objective - base;
-            let words = if delta < -1e-9 * base.abs() {
-                format!(
-                    "{change} saves about {} {unit} of {}",
-                    fmt_delta(delta),
-                    objective_words(prob.objective)
-                )
-            } else {
-                format!("{change} saves nothing measurable")
-            };
-            out.push(Sensitivity {
-                constraint: c.describe(vars),
-                change,
-                delta,
-                words,
-            });
-        }
-    }
-    out
-}
-
 /// Options that do not apply to the chosen family (or objective) are
 /// refused, never ignored.
 fn refuse_inapplicable(a: &Args) -> Result<()> {
     let fam = a.family;
     let mut bad = Vec::new();
-    let rect = fam == Family::Rect;
-    let i_shape = matches!(fam, Family::WeldedI | Family::MonoI);
-    if a.aspect.is_some() && !rect {
+    let limits = fam.kind().limits();
+    let plated = fam.kind().axes().contains(&Axis::Thickness);
+    if a.aspect.is_some() && !limits.aspect {
         bad.push("--aspect (rectangles only)");
     }
-    if (a.b_sizes.is_some() || a.d_sizes.is_some()) && !rect {
+    if (a.b_sizes.is_some() || a.d_sizes.is_some()) && plated {
         bad.push("--b-sizes/--d-sizes (rectangles only)");
     }
-    if a.plates.is_some() && rect {
+    if a.plates.is_some() && !plated {
         bad.push("--plates (a rectangle has no plate thickness: use --b-sizes/--d-sizes)");
     }
-    if a.lambda_f.is_some() && !i_shape {
+    if a.lambda_f.is_some() && !limits.flange {
         bad.push("--lambda-f (I-shapes only)");
     }
-    if a.lambda_w.is_some() && rect {
+    if a.lambda_w.is_some() && !limits.web {
         bad.push("--lambda-w (I-shapes and rhs only)");
     }
-    if a.compact && rect {
+    if a.compact && !plated {
         bad.push("--compact (a solid rectangle has no slender plates)");
     }
     if a.plate_prices.is_some() && a.objective != Objective::Cost {
         bad.push("--plate-prices (only used with --objective cost)");
     }
-    if a.step.is_some() && rect && a.b_sizes.is_some() && a.d_sizes.is_some() {
+    if a.step.is_some() && !plated && a.b_sizes.is_some() && a.d_sizes.is_some() {
         bad.push("--step (both --b-sizes and --d-sizes are given)");
     }
     if bad.is_empty() {
@@ -392,7 +125,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     let prep = Prepared::new(&job.beam, job.material.clone(), job.criteria.clone())?;
     let fam = a.family;
     let vars = fam.variables();
-    let mut bounds = default_bounds_for(fam);
+    let mut bounds = fam.default_bounds();
     for b in &a.bounds {
         let (name, range) = b.split_once('=').ok_or_else(|| {
             Error::msg(format!(
@@ -424,16 +157,18 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         None => (None, None),
     };
     let mut notes = Vec::new();
+    let limits = fam.kind().limits();
     if job.material.fy.is_none()
-        && matches!(fam, Family::WeldedI | Family::MonoI | Family::Rhs)
+        && (limits.flange || limits.web)
         && (a.lambda_f.is_none() || a.lambda_w.is_none())
     {
         notes.push("no yield stress Fy in the job: no default slenderness limits were applied (give --lambda-f and --lambda-w)".to_string());
     }
-    let plates = parse_list(
+    let plates = units::parse_list(
         a.plates
             .as_deref()
             .unwrap_or("6,8,10,12,15,20,25,30,35,40,45,50mm"),
+        Dim::Length,
         "--plates",
     )?;
     let plate_prices = match &a.plate_prices {
@@ -490,79 +225,39 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         }
     }
     prob.validate()?;
-    let cont = optimise::continuous(&prob, &prep, a.starts)?;
-    let mut values = Vec::new();
-    for (i, &(lo, hi)) in prob.bounds.iter().enumerate() {
-        let v = if fam == Family::Rect && i == 0 && a.b_sizes.is_some() {
-            Grid::listed(
-                lo,
-                hi,
-                &parse_list(a.b_sizes.as_deref().unwrap_or(""), "--b-sizes")?,
-            )
-        } else if fam == Family::Rect && i == 1 && a.d_sizes.is_some() {
-            Grid::listed(
-                lo,
-                hi,
-                &parse_list(a.d_sizes.as_deref().unwrap_or(""), "--d-sizes")?,
-            )
-        } else if fam.is_thickness(i) {
-            Grid::listed(lo, hi, &plates)
-        } else {
-            Grid::stepped(lo, hi, step)
-        };
-        if v.is_empty() {
-            return Err(Error::msg(format!(
-                "no fabrication size of {} lies within its bounds {}–{} mm",
-                vars[i],
-                units::fmt_num(lo),
-                units::fmt_num(hi)
-            )));
-        }
-        values.push(v);
-    }
-    let grid = Grid { values };
-    let disc = discrete::search(&prob, &prep, &grid, &cont.x, discrete::EXHAUSTIVE_POINTS)?;
-    let c_var = variant(&prob, &prep, &cont.x, sys);
-    let d_var = variant(&prob, &prep, &disc.x, sys);
-    let gap = (disc.objective - cont.objective) / cont.objective;
-    let active: Vec<String> = cont
-        .constraints
-        .iter()
-        .filter(|(_, g)| *g > -2e-3)
-        .map(|(c, _)| c.describe(vars))
-        .collect();
-    let sens = sensitivities(&prob, &prep, &cont, sys);
-    let d_props = prob.family.shape(&disc.x).properties()?;
-    let result = OptimiseResult {
-        title: job.title.clone(),
-        problem: prob.clone(),
-        continuous: c_var,
-        discrete: d_var,
-        gap,
-        active: active.clone(),
-        sensitivities: sens,
-        evaluations: cont.evaluations,
-        grid_points_checked: disc.evaluated,
-        whole_grid: disc.whole_grid,
-        gap_bound: disc.gap_bound,
-        not_checked: prep.not_checked(&d_props, None),
-        excluded: prep.criteria.exclude.list(),
-        assumptions: prep.assumptions(),
-        caution: report::CAUTION,
+    let list = |v: &Option<String>, n: &str| -> Result<Option<Vec<f64>>> {
+        v.as_deref()
+            .map(|t| units::parse_list(t, Dim::Length, n))
+            .transpose()
     };
-    // Document.
-    let mut doc = Document::new(
-        format!("Optimised {fam:?} for {}", job.title)
-            .replace("WeldedI", "welded I")
-            .replace("MonoI", "mono-symmetric I")
-            .replace("Rect", "rectangle")
-            .replace("Rhs", "hollow section"),
-    );
+    let opts = StudyOptions {
+        starts: a.starts,
+        grid: GridOptions {
+            plates,
+            step,
+            widths: list(&a.b_sizes, "--b-sizes")?,
+            depths: list(&a.d_sizes, "--d-sizes")?,
+        },
+        units: sys,
+    };
+    let result = optimise::study(&job.title, &prob, &prep, &opts)?;
+    let doc = document(&result, &a, notes, sys);
+    emit(out, &report::render(out.format, &result, &doc))?;
+    Ok(0)
+}
+
+/// The study as a document: its fields in tables and sentences.
+fn document(result: &Study, a: &Args, notes: Vec<String>, sys: System) -> Document {
+    let prob = &result.problem;
+    let fam = prob.family;
+    let vars = fam.variables();
+    let mut doc = Document::new(format!(
+        "Optimised {} for {}",
+        fam.kind().name(),
+        result.title
+    ));
     let mut pt = Table::new("Problem", &[("Item", Align::Left), ("Value", Align::Left)]);
-    pt.row(vec![
-        "Minimise".into(),
-        objective_words(prob.objective).into(),
-    ]);
+    pt.row(vec!["Minimise".into(), prob.objective.noun().into()]);
     for (v, (lo, hi)) in vars.iter().zip(&prob.bounds) {
         pt.row(vec![
             format!("Bounds on {v}"),
@@ -598,22 +293,17 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         ]);
     }
     if let Some(l) = prob.lambda_w {
+        let (label, basis) = fam.kind().limits().web_words;
         pt.row(vec![
-            if fam == Family::Rhs {
-                "Wall limit (b − 2t)/t".into()
-            } else {
-                "Web limit hw/tw".to_string()
-            },
+            label.to_string(),
             format!(
                 "{l:.2}{}",
                 if a.lambda_w.is_some() {
                     " (as given)"
                 } else if a.compact {
                     " (compact, AISC 360-16 Table B4.1b λp)"
-                } else if fam == Family::Rhs {
-                    " (5.70√(E/Fy): the webs AISC 360-16 F7 covers here)"
                 } else {
-                    " (AISC 360-16 F13.2, unstiffened web: min(0.40·E/Fy, 260))"
+                    basis
                 }
             ),
         ]);
@@ -680,30 +370,30 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     doc.para(format!(
         "Fabrication sizes: {} — {}; it is {:.1} % above the continuous optimum in {}. Governing: {}.",
         result.discrete.description,
-        if disc.whole_grid {
+        if result.whole_grid {
             format!(
                 "the optimum of all {} grid points (visited in order of {}; {} checked before the first that passes)",
-                beamsift::units::count(grid.size()),
-                objective_words(prob.objective),
-                beamsift::units::count(disc.evaluated)
+                units::count(result.grid_points),
+                prob.objective.noun(),
+                units::count(result.grid_points_checked)
             )
         } else {
             format!(
                 "the best of {} grid points searched — the whole of a coarser sub-grid of it, then a window around the continuous optimum (the grid has {}, more than the {} searched exhaustively: at most {:.1} % above the grid optimum)",
-                beamsift::units::count(disc.evaluated),
-                beamsift::units::count(grid.size()),
-                beamsift::units::count(discrete::EXHAUSTIVE_POINTS as u64),
-                100.0 * disc.gap_bound.unwrap_or(f64::NAN)
+                units::count(result.grid_points_checked),
+                units::count(result.grid_points),
+                units::count(discrete::EXHAUSTIVE_POINTS as u64),
+                100.0 * result.gap_bound.unwrap_or(f64::NAN)
             )
         },
-        100.0 * gap,
-        objective_words(prob.objective),
+        100.0 * result.gap,
+        prob.objective.noun(),
         result.discrete.governing.clone().unwrap_or_default()
     ));
-    if !active.is_empty() {
+    if !result.active.is_empty() {
         doc.list(
             "Active (binding) constraints at the continuous optimum:",
-            active,
+            result.active.clone(),
         );
     }
     if !result.sensitivities.is_empty() {
@@ -724,6 +414,5 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     let mut nc = result.not_checked.clone();
     nc.push("welds between plates, stiffeners, and local buckling beyond the slenderness limits stated above".into());
     doc.caution(nc);
-    emit(out, &report::render(out.format, &result, &doc))?;
-    Ok(0)
+    doc
 }

@@ -3,15 +3,14 @@
 use super::Out;
 use super::catargs::CatalogArgs;
 use super::jobargs::JobArgs;
-use super::optimise::parse_list;
 use super::output::{emit, write_atomic};
 use beamsift::catalog::Materials;
 use beamsift::check::Prepared;
 use beamsift::error::{Error, Result};
-use beamsift::optimise::{self, Family, Objective, Problem};
+use beamsift::optimise::Family;
 use beamsift::report::{self, Align, Document, Table, chart, member};
 use beamsift::search::{self, Candidate};
-use beamsift::sweep::{self, Cell, Method, TableOptions};
+use beamsift::sweep::{self, Cell, Method, SpanOptimum, TableOptions};
 use beamsift::units::{self, Dim, Show};
 use serde::Serialize;
 use std::path::PathBuf;
@@ -113,7 +112,7 @@ fn parse_spans(text: &str) -> Result<Vec<f64>> {
         let p = |t: &str| units::parse(t, Dim::Length).map_err(|e| e.in_field("--spans"));
         return sweep::span_range(p(a)?, p(b)?, p(step)?);
     }
-    parse_list(text, "--spans")
+    units::parse_list(text, Dim::Length, "--spans")
 }
 
 fn short(kind: Option<beamsift::check::CheckKind>) -> &'static str {
@@ -144,7 +143,7 @@ struct LightestOut {
     lighter_not_verified: u64,
     not_verified_reasons: Vec<String>,
     /// Parametric optimum at this span (area mm², description).
-    optimum: Option<(f64, String)>,
+    optimum: Option<SpanOptimum>,
 }
 
 #[derive(Serialize)]
@@ -231,54 +230,8 @@ fn run_lightest(a: LightestArgs, out: &Out) -> Result<i32> {
     let rows_line = rows_read_line(&lightest.counts, a.cat.skip_bad_rows);
     let found = lightest.spans;
     let samples = lightest.samples;
-    let optima: Vec<Option<(f64, String)>> = match a.optimise {
-        Some(fam) => {
-            use rayon::prelude::*;
-            spans
-                .par_iter()
-                .map(|&s| {
-                    let prep = Prepared::new(
-                        &sweep::at_span(&job.beam, s),
-                        job.material.clone(),
-                        job.criteria.clone(),
-                    )
-                    .ok()?;
-                    let (lf, lw) = job
-                        .material
-                        .fy
-                        .map(|fy| optimise::default_slenderness(fam, job.material.e, fy))
-                        .unwrap_or((None, None));
-                    let prob = Problem {
-                        family: fam,
-                        bounds: super::optimise::default_bounds_for(fam),
-                        max_depth: None,
-                        min_depth: None,
-                        aspect: None,
-                        lambda_f: lf,
-                        lambda_w: lw,
-                        objective: Objective::Area,
-                        plate_prices: vec![],
-                    };
-                    let o = optimise::continuous(&prob, &prep, 3).ok()?;
-                    // Printed as checked: dimensions rounded up to the
-                    // figures shown, and that section passes.
-                    match optimise::as_printed(&prob, &prep, &o.x) {
-                        Some(x) => {
-                            let shape = fam.shape(&x);
-                            let area = shape.properties().ok()?.area;
-                            Some((area, shape.describe(sys)))
-                        }
-                        None => Some((
-                            o.area,
-                            format!(
-                                "{} — at the limit: the printed dimensions do not pass",
-                                o.shape.describe(sys)
-                            ),
-                        )),
-                    }
-                })
-                .collect()
-        }
+    let optima = match a.optimise {
+        Some(fam) => sweep::optimum_by_span(&preps, fam, sys),
         None => vec![None; spans.len()],
     };
     let out_rows: Vec<LightestOut> = found
@@ -421,7 +374,7 @@ fn run_table(a: TableArgs, out: &Out) -> Result<i32> {
     match (&a.spacings, &a.live_levels) {
         (Some(_), Some(_)) => return Err(Error::msg("give --spacings or --live-levels, not both")),
         (Some(s), None) => {
-            for w in parse_list(s, "--spacings")? {
+            for w in units::parse_list(s, Dim::Length, "--spacings")? {
                 let b = job.beam.with_spacing(w).ok_or_else(|| {
                     Error::msg(
                         "--spacings needs area loads in the job (a [[load]] with area and width)",

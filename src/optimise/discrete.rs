@@ -12,9 +12,10 @@
 //! continuous optimum, and then says so, with the bound on its gap: the
 //! continuous optimum is a lower bound of every grid point.
 
-use super::{Eval, Problem};
+use super::{Axis, Eval, Problem};
 use crate::check::Prepared;
 use crate::error::{Error, Result};
+use crate::units;
 use rayon::prelude::*;
 use serde::Serialize;
 
@@ -50,6 +51,51 @@ impl Grid {
 
     pub fn size(&self) -> u128 {
         self.values.iter().map(|v| v.len() as u128).product()
+    }
+}
+
+/// The fabrication sizes a grid is built from (mm).
+#[derive(Clone, Debug, Default)]
+pub struct GridOptions {
+    /// Plate thicknesses available: the values of every thickness.
+    pub plates: Vec<f64>,
+    /// Step of widths and depths not given by a list.
+    pub step: f64,
+    /// Widths available (solid sections sized from lists, such as timber),
+    /// instead of the step.
+    pub widths: Option<Vec<f64>>,
+    /// Depths available, instead of the step.
+    pub depths: Option<Vec<f64>>,
+}
+
+impl Grid {
+    /// The grid of a problem: each variable's values within its bounds,
+    /// by its [`Axis`] (thicknesses from the plate list, widths and depths
+    /// from their lists or on the step); an error names a variable with
+    /// no value within its bounds.
+    pub fn for_problem(prob: &Problem, opts: &GridOptions) -> Result<Grid> {
+        let kind = prob.family.kind();
+        let vars = kind.variables();
+        let mut values = Vec::new();
+        for (i, &(lo, hi)) in prob.bounds.iter().enumerate() {
+            let v = match (kind.axes()[i], &opts.widths, &opts.depths) {
+                (Axis::Width, Some(list), _) | (Axis::Depth, _, Some(list)) => {
+                    Grid::listed(lo, hi, list)
+                }
+                (Axis::Thickness, _, _) => Grid::listed(lo, hi, &opts.plates),
+                _ => Grid::stepped(lo, hi, opts.step),
+            };
+            if v.is_empty() {
+                return Err(Error::msg(format!(
+                    "no fabrication size of {} lies within its bounds {}–{} mm",
+                    vars[i],
+                    units::fmt_num(lo),
+                    units::fmt_num(hi)
+                )));
+            }
+            values.push(v);
+        }
+        Ok(Grid { values })
     }
 }
 

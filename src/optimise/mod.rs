@@ -23,14 +23,18 @@
 //! search of the surrounding grid (see [`discrete`]).
 
 pub mod discrete;
+pub mod families;
+pub mod study;
 
-use crate::check::{Group, Prepared, SectionInput};
+use crate::check::{Group, Material, Prepared, SectionInput};
 use crate::error::{Error, Result};
 use crate::section::Shape;
 use argmin::core::{CostFunction, Executor, State};
 use argmin::solver::neldermead::NelderMead;
+pub use families::{Axis, FamilyKind, Limits};
 use rayon::prelude::*;
 use serde::{Deserialize, Serialize};
+pub use study::{Sensitivity, Study, StudyOptions, Variant, study};
 
 /// Section families that can be optimised.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
@@ -47,55 +51,41 @@ pub enum Family {
 }
 
 impl Family {
-    pub fn variables(self) -> &'static [&'static str] {
+    /// Every family, in the order of the variants.
+    pub const ALL: [Family; 4] = [Family::Rect, Family::WeldedI, Family::MonoI, Family::Rhs];
+
+    /// The implementation of the family: everything the optimiser knows
+    /// of it.
+    pub fn kind(self) -> &'static dyn FamilyKind {
         match self {
-            Family::Rect => &["b", "d"],
-            Family::WeldedI => &["bf", "tf", "hw", "tw"],
-            Family::MonoI => &["bf_top", "tf_top", "bf_bot", "tf_bot", "hw", "tw"],
-            Family::Rhs => &["b", "h", "t"],
+            Family::Rect => &families::Rect,
+            Family::WeldedI => &families::WeldedI,
+            Family::MonoI => &families::MonoI,
+            Family::Rhs => &families::Rhs,
         }
+    }
+
+    pub fn variables(self) -> &'static [&'static str] {
+        self.kind().variables()
     }
 
     /// Which variables are plate thicknesses (rounded to the plate list).
     pub fn is_thickness(self, i: usize) -> bool {
-        matches!(
-            (self, self.variables()[i]),
-            (
-                Family::WeldedI | Family::MonoI,
-                "tf" | "tw" | "tf_top" | "tf_bot"
-            ) | (Family::Rhs, "t")
-        )
+        self.kind().axes()[i] == Axis::Thickness
     }
 
     /// Which variables are depths (rounded to the depth step).
     pub fn is_depth(self, i: usize) -> bool {
-        matches!(self.variables()[i], "d" | "hw" | "h")
+        self.kind().axes()[i] == Axis::Depth
+    }
+
+    /// Default bounds (lower, upper) of each variable, mm.
+    pub fn default_bounds(self) -> Vec<(f64, f64)> {
+        self.kind().default_bounds().to_vec()
     }
 
     pub fn shape(self, x: &[f64]) -> Shape {
-        match self {
-            Family::Rect => Shape::Rect { b: x[0], d: x[1] },
-            Family::WeldedI => Shape::WeldedI {
-                bf: x[0],
-                tf: x[1],
-                hw: x[2],
-                tw: x[3],
-            },
-            Family::MonoI => Shape::MonoI {
-                bf_top: x[0],
-                tf_top: x[1],
-                bf_bot: x[2],
-                tf_bot: x[3],
-                hw: x[4],
-                tw: x[5],
-            },
-            Family::Rhs => Shape::Rhs {
-                b: x[0],
-                h: x[1],
-                t: x[2],
-                r_out: 0.0,
-            },
-        }
+        self.kind().shape(x)
     }
 }
 
@@ -202,11 +192,7 @@ pub struct Problem {
 /// unlimited; rectangular HSS: walls up to 5.70√(E/F_y) (the end of the
 /// webs F7 covers here).
 pub fn default_slenderness(family: Family, e: f64, fy: f64) -> (Option<f64>, Option<f64>) {
-    match family {
-        Family::WeldedI | Family::MonoI => (None, Some((0.40 * e / fy).min(260.0))),
-        Family::Rhs => (None, Some(5.70 * (e / fy).sqrt())),
-        Family::Rect => (None, None),
-    }
+    family.kind().default_slenderness(e, fy)
 }
 
 /// Compact limits (`--compact`): AISC 360-16 Table B4.1b λp, flanges of
@@ -214,12 +200,7 @@ pub fn default_slenderness(family: Family, e: f64, fy: f64) -> (Option<f64>, Opt
 /// 3.76√(E/Fy); walls of rectangular HSS in flexure (case 17)
 /// 1.12√(E/Fy), used for both walls (conservative).
 pub fn compact_slenderness(family: Family, e: f64, fy: f64) -> (Option<f64>, Option<f64>) {
-    let r = (e / fy).sqrt();
-    match family {
-        Family::WeldedI | Family::MonoI => (Some(0.38 * r), Some(3.76 * r)),
-        Family::Rhs => (None, Some(1.12 * r)),
-        Family::Rect => (None, None),
-    }
+    family.kind().compact_slenderness(e, fy)
 }
 
 /// Evaluation of one trial point.
@@ -235,6 +216,27 @@ pub struct Eval {
 const PENALTY: f64 = 1e6;
 
 impl Problem {
+    /// Least area of `family` within its default bounds, with the default
+    /// slenderness limits for the material's E and Fy (none without Fy)
+    /// and no other limit.
+    pub fn least_area(family: Family, material: &Material) -> Problem {
+        let (lambda_f, lambda_w) = material
+            .fy
+            .map(|fy| default_slenderness(family, material.e, fy))
+            .unwrap_or((None, None));
+        Problem {
+            family,
+            bounds: family.default_bounds(),
+            max_depth: None,
+            min_depth: None,
+            aspect: None,
+            lambda_f,
+            lambda_w,
+            objective: Objective::Area,
+            plate_prices: vec![],
+        }
+    }
+
     pub fn n(&self) -> usize {
         self.bounds.len()
     }
@@ -272,20 +274,9 @@ impl Problem {
     /// Cost per mm of length (currency), for a density in kg/m³.
     pub fn cost_of(&self, x: &[f64], density: f64) -> f64 {
         let kg_per_mm3 = density * 1e-9;
-        let plate = |b: f64, t: f64| b * t * kg_per_mm3 * self.price(t);
-        match self.family {
-            Family::WeldedI => 2.0 * plate(x[0], x[1]) + plate(x[2], x[3]),
-            Family::MonoI => plate(x[0], x[1]) + plate(x[2], x[3]) + plate(x[4], x[5]),
-            _ => {
-                let a = self
-                    .family
-                    .shape(x)
-                    .properties()
-                    .map(|p| p.area)
-                    .unwrap_or(f64::INFINITY);
-                a * kg_per_mm3 * self.price(x[x.len() - 1])
-            }
-        }
+        self.family
+            .kind()
+            .cost(x, kg_per_mm3, &|t: f64| self.price(t))
     }
 
     /// The objective and the area at x (mm), without any check (None:
@@ -345,41 +336,7 @@ impl Problem {
         if let Some(m) = self.min_depth {
             g.push((Constraint::MinDepth, 1.0 - depth / m));
         }
-        match self.family {
-            Family::Rect => {
-                if let Some(k) = self.aspect {
-                    g.push((Constraint::Aspect, x[1] / (k * x[0]) - 1.0));
-                }
-            }
-            Family::WeldedI | Family::MonoI => {
-                let (worst_f, hw, tw) = match self.family {
-                    Family::WeldedI => (x[0] / (2.0 * x[1]), x[2], x[3]),
-                    _ => ((x[0] / (2.0 * x[1])).max(x[2] / (2.0 * x[3])), x[4], x[5]),
-                };
-                if let Some(lf) = self.lambda_f {
-                    g.push((Constraint::FlangeSlenderness, worst_f / lf - 1.0));
-                }
-                if let Some(lw) = self.lambda_w {
-                    g.push((Constraint::WebSlenderness, hw / tw / lw - 1.0));
-                }
-                if self.family == Family::MonoI {
-                    // AISC 360-16 F13-2: 0.1 ≤ Iyc/Iy ≤ 0.9 for either flange
-                    // in compression (as a bound the solver can follow;
-                    // beyond it the check is not verified anyway).
-                    let it = x[1] * x[0].powi(3);
-                    let ib = x[3] * x[2].powi(3);
-                    let r = it / (it + ib);
-                    g.push((Constraint::FlangeProportion, (0.1 - r).max(r - 0.9) / 0.1));
-                }
-            }
-            Family::Rhs => {
-                if let Some(lw) = self.lambda_w {
-                    let t = x[2];
-                    let worst = ((x[0] - 2.0 * t) / t).max((x[1] - 2.0 * t) / t) / lw - 1.0;
-                    g.push((Constraint::WallSlenderness, worst));
-                }
-            }
-        }
+        self.family.kind().geometry(self, x, &mut g);
         let cost = if self.objective == Objective::Cost {
             self.cost_of(x, mat.density)
         } else {

@@ -21,6 +21,9 @@
 //! check line (closed form). Otherwise it is found by bisection to
 //! `tolerance`.
 
+mod optima;
+pub use optima::{SpanOptimum, optimum_by_span};
+
 use crate::beam::model::{Beam, LoadKind, Support};
 use crate::catalog::Materials;
 use crate::check::{
