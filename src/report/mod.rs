@@ -2,6 +2,7 @@
 //! CSV, and a result's `Serialize` into JSON. Renderers compute nothing;
 //! each command builds its result, then its document, once.
 
+pub mod analysis;
 pub mod batch;
 pub mod calc;
 pub mod chart;
