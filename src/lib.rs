@@ -10,6 +10,7 @@ pub mod catalog;
 pub mod check;
 pub mod error;
 pub mod job;
+pub mod member;
 pub mod optimise;
 pub mod report;
 pub mod search;

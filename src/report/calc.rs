@@ -7,10 +7,8 @@
 use super::chart;
 use super::member::MemberCheck;
 use super::{Align, Table};
-use crate::beam::demand::Quantity;
-use crate::beam::model::ComboKind;
+use crate::beam::analysis::At;
 use crate::check::{CheckKind, Prepared};
-use crate::job::Job;
 use crate::units::{Show, System};
 use serde::Serialize;
 
@@ -124,180 +122,107 @@ pub fn written_checks(r: &MemberCheck, sys: System) -> Vec<WrittenCheck> {
         .collect()
 }
 
-/// Diagrams of V, M (for the governing strength combination) and δ (for
-/// the governing serviceability combination), enveloped over patterns.
-pub fn figures(prep: &Prepared, r: &MemberCheck, sys: System) -> Vec<Figure> {
-    let d = &prep.demand;
-    let w = r.self_weight;
-    let pick = |kind: ComboKind, prefer: &dyn Fn(CheckKind) -> bool| -> Option<usize> {
-        r.lines
-            .iter()
-            .filter(|l| prefer(l.check))
-            .max_by(|a, b| a.utilisation.total_cmp(&b.utilisation))
-            .and_then(|l| {
-                d.combos
-                    .iter()
-                    .position(|c| c.name == l.combination && c.kind == kind)
-            })
-    };
-    let strength = pick(ComboKind::Strength, &|k| k != CheckKind::Deflection);
-    let service = pick(ComboKind::Service, &|k| k == CheckKind::Deflection);
-    let supports: Vec<f64> = d
-        .stretches
+/// The figures of a member check: its diagrams drawn in display units.
+pub fn figures(r: &MemberCheck, sys: System) -> Vec<Figure> {
+    let supports: Vec<f64> = r
+        .supports_x
         .iter()
-        .flat_map(|s| {
-            let mut v = Vec::new();
-            if s.left_node.is_some() {
-                v.push(s.x1);
-            }
-            if s.right_node.is_some() {
-                v.push(s.x2);
-            }
-            v
-        })
-        .map(|x| Show::Span.value(x, sys))
+        .map(|&x| Show::Span.value(x, sys))
         .collect();
-    let mut figs = Vec::new();
-    let ei = prep.material.e * r.properties.ix;
-    let sl = d.section(w, ei);
-    let mut plot = |ci: usize, q: Quantity, name: &str, show: Show, scale: f64, sign: f64| {
-        let a = d.apply(ci, &sl);
-        let c = a.combo;
-        let (mut lo, mut hi) = (Vec::new(), Vec::new());
-        for e in 0..d.len.len() {
-            for k in 0..=24 {
-                let s = d.len[e] * k as f64 / 24.0;
-                let (a, b) = d.envelope_at(&a, q, e, s);
-                let x = Show::Span.value(d.mesh.x[e] + s, sys);
-                lo.push((x, sign * show.value(a * scale, sys)));
-                hi.push((x, sign * show.value(b * scale, sys)));
+    r.diagrams
+        .iter()
+        .map(|g| {
+            let curves: Vec<Vec<(f64, f64)>> = g
+                .curves
+                .iter()
+                .map(|c| {
+                    c.iter()
+                        .map(|&(x, v)| (Show::Span.value(x, sys), g.sign * g.show.value(v, sys)))
+                        .collect()
+                })
+                .collect();
+            let marks: Vec<(f64, f64, String)> = g
+                .marks
+                .iter()
+                .map(|&(x, v)| {
+                    (
+                        Show::Span.value(x, sys),
+                        g.sign * g.show.value(v, sys),
+                        format!("{} at {}", g.show.fmt(v, sys), Show::Span.fmt(x, sys)),
+                    )
+                })
+                .collect();
+            let title = format!(
+                "{} — {}{}",
+                g.name,
+                g.combination,
+                if g.patterned {
+                    " (envelope over span patterns)"
+                } else {
+                    ""
+                }
+            );
+            let svg = chart::beam_diagram(
+                &title,
+                &format!("x [{}]", Show::Span.label(sys)),
+                &format!("{} [{}]", g.name, g.show.label(sys)),
+                &curves,
+                &marks,
+                &supports,
+            );
+            Figure {
+                caption: title,
+                svg,
             }
-        }
-        let patterned = !c.patterns.is_empty();
-        let ex = d.extremes(&a, q, 0..d.len.len());
-        let mut marks = Vec::new();
-        for (v, x) in [(ex.max, ex.x_max), (ex.min, ex.x_min)] {
-            if v != 0.0 {
-                marks.push((
-                    Show::Span.value(x, sys),
-                    sign * show.value(v * scale, sys),
-                    format!("{} at {}", show.fmt(v * scale, sys), Show::Span.fmt(x, sys)),
-                ));
-            }
-        }
-        marks.dedup_by(|a, b| (a.0 - b.0).abs() < 1e-9 && (a.1 - b.1).abs() < 1e-9);
-        let curves = if patterned { vec![hi, lo] } else { vec![hi] };
-        let title = format!(
-            "{name} — {}{}",
-            c.name,
-            if patterned {
-                " (envelope over span patterns)"
-            } else {
-                ""
-            }
-        );
-        let svg = chart::beam_diagram(
-            &title,
-            &format!("x [{}]", Show::Span.label(sys)),
-            &format!("{name} [{}]", show.label(sys)),
-            &curves,
-            &marks,
-            &supports,
-        );
-        figs.push(Figure {
-            caption: title,
-            svg,
-        });
-    };
-    if let Some(ci) = strength {
-        plot(ci, Quantity::Shear, "Shear V", Show::Force, 1.0, 1.0);
-        plot(
-            ci,
-            Quantity::Moment,
-            "Bending moment M (sagging positive)",
-            Show::Moment,
-            1.0,
-            1.0,
-        );
-    }
-    if let Some(ci) = service {
-        plot(
-            ci,
-            Quantity::Deflection,
-            "Deflection δ (downward plotted down)",
-            Show::Deflection,
-            1.0 / ei,
-            -1.0,
-        );
-    }
-    figs
+        })
+        .collect()
 }
 
-/// Reactions per case and per combination.
-pub fn reaction_tables(
-    job: &Job,
-    prep: &Prepared,
-    sect: &crate::beam::SectionLoad,
-    sys: System,
-) -> Vec<Table> {
-    let w_sw = sect.w_sw;
-    let d = &prep.demand;
-    let b = &job.beam;
+/// A header row: the first column left, one right-aligned column per
+/// supported node.
+fn node_headers(first: &str, xs: &[f64], sys: System) -> Vec<(String, Align)> {
     let f = Show::Force.label(sys);
-    let nodes: Vec<usize> = (0..b.supports.len())
-        .filter(|&n| b.supports[n].restrains_vertical())
-        .collect();
-    let mut heads: Vec<String> = vec!["Case".into()];
-    heads.extend(
-        nodes
-            .iter()
-            .map(|&n| format!("R at {} [{f}]", Show::Span.fmt(d.node_x[n], sys))),
-    );
-    let refs: Vec<(&str, Align)> = heads
-        .iter()
-        .enumerate()
-        .map(|(i, h)| (h.as_str(), if i == 0 { Align::Left } else { Align::Right }))
-        .collect();
-    let mut t = Table::new(
+    let mut heads = vec![(first.to_string(), Align::Left)];
+    heads.extend(xs.iter().map(|&x| {
+        (
+            format!("R at {} [{f}]", Show::Span.fmt(x, sys)),
+            Align::Right,
+        )
+    }));
+    heads
+}
+
+/// Reactions per case and per combination, from the member's analysis.
+pub fn reaction_tables(r: &MemberCheck, sys: System) -> Vec<Table> {
+    let a = &r.analysis;
+    let xs: Vec<f64> = a
+        .combinations
+        .first()
+        .map(|c| c.reactions.iter().map(|n| n.x_mm).collect())
+        .unwrap_or_default();
+    let table = |title: &str, first: &str| {
+        let hs = node_headers(first, &xs, sys);
+        let refs: Vec<(&str, Align)> = hs.iter().map(|(h, al)| (h.as_str(), *al)).collect();
+        Table::new(title, &refs)
+    };
+    let mut t = table(
         "Reactions per load case (upward), self-weight in its case",
-        &refs,
+        "Case",
     );
-    for (ci, c) in b.cases.iter().enumerate() {
-        let sw = if Some(ci) == prep_sw_case(job) {
-            w_sw
-        } else {
-            0.0
-        };
-        let mut row = vec![c.name.clone()];
-        let rs = d.case_reactions(sect, ci, sw);
-        for &n in &nodes {
-            row.push(Show::Force.num(rs[n].0, sys));
-        }
+    for c in &a.cases {
+        let mut row = vec![c.case.clone()];
+        row.extend(c.reactions.iter().map(|n| Show::Force.num(n.force_n, sys)));
         t.row(row);
     }
-    let mut heads2: Vec<String> = vec!["Combination".into()];
-    heads2.extend(
-        nodes
-            .iter()
-            .map(|&n| format!("R at {} [{f}]", Show::Span.fmt(d.node_x[n], sys))),
-    );
-    let refs2: Vec<(&str, Align)> = heads2
-        .iter()
-        .enumerate()
-        .map(|(i, h)| (h.as_str(), if i == 0 { Align::Left } else { Align::Right }))
-        .collect();
-    let mut t2 = Table::new(
+    let mut t2 = table(
         "Reactions per combination (upward; min … max over span patterns)",
-        &refs2,
+        "Combination",
     );
-    for ci in 0..d.combos.len() {
-        let a = d.apply(ci, sect);
-        let c = a.combo;
-        let r = d.reactions(&a);
-        let mut row = vec![c.name.clone()];
-        for &n in &nodes {
-            let (lo, hi) = r[n];
-            row.push(if (hi - lo).abs() <= 1e-9 * hi.abs().max(1.0) {
+    for c in &a.combinations {
+        let mut row = vec![c.combination.clone()];
+        row.extend(c.reactions.iter().map(|n| {
+            let (lo, hi) = (n.force_n.min, n.force_n.max);
+            if (hi - lo).abs() <= 1e-9 * hi.abs().max(1.0) {
                 Show::Force.num(hi, sys)
             } else {
                 format!(
@@ -305,8 +230,8 @@ pub fn reaction_tables(
                     Show::Force.num(lo, sys),
                     Show::Force.num(hi, sys)
                 )
-            });
-        }
+            }
+        }));
         t2.row(row);
     }
     vec![t, t2]
@@ -314,11 +239,8 @@ pub fn reaction_tables(
 
 /// Extremes per combination and span, with both deflection extremes (the
 /// largest downward and the largest upward movement, e.g. a back span
-/// lifted by its overhang), from the analysis of this section.
-pub fn extremes_table(job: &Job, prep: &Prepared, r: &MemberCheck, sys: System) -> Table {
-    let d = &prep.demand;
-    let sect = d.section(r.self_weight, prep.material.e_eff() * r.properties.ix);
-    let a = crate::beam::analysis::analyse(&job.beam, d, &sect, prep_sw_case(job), true, false);
+/// lifted by its overhang), from the member's analysis.
+pub fn extremes_table(r: &MemberCheck, sys: System) -> Table {
     let (ml, fl, dl, sl) = (
         Show::Moment.label(sys),
         Show::Force.label(sys),
@@ -343,7 +265,7 @@ pub fn extremes_table(job: &Job, prep: &Prepared, r: &MemberCheck, sys: System) 
         "Extremes per combination and span (envelope over load patterns; deflection from the chord of the span's supports)",
         &refs,
     );
-    let at = |v: Option<crate::beam::analysis::At>, show: Show, neg: bool| match v {
+    let at = |v: Option<At>, show: Show, neg: bool| match v {
         Some(a) => format!(
             "{} at {}",
             show.num(if neg { -a.value } else { a.value }, sys),
@@ -351,7 +273,7 @@ pub fn extremes_table(job: &Job, prep: &Prepared, r: &MemberCheck, sys: System) 
         ),
         None => "—".into(),
     };
-    for e in &a.extremes {
+    for e in &r.analysis.extremes {
         t.row(vec![
             e.combination.clone(),
             e.part.clone(),
@@ -367,12 +289,6 @@ pub fn extremes_table(job: &Job, prep: &Prepared, r: &MemberCheck, sys: System) 
         ]);
     }
     t
-}
-
-fn prep_sw_case(job: &Job) -> Option<usize> {
-    job.beam
-        .self_weight_case
-        .filter(|_| job.criteria.self_weight)
 }
 
 /// Section properties with their origin.

@@ -1,186 +1,16 @@
-//! The result model of a single-member check, and its document. Shared by
-//! `check` and the calculation report.
+//! The document of a single-member check (the result is
+//! [`crate::member::MemberCheck`]). Shared by `check` and the calculation
+//! sheet.
+
+pub use crate::member::{
+    Diagram, Line, MemberCheck, Settlement, line, member_check, part_at, part_of, section_input,
+};
 
 use super::{Align, Document, Table};
 use crate::beam::model::{ComboKind, Support};
-use crate::check::{CheckKind, Item, Prepared, SectionInput, Verdict, working::Working};
+use crate::check::CheckKind;
 use crate::job::Job;
-use crate::section::Properties;
 use crate::units::{Show, System};
-use serde::Serialize;
-
-/// One check line, with names resolved, in internal units.
-#[derive(Clone, Debug, Serialize)]
-pub struct Line {
-    pub check: CheckKind,
-    pub label: String,
-    pub combination: String,
-    /// Span or overhang label ("span 2"), or the buckling segment.
-    pub part: String,
-    /// Position from the left end, mm.
-    pub x: f64,
-    /// The action at x: N·mm (bending, buckling), N (shear), mm (deflection).
-    pub action: f64,
-    /// Stress (MPa), moment (N·mm) or deflection (mm).
-    pub demand: f64,
-    pub capacity: f64,
-    /// What the demand and capacity are (stress, moment, force, deflection).
-    pub show: Show,
-    pub utilisation: f64,
-    pub passes: bool,
-    /// The method, formula and values of this line.
-    pub working: Working,
-}
-
-/// The outcome of checking one section on one job.
-#[derive(Clone, Debug, Serialize)]
-pub struct MemberCheck {
-    pub title: String,
-    pub section: String,
-    pub properties: Properties,
-    /// kg/m.
-    pub mass_per_length: f64,
-    /// N/mm, as added to the self-weight case (0 when off).
-    pub self_weight: f64,
-    pub lines: Vec<Line>,
-    pub utilisation: f64,
-    pub governing: Option<Line>,
-    pub verdict: Verdict,
-    /// verdict == Passes.
-    pub passes: bool,
-    /// Limit states that apply but could not be evaluated (why the verdict
-    /// is not verified).
-    pub not_verified: Vec<String>,
-    /// Limit states the user excluded.
-    pub excluded: Vec<String>,
-    /// Outside beamsift's scope for this section.
-    pub not_checked: Vec<String>,
-    /// Bracing, effective lengths, load height, springs.
-    pub assumptions: Vec<String>,
-    /// Settlement of each spring support per combination, mm (downward;
-    /// min and max over the load patterns): not in the deflection checks,
-    /// which measure from the chord of the displaced supports.
-    pub settlements: Vec<Settlement>,
-    pub notes: Vec<String>,
-    pub caution: &'static str,
-}
-
-/// A spring's settlement under one combination.
-#[derive(Clone, Debug, Serialize)]
-pub struct Settlement {
-    pub combination: String,
-    /// Position of the spring from the left end, mm.
-    pub x: f64,
-    pub min: f64,
-    pub max: f64,
-}
-
-/// Where along the beam x lies, in words.
-pub fn part_at(prep: &Prepared, x: f64) -> String {
-    prep.demand
-        .stretches
-        .iter()
-        .find(|s| x >= s.x1 - 1e-9 && x <= s.x2 + 1e-9)
-        .map(|s| s.label.clone())
-        .unwrap_or_default()
-}
-
-/// The part of the beam a check line is about: a span or overhang, or an
-/// unbraced segment.
-pub fn part_of(prep: &Prepared, it: &Item) -> String {
-    match it.kind {
-        CheckKind::Deflection => prep.demand.stretches[it.part].label.clone(),
-        CheckKind::LateralTorsional if !prep.segments.is_empty() => {
-            let s = &prep.segments[it.part];
-            format!("segment {:.3}–{:.3} m", s.x1 / 1000.0, s.x2 / 1000.0)
-        }
-        _ => part_at(prep, it.x),
-    }
-}
-
-pub fn line(prep: &Prepared, sec: SectionInput<'_>, it: &Item) -> Line {
-    let d = &prep.demand;
-    let part = part_of(prep, it);
-    let timber = sec.material.unwrap_or(&prep.material).kind == crate::check::MaterialKind::Timber;
-    let show = match it.kind {
-        CheckKind::Deflection => Show::Deflection,
-        CheckKind::WebShear => Show::Force,
-        CheckKind::LateralTorsional if timber => Show::Stress,
-        k if k.demand_is_moment() => Show::Moment,
-        _ => Show::Stress,
-    };
-    Line {
-        check: it.kind,
-        label: it.kind.label().to_string(),
-        combination: d.combos[it.combo].name.clone(),
-        part,
-        x: it.x,
-        action: it.action,
-        demand: it.demand,
-        capacity: it.capacity,
-        show,
-        utilisation: it.utilisation,
-        passes: it.utilisation <= 1.0,
-        working: prep.working(sec, it),
-    }
-}
-
-/// Check a section and collect the result.
-pub fn member_check(
-    job: &Job,
-    prep: &Prepared,
-    section: &str,
-    props: &Properties,
-    mass: f64,
-    material: Option<&crate::check::Material>,
-) -> MemberCheck {
-    let mut sec = SectionInput::new(props, mass);
-    if let Some(m) = material {
-        sec = sec.with_material(m);
-    }
-    let (items, _) = prep.check_all(sec);
-    let lines: Vec<Line> = items.iter().map(|it| line(prep, sec, it)).collect();
-    let summary = prep.check(sec);
-    MemberCheck {
-        title: job.title.clone(),
-        section: section.to_string(),
-        properties: props.clone(),
-        mass_per_length: mass,
-        self_weight: prep.self_weight(mass),
-        governing: summary.governing.map(|g| line(prep, sec, &g)),
-        utilisation: summary.utilisation,
-        verdict: summary.verdict,
-        passes: summary.passes,
-        lines,
-        not_verified: summary.gaps.describe(),
-        excluded: prep.criteria.exclude.list(),
-        not_checked: prep.not_checked(props, material),
-        assumptions: prep.assumptions(),
-        settlements: {
-            let d = &prep.demand;
-            let sl = d.section(
-                prep.self_weight(mass),
-                sec.material.unwrap_or(&prep.material).e_eff() * props.ix,
-            );
-            (0..d.combos.len())
-                .flat_map(|ci| {
-                    let a = d.apply(ci, &sl);
-                    d.settlements(&a)
-                        .into_iter()
-                        .map(|(n, lo, hi)| Settlement {
-                            combination: a.combo.name.clone(),
-                            x: d.node_x[n],
-                            min: lo,
-                            max: hi,
-                        })
-                        .collect::<Vec<_>>()
-                })
-                .collect()
-        },
-        notes: job.notes.clone(),
-        caution: super::CAUTION,
-    }
-}
 
 fn fmt_part(l: &Line, sys: System) -> String {
     if l.part.starts_with("segment") {
@@ -516,11 +346,6 @@ Utilisation = demand / capacity (allowable strength: nominal/Ω).",
     }
     doc.caution(r.not_checked.clone());
     doc
-}
-
-/// Convenience: the kinds of section value a reader may want.
-pub fn section_input(props: &Properties, mass: f64) -> SectionInput<'_> {
-    SectionInput::new(props, mass)
 }
 
 /// Each spring's settlement per combination (None without springs).

@@ -147,18 +147,11 @@ pub fn build(
         .map(TableOut::from)
         .collect();
     tables.extend(
-        calc::reaction_tables(
-            job,
-            prep,
-            &prep
-                .demand
-                .section(r.self_weight, prep.material.e_eff() * r.properties.ix),
-            sys,
-        )
-        .into_iter()
-        .map(TableOut::from),
+        calc::reaction_tables(r, sys)
+            .into_iter()
+            .map(TableOut::from),
     );
-    tables.push(calc::extremes_table(job, prep, r, sys).into());
+    tables.push(calc::extremes_table(r, sys).into());
     if let Some(st) = super::member::settlements_table(r, sys) {
         tables.push(st.into());
     }
@@ -187,7 +180,7 @@ pub fn build(
         section_source: source.to_string(),
         verdict,
         tables,
-        figures: calc::figures(prep, r, sys),
+        figures: calc::figures(r, sys),
         checks: calc::written_checks(r, sys),
         alternatives: alternatives.map(TableOut::from),
         methods,
