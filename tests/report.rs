@@ -273,3 +273,50 @@ fn html_is_well_formed_and_self_contained() {
     assert!(html.contains("CAUTION"));
     assert!(html.contains("Not checked"));
 }
+
+/// Names from a user's job reach the sheet as text, never as markup:
+/// HTML escaping per the HTML Living Standard (§13.1.2.6, the characters
+/// `<`, `&` and `"` in text and attribute values), and the same entities in
+/// Markdown, whose viewers render raw HTML (CommonMark 0.31.2, §6.6 "Raw
+/// HTML"); `|` escaped inside a pipe-table cell (GFM spec, §4.10).
+#[test]
+fn names_from_the_job_are_escaped_in_both_formats() {
+    let hostile = JOB
+        .replace(
+            "title = \"Snapshot beam (invented test data)\"",
+            "title = \"B1 <script>alert(1)</script> & | co\"",
+        )
+        .replace("name = \"test steel\"", "name = \"steel <img src=x onerror=1>\"")
+        .replace(
+            "[presets]",
+            "[[combination]]\nname = \"C <svg onload=1> |\"\nfactors = { dead = 1.0, live = 1.0 }\n[presets]",
+        );
+    let job = from_toml(&hostile, "hostile.toml").unwrap();
+    let prep = Prepared::new(&job.beam, job.material.clone(), job.criteria.clone()).unwrap();
+    let shape = Shape::Rect { b: 100.0, d: 300.0 };
+    let p = shape.properties().unwrap();
+    let r = member::member_check(&job, &prep, "rect", &p, 0.0, None);
+    let s = sheet::build(&job, &prep, &r, "given", None, System::Si);
+    let (md, html) = (sheet::markdown(&s), sheet::html(&s));
+    for (what, text) in [("markdown", &md), ("html", &html)] {
+        for raw in ["<script", "<img", "<svg onload"] {
+            assert!(!text.contains(raw), "{what} carries raw markup {raw}");
+        }
+        assert!(
+            text.contains("B1 &lt;script&gt;alert(1)&lt;/script&gt; &amp;"),
+            "{what}"
+        );
+        assert!(text.contains("C &lt;svg onload=1&gt;"), "{what}");
+    }
+    // In a pipe table the bar of a name is a character, not a column.
+    assert!(md.contains("C &lt;svg onload=1&gt; \\|"));
+    // Every table row of the Markdown keeps its header's column count.
+    for block in md.split("\n\n").filter(|b| b.starts_with("| ")) {
+        let cols = |l: &str| l.replace("\\|", "").matches('|').count();
+        let mut lines = block.lines();
+        let n = cols(lines.next().unwrap());
+        for l in lines {
+            assert_eq!(cols(l), n, "row with another column count: {l}");
+        }
+    }
+}

@@ -41,10 +41,10 @@ pub struct Sheet {
     pub section: String,
     pub section_source: String,
     pub verdict: String,
-    pub tables: Vec<TableOut>,
+    pub tables: Vec<Table>,
     pub figures: Vec<Figure>,
     pub checks: Vec<WrittenCheck>,
-    pub alternatives: Option<TableOut>,
+    pub alternatives: Option<Table>,
     pub methods: Vec<String>,
     pub assumptions: Vec<String>,
     pub not_verified: Vec<String>,
@@ -60,26 +60,6 @@ pub const VERDICTS: &str = "Verdicts: PASSES — every limit state that applies 
 FAILS — a limit state evaluated exceeds its capacity (exit code 1); NOT VERIFIED — nothing evaluated fails, but a limit state that applies \
 could not be evaluated (a missing input, a shape outside a method's range, no method for the material): this is not a pass (exit code 5). \
 A limit state the user excluded is listed as excluded, by choice.";
-
-/// A table in the sheet (serialisable form of `Table`).
-#[derive(Clone, Debug, Serialize)]
-pub struct TableOut {
-    pub title: String,
-    pub headers: Vec<String>,
-    pub right: Vec<bool>,
-    pub rows: Vec<Vec<String>>,
-}
-
-impl From<Table> for TableOut {
-    fn from(t: Table) -> Self {
-        TableOut {
-            title: t.title,
-            right: t.align.iter().map(|a| *a == Align::Right).collect(),
-            headers: t.headers,
-            rows: t.rows,
-        }
-    }
-}
 
 /// Write out every check line of a member check (from the working the
 /// library attached to each line).

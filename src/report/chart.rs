@@ -272,6 +272,7 @@ pub fn beam_diagram(
 
 fn svg_fallback(title: &str) -> String {
     format!(
-        "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"600\" height=\"80\"><text x=\"10\" y=\"40\">{title}: nothing to plot</text></svg>"
+        "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"600\" height=\"80\"><text x=\"10\" y=\"40\">{}: nothing to plot</text></svg>",
+        super::html::esc(title)
     )
 }

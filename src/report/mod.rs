@@ -7,6 +7,7 @@ pub mod batch;
 pub mod calc;
 pub mod chart;
 pub mod csv_out;
+pub mod html;
 pub mod markdown;
 pub mod member;
 pub mod select;
@@ -20,14 +21,15 @@ pub const CAUTION: &str = "CAUTION: beamsift is an aid for a competent person, n
 Verify every result against the governing local code and licensed practice before it is used.";
 
 /// Column alignment.
-#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "lowercase")]
 pub enum Align {
     Left,
     Right,
 }
 
 /// A table: headers carry their units (e.g. "Mass [kg/m]").
-#[derive(Clone, Debug, Default)]
+#[derive(Clone, Debug, Default, Serialize)]
 pub struct Table {
     pub title: String,
     pub headers: Vec<String>,
@@ -49,14 +51,35 @@ impl Table {
     }
 }
 
-/// One piece of a document.
+/// How a labelled line reads: plain, or a verdict.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Tone {
+    Plain,
+    Pass,
+    Fail,
+    Unverified,
+}
+
+/// One piece of a document. Every renderer handles every block; text
+/// from user files (names, titles) is escaped by each writer for its
+/// format, in one place per format.
 #[derive(Clone, Debug)]
 pub enum Block {
     Heading(String),
     Para(String),
+    /// A paragraph led by a bold label ("Section:", "Result:").
+    Labelled(String, String, Tone),
+    /// The caution, set apart.
+    Caution(String),
     Table(Table),
-    /// A bullet list with a lead-in line.
+    /// A bullet list with a lead-in line (none when empty).
     List(String, Vec<String>),
+    /// A diagram (SVG) with its caption.
+    Figure(calc::Figure),
+    /// A check written out: its heading and its working.
+    Check(String, calc::WrittenCheck),
+    /// A closing line after a rule ("Prepared with …").
+    Footer(String),
 }
 
 /// What a command shows a person.

@@ -3,9 +3,9 @@
 //! style, no external assets). The layout is our own: a plain, printable
 //! worksheet in the order a checker reads it.
 
-use super::calc::{self, Sheet, TableOut};
+use super::calc::{self, Sheet};
 use super::member::{self, MemberCheck};
-use super::{Align, CAUTION, Table};
+use super::{Align, Block, CAUTION, Document, Table, Tone};
 use crate::check::{Material, Prepared, Verdict};
 use crate::job::Job;
 use crate::search::{Candidate, Selection};
@@ -142,20 +142,13 @@ pub fn build(
     alternatives: Option<Table>,
     sys: System,
 ) -> Sheet {
-    let mut tables: Vec<TableOut> = member::job_tables(job, sys)
-        .into_iter()
-        .map(TableOut::from)
-        .collect();
-    tables.extend(
-        calc::reaction_tables(r, sys)
-            .into_iter()
-            .map(TableOut::from),
-    );
-    tables.push(calc::extremes_table(r, sys).into());
+    let mut tables: Vec<Table> = member::job_tables(job, sys);
+    tables.extend(calc::reaction_tables(r, sys));
+    tables.push(calc::extremes_table(r, sys));
     if let Some(st) = super::member::settlements_table(r, sys) {
-        tables.push(st.into());
+        tables.push(st);
     }
-    tables.push(calc::section_table(r, sys).into());
+    tables.push(calc::section_table(r, sys));
     let verdict = match &r.governing {
         Some(g) => format!(
             "{}: the largest utilisation of the checks evaluated is {:.3}, from {} under {} ({}).{}",
@@ -182,7 +175,7 @@ pub fn build(
         tables,
         figures: calc::figures(r, sys),
         checks: calc::written_checks(r, sys),
-        alternatives: alternatives.map(TableOut::from),
+        alternatives,
         methods,
         assumptions,
         not_verified: r.not_verified.clone(),
@@ -192,29 +185,6 @@ pub fn build(
         caution: CAUTION,
         generator: format!("beamsift {}", env!("CARGO_PKG_VERSION")),
     }
-}
-
-fn md_table(t: &TableOut) -> String {
-    let mut s = String::new();
-    if !t.title.is_empty() {
-        s.push_str(&format!("**{}**\n\n", t.title));
-    }
-    s.push_str(&format!("| {} |\n|", t.headers.join(" | ")));
-    for r in &t.right {
-        s.push_str(if *r { "---:|" } else { "---|" });
-    }
-    s.push('\n');
-    for row in &t.rows {
-        s.push_str(&format!(
-            "| {} |\n",
-            row.iter()
-                .map(|c| c.replace('|', "\\|"))
-                .collect::<Vec<_>>()
-                .join(" | ")
-        ));
-    }
-    s.push('\n');
-    s
 }
 
 /// Standard base64 (RFC 4648) for data URIs.
@@ -239,62 +209,60 @@ pub fn base64(data: &[u8]) -> String {
     out
 }
 
-pub fn markdown(s: &Sheet) -> String {
-    let mut o = String::new();
-    o.push_str(&format!("# {}\n\n", s.title));
-    o.push_str(&format!("> {}\n\n", s.caution));
-    o.push_str(&format!(
-        "**Section:** {} — {}.\n\n",
-        s.section, s.section_source
+/// The sheet as a document, in the order a checker reads it.
+pub fn document(s: &Sheet) -> Document {
+    let mut d = Document::new(s.title.clone());
+    d.blocks.push(Block::Caution(s.caution.to_string()));
+    d.blocks.push(Block::Labelled(
+        "Section:".into(),
+        format!("{} — {}.", s.section, s.section_source),
+        Tone::Plain,
     ));
-    o.push_str(&format!("**Result:** {}\n\n", s.verdict));
-    o.push_str(&format!("{}\n\n", calc::VERDICTS));
-    o.push_str("## 1. Member, loads and combinations\n\n");
+    let tone = if s.verdict.starts_with("PASSES") {
+        Tone::Pass
+    } else if s.verdict.starts_with("NOT VERIFIED") {
+        Tone::Unverified
+    } else {
+        Tone::Fail
+    };
+    d.blocks
+        .push(Block::Labelled("Result:".into(), s.verdict.clone(), tone));
+    d.para(calc::VERDICTS);
+    d.heading("1. Member, loads and combinations");
     for t in &s.tables {
-        o.push_str(&md_table(t));
+        d.table(t.clone());
     }
-    o.push_str("## 2. Diagrams\n\n");
+    d.heading("2. Diagrams");
     for f in &s.figures {
-        o.push_str(&format!(
-            "![{}](data:image/svg+xml;base64,{})\n\n",
-            f.caption,
-            base64(f.svg.as_bytes())
-        ));
+        d.blocks.push(Block::Figure(f.clone()));
     }
-    o.push_str("## 3. Checks\n\n");
+    d.heading("3. Checks");
     for (i, c) in s.checks.iter().enumerate() {
-        o.push_str(&format!(
-            "### 3.{} {} — {}, {}\n\n",
-            i + 1,
-            c.check,
-            c.combination,
-            c.location
-        ));
-        o.push_str(&format!("    {}\n", c.formula));
-        for line in &c.substitution {
-            o.push_str(&format!("      {line}\n"));
-        }
-        o.push_str(&format!("      {}\n", c.result));
-        o.push_str(&format!("    allowable: {}\n", c.allowable));
-        o.push_str(&format!(
-            "    utilisation: {} — {}\n\n",
-            c.utilisation,
-            if c.passes { "passes" } else { "FAILS" }
+        d.blocks.push(Block::Check(
+            format!(
+                "3.{} {} — {}, {}",
+                i + 1,
+                c.check,
+                c.combination,
+                c.location
+            ),
+            c.clone(),
         ));
     }
     if let Some(t) = &s.alternatives {
-        o.push_str("## 4. Alternatives from the catalogue\n\n");
-        o.push_str(&md_table(t));
+        d.heading("4. Alternatives from the catalogue");
+        d.table(t.clone());
     }
-    o.push_str("## 5. Methods and sources\n\n");
-    for m in &s.methods {
-        o.push_str(&format!("- {m}\n"));
-    }
-    o.push_str("\n## 6. Assumptions\n\n");
-    for a in &s.assumptions {
-        o.push_str(&format!("- {a}\n"));
-    }
-    for (title, items, empty) in [
+    let or_none = |v: &[String], none: &str| -> Vec<String> {
+        if v.is_empty() && !none.is_empty() {
+            vec![none.to_string()]
+        } else {
+            v.to_vec()
+        }
+    };
+    for (title, items, none) in [
+        ("5. Methods and sources", &s.methods, ""),
+        ("6. Assumptions", &s.assumptions, ""),
         (
             "7. Not verified",
             &s.not_verified,
@@ -307,195 +275,25 @@ pub fn markdown(s: &Sheet) -> String {
         ),
         ("9. Not checked (outside beamsift)", &s.not_checked, ""),
     ] {
-        o.push_str(&format!("\n## {title}\n\n"));
-        if items.is_empty() {
-            o.push_str(&format!("{empty}\n"));
-        }
-        for n in items {
-            o.push_str(&format!("- {n}\n"));
-        }
+        d.heading(title);
+        d.list("", or_none(items, none));
     }
     if !s.notes.is_empty() {
-        o.push_str("\n## Notes\n\n");
-        for n in &s.notes {
-            o.push_str(&format!("- {n}\n"));
-        }
+        d.heading("Notes");
+        d.list("", s.notes.clone());
     }
-    o.push_str(&format!(
-        "\n---\n\n{}\n\n*Prepared with {}.*\n",
-        s.caution, s.generator
-    ));
-    o
+    d.blocks.push(Block::Caution(s.caution.to_string()));
+    d.blocks
+        .push(Block::Footer(format!("Prepared with {}.", s.generator)));
+    d
 }
 
-/// Escape text for HTML/XML.
-pub fn esc(s: &str) -> String {
-    s.replace('&', "&amp;")
-        .replace('<', "&lt;")
-        .replace('>', "&gt;")
-        .replace('"', "&quot;")
+/// The sheet as self-contained Markdown (figures as data-URI images).
+pub fn markdown(s: &Sheet) -> String {
+    super::markdown::render(&document(s))
 }
 
-fn html_table(t: &TableOut) -> String {
-    let mut s = String::from("<table>\n");
-    if !t.title.is_empty() {
-        s.push_str(&format!("<caption>{}</caption>\n", esc(&t.title)));
-    }
-    s.push_str("<thead><tr>");
-    for (i, h) in t.headers.iter().enumerate() {
-        s.push_str(&format!(
-            "<th{}>{}</th>",
-            if t.right.get(i) == Some(&true) {
-                " class=\"num\""
-            } else {
-                ""
-            },
-            esc(h)
-        ));
-    }
-    s.push_str("</tr></thead>\n<tbody>\n");
-    for row in &t.rows {
-        s.push_str("<tr>");
-        for (i, c) in row.iter().enumerate() {
-            s.push_str(&format!(
-                "<td{}>{}</td>",
-                if t.right.get(i) == Some(&true) {
-                    " class=\"num\""
-                } else {
-                    ""
-                },
-                esc(c)
-            ));
-        }
-        s.push_str("</tr>\n");
-    }
-    s.push_str("</tbody>\n</table>\n");
-    s
-}
-
-/// Strip the XML prologue plotters may emit, so SVG can sit inline.
-fn inline_svg(svg: &str) -> &str {
-    match svg.find("<svg") {
-        Some(i) => &svg[i..],
-        None => svg,
-    }
-}
-
-const STYLE: &str = "body{font-family:sans-serif;max-width:60em;margin:2em auto;padding:0 1em;color:#111;line-height:1.4}\
-h1{font-size:1.5em;border-bottom:2px solid #333}h2{font-size:1.2em;margin-top:2em;border-bottom:1px solid #999}\
-h3{font-size:1em;margin:1.2em 0 .3em}table{border-collapse:collapse;margin:.8em 0;font-size:.9em}\
-caption{text-align:left;font-weight:bold;padding:.3em 0}th,td{border:1px solid #bbb;padding:.2em .5em;vertical-align:top}\
-th{background:#eee}td.num,th.num{text-align:right}.calc{font-family:monospace;white-space:pre-wrap;background:#f7f7f7;\
-border-left:3px solid #666;padding:.4em .8em;margin:.3em 0}.fail{color:#b00;font-weight:bold}.unverified{color:#840;font-weight:bold}.pass{color:#060}\
-.caution{border:2px solid #b60;background:#fff6e8;padding:.6em 1em}figure{margin:1em 0}svg{max-width:100%;height:auto}\
-@media print{h2{page-break-after:avoid}.check{page-break-inside:avoid}}";
-
+/// The sheet as one self-contained HTML page (inline SVG and style).
 pub fn html(s: &Sheet) -> String {
-    let mut o = String::new();
-    o.push_str("<!DOCTYPE html>\n<html xmlns=\"http://www.w3.org/1999/xhtml\" lang=\"en\">\n<head>\n<meta charset=\"utf-8\"/>\n");
-    o.push_str(&format!(
-        "<title>{}</title>\n<style>{STYLE}</style>\n</head>\n<body>\n",
-        esc(&s.title)
-    ));
-    o.push_str(&format!("<h1>{}</h1>\n", esc(&s.title)));
-    o.push_str(&format!("<p class=\"caution\">{}</p>\n", esc(s.caution)));
-    o.push_str(&format!(
-        "<p><strong>Section:</strong> {} — {}.</p>\n",
-        esc(&s.section),
-        esc(&s.section_source)
-    ));
-    let cls = if s.verdict.starts_with("PASSES") {
-        "pass"
-    } else if s.verdict.starts_with("NOT VERIFIED") {
-        "unverified"
-    } else {
-        "fail"
-    };
-
-    o.push_str(&format!(
-        "<p><strong>Result:</strong> <span class=\"{cls}\">{}</span></p>\n",
-        esc(&s.verdict)
-    ));
-    o.push_str(&format!("<p>{}</p>\n", esc(calc::VERDICTS)));
-    o.push_str("<h2>1. Member, loads and combinations</h2>\n");
-    for t in &s.tables {
-        o.push_str(&html_table(t));
-    }
-    o.push_str("<h2>2. Diagrams</h2>\n");
-    for f in &s.figures {
-        o.push_str(&format!(
-            "<figure>\n{}\n<figcaption>{}</figcaption>\n</figure>\n",
-            inline_svg(&f.svg),
-            esc(&f.caption)
-        ));
-    }
-    o.push_str("<h2>3. Checks</h2>\n");
-    for (i, c) in s.checks.iter().enumerate() {
-        o.push_str(&format!(
-            "<div class=\"check\">\n<h3>3.{} {} — {}, {}</h3>\n<div class=\"calc\">",
-            i + 1,
-            esc(&c.check),
-            esc(&c.combination),
-            esc(&c.location)
-        ));
-        o.push_str(&esc(&c.formula));
-        for line in &c.substitution {
-            o.push_str(&format!("\n  {}", esc(line)));
-        }
-        o.push_str(&format!(
-            "\n  {}\nallowable: {}\nutilisation: {} — ",
-            esc(&c.result),
-            esc(&c.allowable),
-            esc(&c.utilisation)
-        ));
-        o.push_str(if c.passes {
-            "<span class=\"pass\">passes</span>"
-        } else {
-            "<span class=\"fail\">FAILS</span>"
-        });
-        o.push_str("</div>\n</div>\n");
-    }
-    if let Some(t) = &s.alternatives {
-        o.push_str("<h2>4. Alternatives from the catalogue</h2>\n");
-        o.push_str(&html_table(t));
-    }
-    let list = |o: &mut String, title: &str, items: &[String]| {
-        o.push_str(&format!("<h2>{}</h2>\n<ul>\n", esc(title)));
-        for i in items {
-            o.push_str(&format!("<li>{}</li>\n", esc(i)));
-        }
-        o.push_str("</ul>\n");
-    };
-    list(&mut o, "5. Methods and sources", &s.methods);
-    list(&mut o, "6. Assumptions", &s.assumptions);
-    let or_none = |v: &[String], none: &str| -> Vec<String> {
-        if v.is_empty() {
-            vec![none.to_string()]
-        } else {
-            v.to_vec()
-        }
-    };
-    list(
-        &mut o,
-        "7. Not verified",
-        &or_none(
-            &s.not_verified,
-            "Every limit state that applies was evaluated.",
-        ),
-    );
-    list(
-        &mut o,
-        "8. Excluded by the user",
-        &or_none(&s.excluded, "Nothing was excluded."),
-    );
-    list(&mut o, "9. Not checked (outside beamsift)", &s.not_checked);
-    if !s.notes.is_empty() {
-        list(&mut o, "Notes", &s.notes);
-    }
-    o.push_str(&format!(
-        "<p class=\"caution\">{}</p>\n<p><em>Prepared with {}.</em></p>\n</body>\n</html>\n",
-        esc(s.caution),
-        esc(&s.generator)
-    ));
-    o
+    super::html::render(&document(s))
 }

@@ -98,8 +98,37 @@ pub fn render(doc: &Document) -> String {
                 out.push_str(&table(t));
                 out.push('\n');
             }
+            Block::Labelled(label, p, _) => {
+                out.push_str(&wrap(&format!("{label} {p}"), ""));
+                out.push('\n');
+            }
+            Block::Caution(p) | Block::Footer(p) => {
+                out.push_str(&wrap(p, ""));
+                out.push('\n');
+            }
+            Block::Figure(f) => {
+                out.push_str(&wrap(&format!("[Figure: {}]", f.caption), ""));
+                out.push('\n');
+            }
+            Block::Check(heading, c) => {
+                out.push_str(heading);
+                out.push('\n');
+                out.push_str(&format!("  {}\n", c.formula));
+                for line in &c.substitution {
+                    out.push_str(&format!("    {line}\n"));
+                }
+                out.push_str(&format!(
+                    "    {}\n  allowable: {}\n  utilisation: {} — {}\n\n",
+                    c.result,
+                    c.allowable,
+                    c.utilisation,
+                    if c.passes { "passes" } else { "FAILS" }
+                ));
+            }
             Block::List(lead, items) => {
-                out.push_str(&wrap(lead, ""));
+                if !lead.is_empty() {
+                    out.push_str(&wrap(lead, ""));
+                }
                 for i in items {
                     let w = wrap(i, "    ");
                     out.push_str("  - ");
