@@ -215,3 +215,84 @@ fn outputs_are_never_lost() {
     assert_eq!(o.status.code(), Some(3));
     assert!(text(&o).1.contains("does not exist"));
 }
+
+/// Every command's JSON names its units and keeps internal units whatever
+/// --units says: the demo catalogue prints NB 330 L at 56.2 kg/m and
+/// 330 mm deep (catalogs/demo-steel.csv, line 21), and the JSON of a US
+/// run carries those numbers, not 37.8 lb/ft and 13 in.
+#[test]
+fn json_names_its_units_whatever_the_display_units() {
+    let job = repo("catalogs/demo-job.toml").to_string_lossy().to_string();
+    let steel = repo("catalogs/demo-steel.csv")
+        .to_string_lossy()
+        .to_string();
+    let sched = repo("catalogs/demo-schedule.csv")
+        .to_string_lossy()
+        .to_string();
+    let joists = repo("catalogs/demo-joists.toml")
+        .to_string_lossy()
+        .to_string();
+    let timber = repo("catalogs/demo-timber.csv")
+        .to_string_lossy()
+        .to_string();
+    let dir = tempfile::tempdir().unwrap();
+    let sheet = dir.path().join("sheet").to_string_lossy().to_string();
+    let runs: Vec<Vec<&str>> = vec![
+        vec!["select", "--job", &job, "-c", &steel],
+        vec!["shortlist", "--job", &job, "-c", &steel],
+        vec!["batch", "--schedule", &sched, "--job", &job, "-c", &steel],
+        vec![
+            "check",
+            "--job",
+            &job,
+            "rolled-i",
+            "d=330mm",
+            "bf=175mm",
+            "tf=12.7mm",
+            "tw=8.1mm",
+            "r=17mm",
+        ],
+        vec!["analyse", "--job", &job, "--Ix", "8356cm4"],
+        vec!["optimise", "--job", &job, "welded-i"],
+        vec![
+            "sweep",
+            "lightest",
+            "--job",
+            &job,
+            "-c",
+            &steel,
+            "--spans",
+            "4m..6m:1m",
+        ],
+        vec![
+            "sweep",
+            "table",
+            "--job",
+            &joists,
+            "-c",
+            &timber,
+            "--spacings",
+            "400,600mm",
+        ],
+        vec!["report", "--job", &job, "-c", &steel, "--to", &sheet],
+        vec!["catalog", "validate", &steel],
+        [&["section"], &IPE300[..]].concat(),
+    ];
+    for args in runs {
+        let o = run(&[&args[..], &["--json", "--units", "us"]].concat());
+        let (out, err) = text(&o);
+        assert!(o.status.code().is_some_and(|c| c <= 1), "{args:?}: {err}");
+        let v: serde_json::Value = serde_json::from_str(&out)
+            .unwrap_or_else(|e| panic!("{args:?}: not JSON ({e}): {out}"));
+        assert_eq!(v["units"]["length"], "mm", "{args:?}");
+        assert_eq!(v["units"]["mass_per_length"], "kg/m", "{args:?}");
+    }
+    let o = run(&[
+        "select", "--job", &job, "-c", &steel, "--json", "--units", "us",
+    ]);
+    let v: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();
+    let best = &v["passing"][0];
+    assert_eq!(best["name"], "NB 330 L");
+    assert_eq!(best["mass"].as_f64(), Some(56.2));
+    assert_eq!(best["depth"].as_f64(), Some(330.0));
+}

@@ -134,10 +134,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     if out.format == beamsift::report::Format::Json {
         emit(
             out,
-            &format!(
-                "{}\n",
-                serde_json::to_string_pretty(&sheet).unwrap_or_default()
-            ),
+            &beamsift::report::render(out.format, sheet, &sheet::document(sheet)),
         )?;
     } else {
         emit(out, &summary)?;

@@ -54,6 +54,22 @@ pub struct Job {
     pub notes: Vec<String>,
 }
 
+impl Job {
+    /// Analyse the beam once for this job: the demand every section check
+    /// of it uses (see [`crate::check::Prepared`]).
+    pub fn prepare(&self) -> Result<crate::check::Prepared> {
+        crate::check::Prepared::new(&self.beam, self.material.clone(), self.criteria.clone())
+    }
+
+    /// The job's material and named grades, as catalogue rows refer to them.
+    pub fn materials(&self) -> crate::catalog::Materials<'_> {
+        crate::catalog::Materials {
+            base: &self.material,
+            grades: &self.grades,
+        }
+    }
+}
+
 /// Read a text file (a job file), reporting invalid UTF-8 as bad input at
 /// its line and column rather than as an I/O failure.
 pub fn read_text(path: &std::path::Path, shown: &str) -> Result<String> {

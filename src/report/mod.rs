@@ -161,8 +161,41 @@ fn with_context(mut v: serde_json::Value, doc: &Document) -> serde_json::Value {
         }
         map.entry("caution")
             .or_insert_with(|| serde_json::json!(CAUTION));
+        // The one statement of units (a result's own short note in words
+        // gives way to it).
+        if map.get("units").is_none_or(|u| !u.is_object()) {
+            map.insert("units".into(), json_units());
+        }
     }
     v
+}
+
+/// The units of every number in JSON output: internal units, the same
+/// whatever `--units` says (display units apply to documents only).
+/// Field names with a unit suffix (`x_mm`, `force_n`, `moment_nmm`) say
+/// it again.
+pub fn json_units() -> serde_json::Value {
+    serde_json::json!({
+        "note": "JSON numbers are in these units whatever --units says",
+        "length": "mm",
+        "position": "mm from the left end of the beam",
+        "deflection": "mm (downward positive)",
+        "force": "N",
+        "moment": "N·mm (sagging positive)",
+        "stress": "MPa (N/mm²)",
+        "line_load": "N/mm",
+        "area": "mm²",
+        "second_moment": "mm⁴",
+        "section_modulus": "mm³",
+        "torsion_constant": "mm⁴",
+        "warping_constant": "mm⁶",
+        "mass_per_length": "kg/m",
+        "mass": "kg",
+        "density": "kg/m³",
+        "unit_cost": "currency per mm of length",
+        "total_cost": "currency",
+        "utilisation": "demand / capacity (1 = at capacity)"
+    })
 }
 
 /// Output formats.
