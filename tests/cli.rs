@@ -215,3 +215,35 @@ fn outputs_are_never_lost() {
     assert_eq!(o.status.code(), Some(3));
     assert!(text(&o).1.contains("does not exist"));
 }
+
+/// The "Where" of a ranked row is a position like every other: metres in
+/// SI, feet under --units us. The foot is 0.3048 m exactly (International
+/// Yard and Pound Agreement, 1959); both are printed to four significant
+/// figures, so they agree to 0.1 %.
+#[test]
+fn select_where_follows_the_units() {
+    let job = repo("catalogs/demo-job.toml");
+    let cat = repo("catalogs/demo-steel.csv");
+    let (job, cat) = (job.to_str().unwrap(), cat.to_str().unwrap());
+    let place = |units: &str| -> String {
+        let o = run(&[
+            "select", "--job", job, "-c", cat, "--json", "--units", units,
+        ]);
+        let v: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();
+        v["passing"][0]["governing_where"]
+            .as_str()
+            .unwrap()
+            .to_string()
+    };
+    let number = |s: &str, unit: &str| -> f64 {
+        let x = s.split("x = ").nth(1).unwrap();
+        x.strip_suffix(unit).unwrap().trim().parse().unwrap()
+    };
+    let (si, us) = (place("si"), place("us"));
+    assert!(si.ends_with(" m") && us.ends_with(" ft"), "{si} / {us}");
+    let (m, ft) = (number(&si, "m"), number(&us, "ft"));
+    assert!((ft * 0.3048 - m).abs() <= 1e-3 * m, "{m} m vs {ft} ft");
+    let o = run(&["select", "--job", job, "-c", cat, "--units", "us"]);
+    let (out, _) = text(&o);
+    assert!(out.contains(&us), "{out}");
+}
