@@ -9,6 +9,8 @@ pub mod chart;
 pub mod csv_out;
 pub mod markdown;
 pub mod member;
+pub mod optimise;
+pub mod section;
 pub mod select;
 pub mod sheet;
 pub mod text;
