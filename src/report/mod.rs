@@ -5,6 +5,7 @@
 pub mod analysis;
 pub mod batch;
 pub mod calc;
+pub mod catalog;
 pub mod chart;
 pub mod csv_out;
 pub mod markdown;
