@@ -14,6 +14,7 @@ pub mod optimise;
 pub mod section;
 pub mod select;
 pub mod sheet;
+pub mod sweep;
 pub mod text;
 
 use serde::Serialize;
