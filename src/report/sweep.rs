@@ -30,14 +30,13 @@ pub struct LightestOut {
     pub optimum: Option<SpanOptimum>,
 }
 
-/// The lightest section by span.
+/// What every sweep result carries besides its rows.
 #[derive(Serialize)]
-pub struct LightestResult {
+pub struct Context {
     pub title: String,
     pub excluded: Vec<String>,
     pub assumptions: Vec<String>,
     pub notes: Vec<String>,
-    pub rows: Vec<LightestOut>,
     /// Where the chart is written.
     pub chart: Option<String>,
     pub caution: &'static str,
@@ -45,6 +44,14 @@ pub struct LightestResult {
     /// caution).
     #[serde(skip)]
     pub not_checked: Vec<String>,
+}
+
+/// The lightest section by span.
+#[derive(Serialize)]
+pub struct LightestResult {
+    #[serde(flatten)]
+    pub context: Context,
+    pub rows: Vec<LightestOut>,
 }
 
 /// The span table: the longest span of each section in each column.
@@ -58,29 +65,22 @@ pub struct TableRow {
 
 #[derive(Serialize)]
 pub struct TableResult {
-    pub title: String,
-    pub excluded: Vec<String>,
-    pub assumptions: Vec<String>,
-    pub notes: Vec<String>,
+    #[serde(flatten)]
+    pub context: Context,
     /// Column labels.
     pub columns: Vec<String>,
     pub rows: Vec<TableRow>,
     pub rounded_to: Option<f64>,
-    /// Where the chart is written.
-    pub chart: Option<String>,
-    pub caution: &'static str,
-    /// What is not checked, for the sections of the table.
-    #[serde(skip)]
-    pub not_checked: Vec<String>,
 }
 
-/// The job's exclusions and assumptions, and what is not checked for
-/// `rows` (each item once, in the order met).
+/// The job's title, exclusions, assumptions and notes, and what is not
+/// checked for `rows` (each item once, in the order met).
 fn context(
     job: &Job,
     rows: &[Candidate],
     mats: &Materials<'_>,
-) -> Result<(Vec<String>, Vec<String>, Vec<String>)> {
+    chart: Option<String>,
+) -> Result<Context> {
     let prep = Prepared::new(&job.beam, job.material.clone(), job.criteria.clone())?;
     let mut not_checked: Vec<String> = Vec::new();
     for r in rows {
@@ -90,11 +90,15 @@ fn context(
             }
         }
     }
-    Ok((
-        prep.criteria.exclude.list(),
-        prep.assumptions(),
+    Ok(Context {
+        title: job.title.clone(),
+        excluded: prep.criteria.exclude.list(),
+        assumptions: prep.assumptions(),
+        notes: job.notes.clone(),
+        chart,
+        caution: CAUTION,
         not_checked,
-    ))
+    })
 }
 
 impl LightestResult {
@@ -125,16 +129,9 @@ impl LightestResult {
                 optimum: o,
             })
             .collect();
-        let (excluded, assumptions, not_checked) = context(job, samples, mats)?;
         Ok(LightestResult {
-            title: job.title.clone(),
-            excluded,
-            assumptions,
-            notes: job.notes.clone(),
+            context: context(job, samples, mats, chart)?,
             rows,
-            chart,
-            caution: CAUTION,
-            not_checked,
         })
     }
 }
@@ -162,12 +159,8 @@ impl TableResult {
         chart: Option<String>,
         sys: System,
     ) -> Result<TableResult> {
-        let (excluded, assumptions, not_checked) = context(job, rows, mats)?;
         Ok(TableResult {
-            title: job.title.clone(),
-            excluded,
-            assumptions,
-            notes: job.notes.clone(),
+            context: context(job, rows, mats, chart)?,
             columns: columns.iter().map(|&c| column_label(c, sys)).collect(),
             rows: rows
                 .iter()
@@ -179,9 +172,6 @@ impl TableResult {
                 })
                 .collect(),
             rounded_to,
-            chart,
-            caution: CAUTION,
-            not_checked,
         })
     }
 }
@@ -218,18 +208,12 @@ fn start(title: String, v: &SweepView<'_>) -> Document {
     doc
 }
 
-/// The end of a sweep's document: exclusions, assumptions, notes and what is
-/// not checked (as a legend), then the caution.
-fn finish(
-    doc: &mut Document,
-    excluded: &[String],
-    assumptions: &[String],
-    notes: &[String],
-    not_checked: &[String],
-) {
+/// The end of a sweep's document: exclusions, assumptions, notes and what
+/// is not checked (as a legend), then the caution.
+fn finish(doc: &mut Document, c: &Context) {
     let mut legend = Legend::default();
-    legend.keys(not_checked);
-    finish_doc(doc, excluded, assumptions, notes, legend);
+    legend.keys(&c.not_checked);
+    finish_doc(doc, &c.excluded, &c.assumptions, &c.notes, legend);
 }
 
 /// Table headers with their alignment.
@@ -252,7 +236,7 @@ pub fn lightest_chart(r: &LightestResult, sys: System) -> String {
         })
         .collect();
     chart::lightest_chart(
-        &format!("Lightest passing section — {}", r.title),
+        &format!("Lightest passing section — {}", r.context.title),
         &format!("Span [{}]", Show::Span.label(sys)),
         &format!("Mass per length [{}]", Show::Mass.label(sys)),
         &pts,
@@ -263,7 +247,7 @@ pub fn lightest_chart(r: &LightestResult, sys: System) -> String {
 /// parametric optimum was sought at each span).
 pub fn lightest_document(r: &LightestResult, optimised: bool, v: &SweepView<'_>) -> Document {
     let sys = v.sys;
-    let mut doc = start(format!("Lightest section by span — {}", r.title), v);
+    let mut doc = start(format!("Lightest section by span — {}", r.context.title), v);
     let mut hs = vec![
         (format!("Span [{}]", Show::Span.label(sys)), Align::Right),
         ("Lightest passing".to_string(), Align::Left),
@@ -307,7 +291,7 @@ pub fn lightest_document(r: &LightestResult, optimised: bool, v: &SweepView<'_>)
         t.row(row);
     }
     doc.table(t);
-    if let Some(p) = &r.chart {
+    if let Some(p) = &r.context.chart {
         doc.para(format!("Chart written to {p}."));
     }
     doc.para("Each span scales the job's geometry (spans and load positions) so the longest span equals it; load intensities are as given.");
@@ -317,13 +301,7 @@ pub fn lightest_document(r: &LightestResult, optimised: bool, v: &SweepView<'_>)
             r.not_verified_reasons.clone(),
         );
     }
-    finish(
-        &mut doc,
-        &r.excluded,
-        &r.assumptions,
-        &r.notes,
-        &r.not_checked,
-    );
+    finish(&mut doc, &r.context);
     doc
 }
 
@@ -355,7 +333,7 @@ pub fn table_chart(r: &TableResult, sys: System) -> String {
         })
         .collect();
     chart::span_chart(
-        &format!("Maximum span — {}", r.title),
+        &format!("Maximum span — {}", r.context.title),
         &format!("Maximum span [{}]", Show::Span.label(sys)),
         &names,
         &r.columns,
@@ -376,7 +354,7 @@ pub struct Search {
 /// The document of a span table.
 pub fn table_document(r: &TableResult, search: &Search, v: &SweepView<'_>) -> Document {
     let sys = v.sys;
-    let mut doc = start(format!("Span table — {}", r.title), v);
+    let mut doc = start(format!("Span table — {}", r.context.title), v);
     let mut hs: Vec<(String, Align)> = vec![
         ("Section".into(), Align::Left),
         (format!("Mass [{}]", Show::Mass.label(sys)), Align::Right),
@@ -471,15 +449,9 @@ pub fn table_document(r: &TableResult, search: &Search, v: &SweepView<'_>) -> Do
             Show::Dimension.fmt(step, sys)
         ));
     }
-    if let Some(p) = &r.chart {
+    if let Some(p) = &r.context.chart {
         doc.para(format!("Chart written to {p}."));
     }
-    finish(
-        &mut doc,
-        &r.excluded,
-        &r.assumptions,
-        &r.notes,
-        &r.not_checked,
-    );
+    finish(&mut doc, &r.context);
     doc
 }
