@@ -296,3 +296,35 @@ fn json_names_its_units_whatever_the_display_units() {
     assert_eq!(best["mass"].as_f64(), Some(56.2));
     assert_eq!(best["depth"].as_f64(), Some(330.0));
 }
+
+/// The "Where" of a ranked row is a position like every other: metres in
+/// SI, feet under --units us. The foot is 0.3048 m exactly (International
+/// Yard and Pound Agreement, 1959); both are printed to four significant
+/// figures, so they agree to 0.1 %.
+#[test]
+fn select_where_follows_the_units() {
+    let job = repo("catalogs/demo-job.toml");
+    let cat = repo("catalogs/demo-steel.csv");
+    let (job, cat) = (job.to_str().unwrap(), cat.to_str().unwrap());
+    let place = |units: &str| -> String {
+        let o = run(&[
+            "select", "--job", job, "-c", cat, "--json", "--units", units,
+        ]);
+        let v: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();
+        v["passing"][0]["governing_where"]
+            .as_str()
+            .unwrap()
+            .to_string()
+    };
+    let number = |s: &str, unit: &str| -> f64 {
+        let x = s.split("x = ").nth(1).unwrap();
+        x.strip_suffix(unit).unwrap().trim().parse().unwrap()
+    };
+    let (si, us) = (place("si"), place("us"));
+    assert!(si.ends_with(" m") && us.ends_with(" ft"), "{si} / {us}");
+    let (m, ft) = (number(&si, "m"), number(&us, "ft"));
+    assert!((ft * 0.3048 - m).abs() <= 1e-3 * m, "{m} m vs {ft} ft");
+    let o = run(&["select", "--job", job, "-c", cat, "--units", "us"]);
+    let (out, _) = text(&o);
+    assert!(out.contains(&us), "{out}");
+}

@@ -1,10 +1,13 @@
 //! Reading catalogue files: headers, chunked records for parallel scans,
-//! and whole-file validation that reports every bad row.
+//! whole-file validation that reports every bad row, and the listing of a
+//! catalogue with its computed properties.
 
 use super::records::{Block, Blocks, ReadError, Records};
-use super::{Materials, Schema, parse_row};
+use super::{CellError, Materials, Schema, parse_row};
 use crate::check::Material;
 use crate::error::{Error, Location, Result};
+use crate::section::{Properties, Shape};
+use serde::Serialize;
 use std::io::Read;
 
 /// Options for reading a catalogue.
@@ -166,6 +169,14 @@ pub struct Validation {
 pub const MAX_LISTED: usize = 10_000;
 
 impl Validation {
+    /// Every problem found, listed or not.
+    pub fn problems(&self) -> u64 {
+        self.errors.len() as u64 + self.unlisted
+    }
+    /// Rows read that have a problem.
+    pub fn bad_rows(&self) -> u64 {
+        self.rows - self.good
+    }
     /// List a problem, or count it beyond [`MAX_LISTED`].
     fn push(&mut self, e: Error) {
         if self.errors.len() < MAX_LISTED {
@@ -174,6 +185,16 @@ impl Validation {
             self.unlisted += 1;
         }
     }
+}
+
+/// The problem of a row that does not read, at its line and column.
+fn row_error(file: &str, line: u64, e: CellError) -> Error {
+    Error::input(
+        Location::in_file(file)
+            .with_line(line)
+            .with_column(e.column as u64),
+        e.message,
+    )
 }
 
 /// Validate every row; report all problems (bad rows, duplicate names).
@@ -241,12 +262,7 @@ pub fn validate<R: Read>(
                         v.good += 1;
                     }
                 }
-                Err(e) => v.push(Error::input(
-                    Location::in_file(&cat.file)
-                        .with_line(line)
-                        .with_column(e.column as u64),
-                    e.message,
-                )),
+                Err(e) => v.push(row_error(&cat.file, line, e)),
             }
         }
     }
@@ -257,4 +273,58 @@ pub fn validate<R: Read>(
         ));
     }
     Ok(v)
+}
+
+/// One row of a listing: the row as read, with its computed properties.
+#[derive(Debug, Serialize)]
+pub struct Listed {
+    pub line: u64,
+    pub name: String,
+    pub shape: Option<Shape>,
+    pub grade: String,
+    pub properties: Properties,
+    /// kg/m (NaN when the row gives no mass and no density is known).
+    pub mass_per_length: f64,
+    pub cost_per_mm: Option<f64>,
+    pub stock: Option<bool>,
+}
+
+/// A catalogue listed: every row that reads, in file order, and the
+/// problems of the rows that do not.
+#[derive(Debug, Serialize)]
+pub struct Listing {
+    pub file: String,
+    pub rows: Vec<Listed>,
+    pub problems: Vec<String>,
+}
+
+/// List every row of a catalogue with its properties (a reading error
+/// stops the listing; a bad row is a problem and the listing goes on).
+pub fn list<R: Read>(mut cat: Catalog<R>, mats: &Materials<'_>) -> Result<Listing> {
+    let mut out = Listing {
+        file: cat.file.clone(),
+        rows: Vec::new(),
+        problems: Vec::new(),
+    };
+    let mut chunk = Chunk::default();
+    while cat.next_chunk(&mut chunk)? > 0 {
+        for rec in chunk.records.iter() {
+            match parse_row(&cat.schema, &rec, mats) {
+                Ok(r) => out.rows.push(Listed {
+                    line: rec.line(),
+                    name: r.name.to_string(),
+                    shape: r.shape,
+                    grade: r.grade.to_string(),
+                    properties: r.props,
+                    mass_per_length: r.mass,
+                    cost_per_mm: r.cost,
+                    stock: r.stock,
+                }),
+                Err(e) => out
+                    .problems
+                    .push(row_error(&cat.file, rec.line(), e).to_string()),
+            }
+        }
+    }
+    Ok(out)
 }

@@ -2,14 +2,14 @@
 
 use super::Out;
 use super::output::emit;
-use beamsift::catalog::read::{self, Chunk, ReadOptions};
-use beamsift::catalog::{Materials, parse_row};
+use beamsift::catalog::Materials;
+use beamsift::catalog::read::{self, ReadOptions};
 use beamsift::check::Material;
 use beamsift::error::{Error, Result};
 use beamsift::job;
-use beamsift::report::{self, Align, Document, Format, Table};
-use beamsift::units::{self, Dim, Show};
-use serde::Serialize;
+use beamsift::report::catalog::{ValidateResult, show_document, validate_document};
+use beamsift::report::{self, Format};
+use beamsift::units::{self, Dim};
 use std::path::PathBuf;
 
 #[derive(clap::Subcommand, Debug)]
@@ -235,17 +235,6 @@ fn open(a: &FileArgs) -> Result<read::Catalog<Box<dyn std::io::Read + Send>>> {
     )
 }
 
-#[derive(Serialize)]
-struct ValidateResult {
-    file: String,
-    rows: u64,
-    good: u64,
-    problems: Vec<String>,
-    /// Problems beyond those listed.
-    unlisted: u64,
-    caution: &'static str,
-}
-
 pub fn run(cmd: Cmd, out: &Out) -> Result<i32> {
     match cmd {
         Cmd::Validate(a) => {
@@ -253,137 +242,23 @@ pub fn run(cmd: Cmd, out: &Out) -> Result<i32> {
             let cat = open(&a)?;
             let file = cat.file.clone();
             let v = read::validate(cat, &base, &grades, have_job)?;
-            let problems: Vec<String> = v.errors.iter().map(|e| e.to_string()).collect();
-            let result = ValidateResult {
-                file: file.clone(),
-                rows: v.rows,
-                good: v.good,
-                problems: problems.clone(),
-                unlisted: v.unlisted,
-                caution: beamsift::report::CAUTION,
-            };
-            let mut doc = Document::new(format!("Catalogue {file}"));
-            if problems.is_empty() {
-                doc.para(format!("{} row(s), all valid.", v.rows));
-            } else {
-                let total = problems.len() as u64 + v.unlisted;
-                let head = if v.unlisted > 0 {
-                    format!("{total} problem(s), the first {} listed:", problems.len())
-                } else {
-                    format!("{total} problem(s):")
-                };
-                doc.list(head, problems.clone());
-                doc.para(format!(
-                    "{} row(s) read, {} valid, {} with problems.",
-                    v.rows,
-                    v.good,
-                    v.rows - v.good
-                ));
-            }
-            if !have_job {
-                doc.para("No --job given: grades were not looked up and masses were not compared with A·ρ.");
-            }
-            doc.para("A valid row is well-formed and self-consistent; whether its values are those of the real section is for the user to check.");
-            doc.para(beamsift::report::CAUTION);
+            let result = ValidateResult::new(file, &v);
+            let doc = validate_document(&result, have_job);
             emit(out, &report::render(out.format, &result, &doc))?;
-            if problems.is_empty() {
-                Ok(0)
-            } else {
-                // Print the list, then exit as bad input.
-                Ok(2)
-            }
+            // Print the list, then exit as bad input.
+            Ok(if result.valid() { 0 } else { 2 })
         }
         Cmd::Generate(a) => generate(*a, out),
         Cmd::Show(a) => {
             let (base, grades, _) = materials(&a)?;
-            let mut cat = open(&a)?;
             let mats = Materials {
                 base: &base,
                 grades: &grades,
             };
-            let sys = out.units;
-            let mut t = Table::new(
-                "",
-                &[
-                    ("Line", Align::Right),
-                    ("Name", Align::Left),
-                    ("Shape", Align::Left),
-                    ("Grade", Align::Left),
-                    (&format!("d [{}]", Show::Dimension.label(sys)), Align::Right),
-                    (&format!("A [{}]", Show::Area.label(sys)), Align::Right),
-                    (
-                        &format!("Ix [{}]", Show::SecondMoment.label(sys)),
-                        Align::Right,
-                    ),
-                    (
-                        &format!("S_top [{}]", Show::SectionModulus.label(sys)),
-                        Align::Right,
-                    ),
-                    (
-                        &format!("S_bot [{}]", Show::SectionModulus.label(sys)),
-                        Align::Right,
-                    ),
-                    (&format!("Mass [{}]", Show::Mass.label(sys)), Align::Right),
-                ],
-            );
-            let mut rows_json = Vec::new();
-            let mut chunk = Chunk::default();
-            let mut errors = Vec::new();
-            loop {
-                let n = cat.next_chunk(&mut chunk)?;
-                if n == 0 {
-                    break;
-                }
-                for rec in chunk.records.iter() {
-                    match parse_row(&cat.schema, &rec, &mats) {
-                        Ok(r) => {
-                            t.row(vec![
-                                rec.line().to_string(),
-                                r.name.to_string(),
-                                r.shape
-                                    .as_ref()
-                                    .map(|s| s.family().to_string())
-                                    .unwrap_or_else(|| "given".into()),
-                                r.grade.to_string(),
-                                Show::Dimension.num(r.props.depth, sys),
-                                Show::Area.num(r.props.area, sys),
-                                Show::SecondMoment.num(r.props.ix, sys),
-                                Show::SectionModulus.num(r.props.s_top, sys),
-                                Show::SectionModulus.num(r.props.s_bot, sys),
-                                if r.mass.is_finite() {
-                                    Show::Mass.num(r.mass, sys)
-                                } else {
-                                    "—".into()
-                                },
-                            ]);
-                            rows_json.push(serde_json::json!({
-                                "line": rec.line(), "name": r.name, "shape": r.shape, "grade": r.grade,
-                                "properties": r.props, "mass_per_length": r.mass, "cost_per_mm": r.cost, "stock": r.stock
-                            }));
-                        }
-                        Err(e) => errors.push(
-                            Error::input(
-                                beamsift::error::Location::in_file(&cat.file)
-                                    .with_line(rec.line())
-                                    .with_column(e.column as u64),
-                                e.message,
-                            )
-                            .to_string(),
-                        ),
-                    }
-                }
-            }
-            let mut doc = Document::new(format!("Catalogue {}", cat.file));
-            doc.table(t);
-            if !errors.is_empty() {
-                doc.list("Rows with problems (not shown):", errors.clone());
-            }
-            doc.para("Properties computed from the dimensions unless the row gives them; check them before trusting a run.");
-            doc.para(beamsift::report::CAUTION);
-            let result =
-                serde_json::json!({ "file": cat.file, "rows": rows_json, "problems": errors });
+            let result = read::list(open(&a)?, &mats)?;
+            let doc = show_document(&result, out.units);
             emit(out, &report::render(out.format, &result, &doc))?;
-            Ok(if errors.is_empty() { 0 } else { 2 })
+            Ok(if result.problems.is_empty() { 0 } else { 2 })
         }
     }
 }

@@ -6,10 +6,11 @@ use super::jobargs::JobArgs;
 use super::output::emit;
 use beamsift::check::Prepared;
 use beamsift::error::{Error, Result};
-use beamsift::optimise::discrete::{self, GridOptions};
-use beamsift::optimise::{self, Axis, Family, Objective, Problem, Study, StudyOptions, Variant};
-use beamsift::report::{self, Align, Document, Table};
-use beamsift::units::{self, Dim, Show, System};
+use beamsift::optimise::discrete::GridOptions;
+use beamsift::optimise::{self, Axis, Family, Objective, Problem, StudyOptions};
+use beamsift::report;
+use beamsift::report::optimise::{LimitSource, document};
+use beamsift::units::{self, Dim};
 
 pub const EXAMPLES: &str = "Examples:
   beamsift optimise --job catalogs/demo-joists.toml rect --aspect 4 --b-sizes 38,47,63,75mm --d-sizes 100,125,150,175,200,225,250,300mm
@@ -156,14 +157,6 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         Some(fy) => optimise::default_slenderness(fam, job.material.e, fy),
         None => (None, None),
     };
-    let mut notes = Vec::new();
-    let limits = fam.kind().limits();
-    if job.material.fy.is_none()
-        && (limits.flange || limits.web)
-        && (a.lambda_f.is_none() || a.lambda_w.is_none())
-    {
-        notes.push("no yield stress Fy in the job: no default slenderness limits were applied (give --lambda-f and --lambda-w)".to_string());
-    }
     let plates = units::parse_list(
         a.plates
             .as_deref()
@@ -241,178 +234,13 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         units: sys,
     };
     let result = optimise::study(&job.title, &prob, &prep, &opts)?;
-    let doc = document(&result, &a, notes, sys);
+    let source = LimitSource {
+        flange_given: a.lambda_f.is_some(),
+        web_given: a.lambda_w.is_some(),
+        compact: a.compact,
+        yield_stress_known: job.material.fy.is_some(),
+    };
+    let doc = document(&result, &source, sys);
     emit(out, &report::render(out.format, &result, &doc))?;
     Ok(0)
-}
-
-/// The study as a document: its fields in tables and sentences.
-fn document(result: &Study, a: &Args, notes: Vec<String>, sys: System) -> Document {
-    let prob = &result.problem;
-    let fam = prob.family;
-    let vars = fam.variables();
-    let mut doc = Document::new(format!(
-        "Optimised {} for {}",
-        fam.kind().name(),
-        result.title
-    ));
-    let mut pt = Table::new("Problem", &[("Item", Align::Left), ("Value", Align::Left)]);
-    pt.row(vec!["Minimise".into(), prob.objective.noun().into()]);
-    for (v, (lo, hi)) in vars.iter().zip(&prob.bounds) {
-        pt.row(vec![
-            format!("Bounds on {v}"),
-            format!(
-                "{} to {}",
-                Show::Dimension.fmt(*lo, sys),
-                Show::Dimension.fmt(*hi, sys)
-            ),
-        ]);
-    }
-    if let Some(d) = prob.max_depth {
-        pt.row(vec!["Maximum depth".into(), Show::Dimension.fmt(d, sys)]);
-    }
-    if let Some(d) = prob.min_depth {
-        pt.row(vec!["Minimum depth".into(), Show::Dimension.fmt(d, sys)]);
-    }
-    if let Some(k) = prob.aspect {
-        pt.row(vec!["Largest d/b".into(), units::fmt_num(k)]);
-    }
-    if let Some(l) = prob.lambda_f {
-        pt.row(vec![
-            "Flange limit bf/(2·tf)".into(),
-            format!(
-                "{l:.2}{}",
-                if a.lambda_f.is_some() {
-                    " (as given)"
-                } else if a.compact {
-                    " (compact, AISC 360-16 Table B4.1b λp = 0.38√(E/Fy))"
-                } else {
-                    ""
-                }
-            ),
-        ]);
-    }
-    if let Some(l) = prob.lambda_w {
-        let (label, basis) = fam.kind().limits().web_words;
-        pt.row(vec![
-            label.to_string(),
-            format!(
-                "{l:.2}{}",
-                if a.lambda_w.is_some() {
-                    " (as given)"
-                } else if a.compact {
-                    " (compact, AISC 360-16 Table B4.1b λp)"
-                } else {
-                    basis
-                }
-            ),
-        ]);
-    }
-    doc.table(pt);
-    let mut t = Table::new(
-        "Optima",
-        &[
-            ("", Align::Left),
-            ("Continuous", Align::Right),
-            ("Fabrication sizes", Align::Right),
-        ],
-    );
-    for (i, v) in vars.iter().enumerate() {
-        t.row(vec![
-            format!("{v} [{}]", Show::Dimension.label(sys)),
-            Show::Dimension.fixed(result.continuous.x[i].1, sys, 1),
-            Show::Dimension.num(result.discrete.x[i].1, sys),
-        ]);
-    }
-    t.row(vec![
-        format!("Area [{}]", Show::Area.label(sys)),
-        Show::Area.num(result.continuous.area, sys),
-        Show::Area.num(result.discrete.area, sys),
-    ]);
-    t.row(vec![
-        format!("Mass [{}]", Show::Mass.label(sys)),
-        Show::Mass.fixed(result.continuous.mass, sys, 2),
-        Show::Mass.fixed(result.discrete.mass, sys, 2),
-    ]);
-    if let (Some(c), Some(d)) = (result.continuous.cost, result.discrete.cost) {
-        t.row(vec![
-            "Cost [per m]".into(),
-            format!("{:.2}", c * 1000.0),
-            format!("{:.2}", d * 1000.0),
-        ]);
-    }
-    let mut names: Vec<String> = result
-        .continuous
-        .by_check
-        .iter()
-        .map(|(k, _)| k.clone())
-        .collect();
-    for (k, _) in &result.discrete.by_check {
-        if !names.contains(k) {
-            names.push(k.clone());
-        }
-    }
-    for k in names {
-        let get = |v: &Variant| {
-            v.by_check
-                .iter()
-                .find(|(n, _)| *n == k)
-                .map(|(_, u)| format!("{u:.3}"))
-                .unwrap_or_default()
-        };
-        t.row(vec![
-            format!("Utilisation, {k}"),
-            get(&result.continuous),
-            get(&result.discrete),
-        ]);
-    }
-    doc.table(t);
-    doc.para(format!(
-        "Fabrication sizes: {} — {}; it is {:.1} % above the continuous optimum in {}. Governing: {}.",
-        result.discrete.description,
-        if result.whole_grid {
-            format!(
-                "the optimum of all {} grid points (visited in order of {}; {} checked before the first that passes)",
-                units::count(result.grid_points),
-                prob.objective.noun(),
-                units::count(result.grid_points_checked)
-            )
-        } else {
-            format!(
-                "the best of {} grid points searched — the whole of a coarser sub-grid of it, then a window around the continuous optimum (the grid has {}, more than the {} searched exhaustively: at most {:.1} % above the grid optimum)",
-                units::count(result.grid_points_checked),
-                units::count(result.grid_points),
-                units::count(discrete::EXHAUSTIVE_POINTS as u64),
-                100.0 * result.gap_bound.unwrap_or(f64::NAN)
-            )
-        },
-        100.0 * result.gap,
-        prob.objective.noun(),
-        result.discrete.governing.clone().unwrap_or_default()
-    ));
-    if !result.active.is_empty() {
-        doc.list(
-            "Active (binding) constraints at the continuous optimum:",
-            result.active.clone(),
-        );
-    }
-    if !result.sensitivities.is_empty() {
-        doc.list(
-            "What the binding limits cost (re-optimised):",
-            result
-                .sensitivities
-                .iter()
-                .map(|s| s.words.clone())
-                .collect(),
-        );
-    }
-    doc.excluded(result.excluded.clone());
-    doc.assumptions(result.assumptions.clone());
-    if !notes.is_empty() {
-        doc.list("Notes:", notes);
-    }
-    let mut nc = result.not_checked.clone();
-    nc.push("welds between plates, stiffeners, and local buckling beyond the slenderness limits stated above".into());
-    doc.caution(nc);
-    doc
 }

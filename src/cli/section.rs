@@ -2,11 +2,10 @@
 
 use super::Out;
 use super::output::emit;
-use beamsift::report::{self, Align, Document, Table};
-use beamsift::section::spec::{FAMILIES, shape_from_pairs, split_pairs};
-use beamsift::section::{Properties, Shape};
-use beamsift::units::{self, Dim, Show};
-use serde::Serialize;
+use beamsift::report;
+use beamsift::report::section::{SectionResult, document};
+use beamsift::section::spec::{shape_from_pairs, split_pairs};
+use beamsift::units::{self, Dim};
 
 pub const EXAMPLES: &str = "Examples:
   beamsift section welded-i bf=300mm tf=20mm hw=800mm tw=10mm
@@ -35,18 +34,6 @@ pub struct Args {
     pub density: Option<String>,
 }
 
-#[derive(Serialize)]
-struct SectionResult {
-    shape: Shape,
-    properties: Properties,
-    /// kg/m, when a density was given.
-    mass_per_length: Option<f64>,
-    /// kg/m³.
-    density: Option<f64>,
-    units: &'static str,
-    caution: &'static str,
-}
-
 pub fn run(a: Args, out: &Out) -> beamsift::Result<i32> {
     let pairs = split_pairs(&a.dims)?;
     let shape = shape_from_pairs(&a.shape, &pairs)?;
@@ -60,67 +47,8 @@ pub fn run(a: Args, out: &Out) -> beamsift::Result<i32> {
     {
         return Err(beamsift::Error::msg("--density must be greater than zero"));
     }
-    let props = shape.properties()?;
-    let result = SectionResult {
-        mass_per_length: density.map(|d| props.mass_per_length(d)),
-        density,
-        shape,
-        properties: props,
-        units: "internal: mm, mm², mm³, mm⁴, mm⁶, kg/m, kg/m³",
-        caution: report::CAUTION,
-    };
-    let doc = document(&result, out);
+    let result = SectionResult::new(shape, density)?;
+    let doc = document(&result, out.units);
     emit(out, &report::render(out.format, &result, &doc))?;
     Ok(0)
-}
-
-fn document(r: &SectionResult, out: &Out) -> Document {
-    let sys = out.units;
-    let mut doc = Document::new(format!("Section {}", r.shape.describe(sys)));
-    let mut t = Table::new(
-        "",
-        &[
-            ("Property", Align::Left),
-            ("Value", Align::Right),
-            ("Unit", Align::Left),
-        ],
-    );
-    for (label, v, kind) in r.properties.rows() {
-        t.row(vec![label.into(), kind.num(v, sys), kind.label(sys).into()]);
-    }
-    if let (Some(m), Some(rho)) = (r.mass_per_length, r.density) {
-        t.row(vec![
-            format!("Mass per length (ρ = {})", Show::Density.fmt(rho, sys)),
-            Show::Mass.num(m, sys),
-            Show::Mass.label(sys).into(),
-        ]);
-    }
-    doc.table(t);
-    let mut notes =
-        vec!["Bending about the horizontal axis; y measured up from the bottom fibre.".to_string()];
-    if matches!(r.shape, Shape::RolledI { .. }) {
-        notes.push(
-            "Root fillets are included in A, Ix, Iy, Zx, Zy and Q; J by El Darwish & Johnston (1965) with the fillets (within 1 % of a finite-element value for an IPE 300); Cw = Iy,flanges·h0²/2, as section tables compute it."
-                .into(),
-        );
-    }
-    if matches!(r.shape, Shape::Rhs { .. }) {
-        notes.push("Cw of a hollow rectangle: the thin-walled box approximation t·bm²·hm²·(bm − hm)²/(24(bm + hm)) on the mid-line (small for closed sections).".into());
-    }
-    if matches!(r.shape, Shape::Rect { .. }) {
-        notes.push(
-            "Cw of a solid rectangle: the exact series of the Saint-Venant warping function."
-                .into(),
-        );
-    }
-    if matches!(r.shape, Shape::WeldedI { .. } | Shape::MonoI { .. }) {
-        notes.push("Plates only: weld fillets are ignored; J includes the junction correction of El Darwish & Johnston (1965).".into());
-    }
-    doc.list("Notes:", notes);
-    doc.caution(vec![
-        "strength, stability or serviceability of any member (this command reports geometry only)"
-            .into(),
-    ]);
-    let _ = FAMILIES;
-    doc
 }

@@ -80,7 +80,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     };
     let (sel, cur) = run_scan(&job, &prep, &a.cat, &opts)?;
     let sys = out.units;
-    let result = SelectResult::new(&job, &prep, &sel, a.rank, cur);
+    let result = SelectResult::new(&job, &prep, &sel, a.rank, cur, sys);
     let sheet_line = match &a.report {
         None => None,
         Some(prefix) => Some(match sel.lists[0].items.iter().find(|c| c.passes) {
@@ -144,7 +144,7 @@ pub fn run_shortlist(a: ShortlistArgs, out: &Out) -> Result<i32> {
         ..ScanOptions::default()
     };
     let (sel, cur) = run_scan(&job, &prep, &a.cat, &opts)?;
-    let result = ShortlistResult::new(&job, &prep, &sel, a.count, length, cur);
+    let result = ShortlistResult::new(&job, &prep, &sel, a.count, length, cur, out.units);
     let doc = shortlist_document(&result, &prep, &sel, out.units, a.cat.skip_bad_rows);
     emit(out, &report::render(out.format, &result, &doc))?;
     Ok(if result.by_mass.is_empty() {

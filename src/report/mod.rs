@@ -5,13 +5,17 @@
 pub mod analysis;
 pub mod batch;
 pub mod calc;
+pub mod catalog;
 pub mod chart;
 pub mod csv_out;
 pub mod html;
 pub mod markdown;
 pub mod member;
+pub mod optimise;
+pub mod section;
 pub mod select;
 pub mod sheet;
+pub mod sweep;
 pub mod text;
 
 use serde::Serialize;

@@ -42,7 +42,9 @@ pub struct SelectResult<'a> {
     pub caution: &'static str,
 }
 
-pub fn ranked(prep: &Prepared, sel: &Selection, list: &[Candidate]) -> Vec<RankedRow> {
+/// The rows of a list, ranked, with where each is governed (a position in
+/// the display units, as every other position).
+pub fn ranked(prep: &Prepared, sel: &Selection, list: &[Candidate], sys: System) -> Vec<RankedRow> {
     list.iter()
         .enumerate()
         .map(|(i, c)| {
@@ -50,7 +52,11 @@ pub fn ranked(prep: &Prepared, sel: &Selection, list: &[Candidate]) -> Vec<Ranke
                 Some(g) => (
                     g.kind.short().to_string(),
                     prep.demand.combos[g.combo].name.clone(),
-                    format!("{}, {}", member::part_of(prep, g), format_x(g.x)),
+                    format!(
+                        "{}, x = {}",
+                        member::part_of(prep, g),
+                        Show::Span.fmt(g.x, sys)
+                    ),
                 ),
                 None => (String::new(), String::new(), String::new()),
             };
@@ -65,10 +71,6 @@ pub fn ranked(prep: &Prepared, sel: &Selection, list: &[Candidate]) -> Vec<Ranke
             }
         })
         .collect()
-}
-
-fn format_x(x: f64) -> String {
-    format!("x = {} m", units::fmt_num(x / 1000.0))
 }
 
 fn row_cells(r: &RankedRow, sys: System, legend: &mut Legend) -> Vec<String> {
@@ -263,14 +265,15 @@ impl<'a> SelectResult<'a> {
         sel: &'a Selection,
         rank: Rank,
         currency: String,
+        sys: System,
     ) -> SelectResult<'a> {
         SelectResult {
             title: job.title.clone(),
             rank,
-            passing: ranked(prep, sel, &sel.lists[0].items),
-            pareto: ranked(prep, sel, &sel.pareto),
-            near_misses: ranked(prep, sel, &sel.near_misses.items),
-            not_verified: ranked(prep, sel, &sel.unverified.items),
+            passing: ranked(prep, sel, &sel.lists[0].items, sys),
+            pareto: ranked(prep, sel, &sel.pareto, sys),
+            near_misses: ranked(prep, sel, &sel.near_misses.items, sys),
+            not_verified: ranked(prep, sel, &sel.unverified.items, sys),
             counts: &sel.counts,
             skipped_rows: &sel.skipped,
             currency,
@@ -410,10 +413,11 @@ impl ShortlistResult {
         count: u32,
         length: f64,
         currency: String,
+        sys: System,
     ) -> ShortlistResult {
         let total_len = length * count as f64;
         let priced = |list: &[Candidate]| -> Vec<PricedRow> {
-            ranked(prep, sel, list)
+            ranked(prep, sel, list, sys)
                 .into_iter()
                 .map(|r| PricedRow {
                     total_length: total_len,
@@ -519,7 +523,7 @@ pub fn shortlist_document(
     if result.by_mass.is_empty() {
         doc.para("No section passes: run `beamsift select` to see the nearest misses.");
     }
-    let unverified = ranked(prep, sel, &sel.unverified.items);
+    let unverified = ranked(prep, sel, &sel.unverified.items, sys);
     if !unverified.is_empty() {
         not_verified_table(&mut doc, &unverified, sys);
     }

@@ -44,6 +44,44 @@ pub fn at_span(beam: &Beam, span: f64) -> Beam {
     beam.scaled(span / reference_span(beam))
 }
 
+/// The job prepared at each span of a sweep: its geometry scaled so the
+/// longest span is each value ([`at_span`]), load intensities as given.
+pub fn prepared_by_span(
+    beam: &Beam,
+    material: &Material,
+    criteria: &Criteria,
+    spans: &[f64],
+) -> Result<Vec<Prepared>> {
+    spans
+        .iter()
+        .map(|&s| Prepared::new(&at_span(beam, s), material.clone(), criteria.clone()))
+        .collect()
+}
+
+/// A column of a span table: what changes the job's loads.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum Column {
+    /// The job as given.
+    AsGiven,
+    /// The tributary width of the job's area loads, mm.
+    Spacing(f64),
+    /// The pressure of the job's live area loads, N/mm².
+    LivePressure(f64),
+}
+
+impl Column {
+    /// The beam of this column; None when the job has no load the column
+    /// sets (no area loads for a spacing, no live area loads for a
+    /// pressure).
+    pub fn beam(self, beam: &Beam) -> Option<Beam> {
+        match self {
+            Column::AsGiven => Some(beam.clone()),
+            Column::Spacing(w) => beam.with_spacing(w),
+            Column::LivePressure(p) => beam.with_live_pressure(p),
+        }
+    }
+}
+
 /// Spans from start to end (inclusive) by step.
 pub fn span_range(start: f64, end: f64, step: f64) -> Result<Vec<f64>> {
     if !(start > 0.0 && end >= start && step > 0.0) {
