@@ -90,6 +90,7 @@ pub mod beam;
 pub mod catalog;
 pub mod check;
 pub mod error;
+pub mod files;
 pub mod job;
 pub mod member;
 pub mod optimise;

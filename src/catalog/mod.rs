@@ -15,8 +15,10 @@
 //! One file per concern: the header (`schema.rs`), number cells
 //! (`number.rs`), the row and its cells (`row.rs`), the shape and its
 //! properties (`shape.rs`), the row's material (`material.rs`).
+//! Naming and holding inputs (streams read once) is in `input.rs`.
 
 pub mod generate;
+pub mod input;
 mod material;
 mod number;
 pub mod read;

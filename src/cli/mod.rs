@@ -6,7 +6,6 @@ mod batch;
 mod catalog;
 mod catargs;
 mod check;
-mod files;
 mod jobargs;
 mod optimise;
 mod output;
@@ -18,6 +17,7 @@ mod sweep;
 mod values;
 
 use beamsift::Error;
+use beamsift::files;
 use beamsift::report::Format;
 use beamsift::units::System;
 use clap::{Parser, Subcommand};
@@ -32,6 +32,8 @@ pub const EXIT_INPUT: i32 = 2;
 pub const EXIT_IO: i32 = 3;
 /// Exit code for a bug (a panic or a broken invariant).
 pub const EXIT_INTERNAL: i32 = 4;
+/// Exit code after an interrupting signal (128 + SIGINT, by convention).
+pub const EXIT_SIGNAL: i32 = 130;
 /// Exit code when a checked section is not verified: nothing evaluated
 /// fails, but a limit state that applies could not be evaluated.
 pub const EXIT_NOT_VERIFIED: i32 = 5;
@@ -110,7 +112,12 @@ pub fn main() -> i32 {
             "beamsift: internal error (please report it, with the command and input): {info}"
         );
     }));
-    files::install_signal_cleanup();
+    // An interrupted run removes its temporary files and writes nothing.
+    let _ = ctrlc::set_handler(|| {
+        files::remove_temporaries();
+        eprintln!("beamsift: interrupted; no output was written");
+        std::process::exit(EXIT_SIGNAL);
+    });
     let cli = Cli::parse();
     let outcome = std::panic::catch_unwind(std::panic::AssertUnwindSafe(|| run(cli)));
     let Ok(outcome) = outcome else {

@@ -1,4 +1,5 @@
-//! What a command reads and writes, and writing it safely.
+//! What a command reads and writes, and writing it safely: I/O for any
+//! front end (outside the I/O-free core).
 //!
 //! Every command names its inputs and outputs from its parsed arguments
 //! (never by re-reading the command line). Before any work starts, each
@@ -17,7 +18,7 @@
 //! written through to its target. Temporary files are removed on an error,
 //! a panic, and on SIGINT, SIGTERM or SIGHUP.
 
-use beamsift::{Error, Result};
+use crate::{Error, Result};
 use std::io::Write;
 use std::path::{Path, PathBuf};
 use std::sync::Mutex;
@@ -28,20 +29,14 @@ static LIVE: Mutex<Vec<PathBuf>> = Mutex::new(Vec::new());
 /// Outputs waiting for the end of the run: (target, bytes).
 static PENDING: Mutex<Vec<(PathBuf, Vec<u8>)>> = Mutex::new(Vec::new());
 
-/// Exit code after an interrupting signal (128 + SIGINT, by convention).
-pub const EXIT_SIGNAL: i32 = 130;
-
-/// Install the signal handler that removes temporary files.
-pub fn install_signal_cleanup() {
-    let _ = ctrlc::set_handler(|| {
-        if let Ok(live) = LIVE.lock() {
-            for p in live.iter() {
-                let _ = std::fs::remove_file(p);
-            }
+/// Remove every temporary file alive now (for a front end's signal
+/// handler: an interrupted run leaves nothing behind).
+pub fn remove_temporaries() {
+    if let Ok(live) = LIVE.lock() {
+        for p in live.iter() {
+            let _ = std::fs::remove_file(p);
         }
-        eprintln!("beamsift: interrupted; no output was written");
-        std::process::exit(EXIT_SIGNAL);
-    });
+    }
 }
 
 fn register(p: &Path) {
