@@ -328,3 +328,46 @@ fn select_where_follows_the_units() {
     let (out, _) = text(&o);
     assert!(out.contains(&us), "{out}");
 }
+
+/// A name that looks like a grouped number stays text in CSV output
+/// (RFC 4180: a field with a comma is quoted, not altered); only numeric
+/// columns lose their thousands separators.
+#[test]
+fn csv_keeps_names_that_look_like_numbers() {
+    let dir = tempfile::tempdir().unwrap();
+    let cat = dir.path().join("stock.csv");
+    std::fs::write(
+        &cat,
+        "# invented test rows (IPE 300 dimensions, from memory)\n\
+         name,shape,d [mm],bf [mm],tf [mm],tw [mm],r [mm]\n\
+         \"1,250\",rolled-i,300,150,10.7,7.1,15\n",
+    )
+    .unwrap();
+    let job = repo("catalogs/demo-job.toml");
+    let o = run(&[
+        "select",
+        "--job",
+        job.to_str().unwrap(),
+        "-c",
+        cat.to_str().unwrap(),
+        "--format",
+        "csv",
+    ]);
+    let (out, err) = text(&o);
+    assert!(o.status.code().is_some_and(|c| c <= 1), "{err}");
+    // The ranked table: passing sections, or the nearest misses.
+    let table: String = out
+        .lines()
+        .skip_while(|l| !(l.starts_with("# Passing") || l.starts_with("# Nearest")))
+        .skip(1)
+        .take_while(|l| !l.is_empty())
+        .map(|l| format!("{l}\n"))
+        .collect();
+    let mut r = csv::ReaderBuilder::new()
+        .flexible(true)
+        .from_reader(table.as_bytes());
+    let headers = r.headers().unwrap().clone();
+    let col = headers.iter().position(|h| h == "Section").unwrap();
+    let row = r.records().next().unwrap().unwrap();
+    assert_eq!(&row[col], "1,250", "{out}");
+}

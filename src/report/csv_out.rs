@@ -5,9 +5,10 @@
 //! (beamsift's own CSV reader skips lines starting with '#').
 //!
 //! Cells are written by `csv::Writer` (quoted wherever a comma, quote,
-//! carriage return or newline needs it). A number shown with thousands
-//! separators (`12,345.6`) loses them so a spreadsheet reads a number;
-//! nothing else is changed.
+//! carriage return or newline needs it). In a numeric (right-aligned)
+//! column a number shown with thousands separators (`12,345.6`) loses
+//! them so a spreadsheet reads a number; text columns (names, marks) are
+//! written exactly as they are, commas included.
 
 use super::{Block, Document};
 
@@ -31,8 +32,12 @@ fn grouped_number(s: &str) -> Option<String> {
     Some(s.replace(',', ""))
 }
 
-fn cell(s: &str) -> String {
-    grouped_number(s).unwrap_or_else(|| s.to_string())
+fn cell(s: &str, numeric: bool) -> String {
+    if numeric {
+        grouped_number(s).unwrap_or_else(|| s.to_string())
+    } else {
+        s.to_string()
+    }
 }
 
 /// One comment line (line breaks inside folded into spaces).
@@ -56,9 +61,10 @@ pub fn render(doc: &Document) -> String {
                 .terminator(csv::Terminator::Any(b'\n'))
                 .flexible(true)
                 .from_writer(Vec::new());
-            let _ = w.write_record(t.headers.iter().map(|h| cell(h)));
+            let numeric = |i: usize| t.align.get(i) == Some(&super::Align::Right);
+            let _ = w.write_record(t.headers.iter());
             for r in &t.rows {
-                let _ = w.write_record(r.iter().map(|c| cell(c)));
+                let _ = w.write_record(r.iter().enumerate().map(|(i, c)| cell(c, numeric(i))));
             }
             if let Ok(bytes) = w.into_inner() {
                 out.push_str(&String::from_utf8_lossy(&bytes));

@@ -1,0 +1,140 @@
+//! The layers of DEVELOPERS.md hold: the core (units, section, beam,
+//! check) does no I/O and imports nothing above it, the library knows no
+//! command line, and no command file imports another. Read from the
+//! source, so a change that breaks a layer fails here, by name.
+
+use std::path::{Path, PathBuf};
+
+fn files(dir: &Path, out: &mut Vec<PathBuf>) {
+    for e in std::fs::read_dir(dir).unwrap() {
+        let p = e.unwrap().path();
+        if p.is_dir() {
+            files(&p, out);
+        } else if p.extension().is_some_and(|x| x == "rs") {
+            out.push(p);
+        }
+    }
+}
+
+fn src(rel: &str) -> Vec<(String, String)> {
+    let root = Path::new(env!("CARGO_MANIFEST_DIR")).join("src");
+    let p = root.join(rel);
+    let mut v = Vec::new();
+    if p.is_dir() {
+        files(&p, &mut v);
+    } else {
+        v.push(p);
+    }
+    v.into_iter()
+        .map(|p| {
+            let text = std::fs::read_to_string(&p).unwrap();
+            let name = p.strip_prefix(&root).unwrap().display().to_string();
+            // Code only: drop comment lines.
+            let code: String = text
+                .lines()
+                .filter(|l| !l.trim_start().starts_with("//"))
+                .map(|l| format!("{l}\n"))
+                .collect();
+            (name, code)
+        })
+        .collect()
+}
+
+/// Modules above the core.
+const ABOVE_CORE: [&str; 10] = [
+    "job", "catalog", "search", "optimise", "sweep", "report", "member", "files", "cli", "main",
+];
+
+#[test]
+fn the_core_imports_nothing_above_it_and_does_no_io() {
+    let mut problems = Vec::new();
+    for part in ["units.rs", "section", "beam", "check"] {
+        for (name, code) in src(part) {
+            for m in ABOVE_CORE {
+                if code.contains(&format!("crate::{m}::")) || code.contains(&format!("crate::{m};"))
+                {
+                    problems.push(format!("{name} uses crate::{m}"));
+                }
+            }
+            for io in [
+                "std::fs",
+                "std::io::stdin",
+                "std::io::stdout",
+                "println!",
+                "eprintln!",
+                "File::",
+            ] {
+                if code.contains(io) {
+                    problems.push(format!("{name} does I/O ({io})"));
+                }
+            }
+        }
+    }
+    assert!(problems.is_empty(), "{problems:#?}");
+}
+
+#[test]
+fn the_core_layers_import_only_downward() {
+    // units < section < beam < check.
+    let order = ["units", "section", "beam", "check"];
+    let mut problems = Vec::new();
+    for (i, part) in ["units.rs", "section", "beam", "check"].iter().enumerate() {
+        for (name, code) in src(part) {
+            for above in &order[i + 1..] {
+                if code.contains(&format!("crate::{above}::")) {
+                    problems.push(format!("{name} uses crate::{above}"));
+                }
+            }
+        }
+    }
+    assert!(problems.is_empty(), "{problems:#?}");
+}
+
+#[test]
+fn the_library_knows_no_command_line() {
+    let root = Path::new(env!("CARGO_MANIFEST_DIR")).join("src");
+    let mut all = Vec::new();
+    files(&root, &mut all);
+    let mut problems = Vec::new();
+    for p in all {
+        let name = p.strip_prefix(&root).unwrap().display().to_string();
+        if name.starts_with("cli") || name == "main.rs" {
+            continue;
+        }
+        let code = std::fs::read_to_string(&p).unwrap();
+        for word in [
+            "clap",
+            "indicatif",
+            "ctrlc",
+            "std::process::exit",
+            "crate::cli",
+        ] {
+            if code.contains(word) {
+                problems.push(format!("{name} mentions {word}"));
+            }
+        }
+    }
+    assert!(problems.is_empty(), "{problems:#?}");
+}
+
+#[test]
+fn no_command_file_imports_another() {
+    // Shared pieces live in catargs, jobargs, output, progress and values;
+    // a command file (one per command) never reaches into another.
+    let commands = [
+        "analyse", "batch", "catalog", "check", "optimise", "report", "section", "select", "sweep",
+    ];
+    let mut problems = Vec::new();
+    for (name, code) in src("cli") {
+        for c in commands {
+            if name != format!("cli/{c}.rs")
+                && name != "cli/mod.rs"
+                && (code.contains(&format!("super::{c}::"))
+                    || code.contains(&format!("super::{c};")))
+            {
+                problems.push(format!("{name} imports cli::{c}"));
+            }
+        }
+    }
+    assert!(problems.is_empty(), "{problems:#?}");
+}
