@@ -371,3 +371,30 @@ fn csv_keeps_names_that_look_like_numbers() {
     let row = r.records().next().unwrap().unwrap();
     assert_eq!(&row[col], "1,250", "{out}");
 }
+
+/// US span tables label spacings as the trade writes them (common
+/// practice): joists at "16 in" centres, beams at "6 ft" (72 in = 6 ft).
+#[test]
+fn us_spacings_read_in_inches_and_whole_feet() {
+    let job = repo("catalogs/demo-joists.toml");
+    let cat = repo("catalogs/demo-timber.csv");
+    let o = run(&[
+        "sweep",
+        "table",
+        "--job",
+        job.to_str().unwrap(),
+        "-c",
+        cat.to_str().unwrap(),
+        "--spacings",
+        "16,72in",
+        "--units",
+        "us",
+    ]);
+    let (out, err) = text(&o);
+    assert!(o.status.success(), "{err}");
+    assert!(
+        out.contains("16 in centres") && out.contains("6 ft centres"),
+        "{out}"
+    );
+    assert!(!out.contains("72 in centres"), "{out}");
+}

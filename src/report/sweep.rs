@@ -136,11 +136,25 @@ impl LightestResult {
     }
 }
 
+/// A spacing as the trade writes it: mm in SI; in US units inches below
+/// 3 ft (joists at 16 in) and feet from 3 ft when the spacing is a whole
+/// number of feet (beams at 6 ft), inches otherwise.
+fn spacing(w: f64, sys: System) -> String {
+    if sys == System::Us {
+        let inches = w / 25.4;
+        let feet = inches / 12.0;
+        if inches >= 36.0 - 1e-9 && (feet - feet.round()).abs() < 1e-6 {
+            return Show::Span.fmt(w, sys);
+        }
+    }
+    Show::Dimension.fmt(w, sys)
+}
+
 /// The label of a span-table column.
 pub fn column_label(c: Column, sys: System) -> String {
     match c {
         Column::AsGiven => "as in the job".into(),
-        Column::Spacing(w) => format!("{} centres", Show::Dimension.fmt(w, sys)),
+        Column::Spacing(w) => format!("{} centres", spacing(w, sys)),
         Column::LivePressure(p) => format!("live {}", Show::AreaLoad.fmt(p, sys)),
     }
 }
