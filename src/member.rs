@@ -12,7 +12,7 @@ use crate::check::{CheckKind, Item, Material, Prepared, SectionInput, Verdict, w
 use crate::job::Job;
 use crate::report::CAUTION;
 use crate::section::Properties;
-use crate::units::Show;
+use crate::units::{Show, System};
 use serde::Serialize;
 
 /// One check line, with names resolved, in internal units.
@@ -21,8 +21,12 @@ pub struct Line {
     pub check: CheckKind,
     pub label: String,
     pub combination: String,
-    /// Span or overhang label ("span 2"), or the buckling segment.
+    /// Span or overhang label ("span 2"), or the buckling segment (its
+    /// ends in m).
     pub part: String,
+    /// The unbraced segment of a buckling line, mm from the left end.
+    #[serde(skip)]
+    pub segment: Option<(f64, f64)>,
     /// Position from the left end, mm.
     pub x: f64,
     /// The action at x: N·mm (bending, buckling), N (shear), mm (deflection).
@@ -124,20 +128,41 @@ pub fn part_at(prep: &Prepared, x: f64) -> String {
 
 /// The part of the beam a check line is about: a span or overhang, or an
 /// unbraced segment.
-pub fn part_of(prep: &Prepared, it: &Item) -> String {
-    match it.kind {
-        CheckKind::Deflection => prep.demand.stretches[it.part].label.clone(),
-        CheckKind::LateralTorsional if !prep.segments.is_empty() => {
-            let s = &prep.segments[it.part];
-            format!("segment {:.3}–{:.3} m", s.x1 / 1000.0, s.x2 / 1000.0)
+pub fn part_of(prep: &Prepared, it: &Item, sys: System) -> String {
+    match segment_of(prep, it) {
+        Some((x1, x2)) => segment_words(x1, x2, sys),
+        None if it.kind == CheckKind::Deflection => prep.demand.stretches[it.part].label.clone(),
+        None => part_at(prep, it.x),
+    }
+}
+
+/// The unbraced segment a buckling line is about (mm from the left end).
+fn segment_of(prep: &Prepared, it: &Item) -> Option<(f64, f64)> {
+    (it.kind == CheckKind::LateralTorsional && !prep.segments.is_empty()).then(|| {
+        let s = &prep.segments[it.part];
+        (s.x1, s.x2)
+    })
+}
+
+/// "segment 0.000–2.000 m" (feet in US units).
+fn segment_words(x1: f64, x2: f64, sys: System) -> String {
+    let (unit, per) = Show::Span.unit(sys);
+    format!("segment {:.3}–{:.3} {unit}", x1 / per, x2 / per)
+}
+
+impl Line {
+    /// The part in the display units (a segment's ends are positions).
+    pub fn part_shown(&self, sys: System) -> String {
+        match self.segment {
+            Some((x1, x2)) => segment_words(x1, x2, sys),
+            None => self.part.clone(),
         }
-        _ => part_at(prep, it.x),
     }
 }
 
 pub fn line(prep: &Prepared, sec: SectionInput<'_>, it: &Item) -> Line {
     let d = &prep.demand;
-    let part = part_of(prep, it);
+    let part = part_of(prep, it, System::Si);
     let timber = sec.material.unwrap_or(&prep.material).kind == crate::check::MaterialKind::Timber;
     let show = match it.kind {
         CheckKind::Deflection => Show::Deflection,
@@ -147,6 +172,7 @@ pub fn line(prep: &Prepared, sec: SectionInput<'_>, it: &Item) -> Line {
         _ => Show::Stress,
     };
     Line {
+        segment: segment_of(prep, it),
         check: it.kind,
         label: it.kind.label().to_string(),
         combination: d.combos[it.combo].name.clone(),

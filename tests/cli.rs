@@ -398,3 +398,31 @@ fn us_spacings_read_in_inches_and_whole_feet() {
     );
     assert!(!out.contains("72 in centres"), "{out}");
 }
+
+/// Buckling segments are positions too: the demo's 2 m bracing gives the
+/// segment 0–2 m, which is 0–6.562 ft (2 m / 0.3048 m per ft, the 1959
+/// international foot), not metres under --units us.
+#[test]
+fn segment_locations_follow_the_units() {
+    let job = repo("catalogs/demo-job.toml");
+    let args = |u: &'static str| {
+        vec![
+            "check".to_string(),
+            "--job".into(),
+            job.to_string_lossy().to_string(),
+            "--units".into(),
+            u.into(),
+            "rolled-i".into(),
+            "d=330mm".into(),
+            "bf=175mm".into(),
+            "tf=12.7mm".into(),
+            "tw=8.1mm".into(),
+            "r=17mm".into(),
+        ]
+    };
+    let us = text(&run(&args("us"))).0;
+    assert!(us.contains("segment 0.000–6.562 ft"), "{us}");
+    assert!(!us.contains("segment 0.000–2.000 m"), "{us}");
+    let si = text(&run(&args("si"))).0;
+    assert!(si.contains("segment 0.000–2.000 m"), "{si}");
+}

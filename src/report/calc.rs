@@ -68,7 +68,7 @@ pub fn written_checks(r: &MemberCheck, sys: System) -> Vec<WrittenCheck> {
         .iter()
         .map(|l| {
             let location = match l.check {
-                CheckKind::LateralTorsional => l.part.clone(),
+                CheckKind::LateralTorsional => l.part_shown(sys),
                 _ => format!("{}, x = {}", l.part, Show::Span.fmt(l.x, sys)),
             };
             let w = &l.working;

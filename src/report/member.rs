@@ -13,8 +13,8 @@ use crate::job::Job;
 use crate::units::{Show, System};
 
 fn fmt_part(l: &Line, sys: System) -> String {
-    if l.part.starts_with("segment") {
-        l.part.clone()
+    if l.segment.is_some() {
+        l.part_shown(sys)
     } else {
         format!("{}, x = {}", l.part, Show::Span.fmt(l.x, sys))
     }

@@ -54,7 +54,7 @@ pub fn ranked(prep: &Prepared, sel: &Selection, list: &[Candidate], sys: System)
                     prep.demand.combos[g.combo].name.clone(),
                     format!(
                         "{}, x = {}",
-                        member::part_of(prep, g),
+                        member::part_of(prep, g, sys),
                         Show::Span.fmt(g.x, sys)
                     ),
                 ),

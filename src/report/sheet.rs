@@ -156,7 +156,7 @@ pub fn build(
             r.utilisation,
             g.label,
             g.combination,
-            g.part,
+            g.part_shown(sys),
             if r.verdict == Verdict::NotVerified {
                 " Some limit states that apply could not be evaluated (section 7): this is not a pass."
             } else {
