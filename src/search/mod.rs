@@ -76,29 +76,7 @@ pub(crate) fn to_candidate(
     file: usize,
     line: u64,
 ) -> Candidate {
-    let mat = mats.get(&row.material);
-    Candidate {
-        name: row.name.to_string(),
-        series: row.series.to_string(),
-        grade: row.grade.to_string(),
-        shape: row.shape.clone(),
-        file,
-        line,
-        mass: row.mass,
-        depth: row.props.depth,
-        width: row.props.width,
-        cost: row.cost,
-        stock: row.stock,
-        utilisation: s.utilisation,
-        governing: s.governing,
-        verdict: s.verdict,
-        passes: s.passes,
-        not_verified: s.gaps.describe(),
-        not_checked: prep.not_checked(&row.props, Some(mat)),
-        pareto: false,
-        properties: row.props.clone(),
-        material: row.material.clone(),
-    }
+    to_candidate_unchecked(row, s, file, line).with_summary(prep, mats.get(&row.material), s)
 }
 
 /// A row read for later checking (schedules): no verdict yet.
