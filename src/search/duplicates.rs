@@ -1,0 +1,227 @@
+//! Duplicate names: the Bloom filter the scan enters every name in, the
+//! suspects it flags, and their exact confirmation by a second reading.
+
+use super::scan::Outcome;
+use crate::catalog::read::{Catalog, Chunk};
+use crate::error::{Error, Location, Result};
+use serde::Serialize;
+use std::collections::HashSet;
+use std::io::Read;
+
+/// A Bloom filter over section names in 64-bit words, 8 probes inside one
+/// word chosen by the name's hash, sized from the input's length: one word
+/// per 8 bytes of catalogue (at least 32 KiB, at most 2^22 words = 32 MiB,
+/// reached at 32 MB of catalogue, about 600,000 rows; unknown lengths take
+/// the most). One word per name means one memory access and an atomic
+/// `fetch_or`, so the worker threads insert in parallel, and of two equal
+/// names the later insert always sees the earlier's bits (no duplicate is
+/// missed). A hit only makes a name a suspect; suspects are confirmed
+/// exactly by a second reading of the file (`confirm_duplicates`), which
+/// therefore happens only when a name repeats or the filter errs. Rows of
+/// ~54 bytes give about 0.15 names per word below the cap, a false flag per
+/// row of about (1 − e^(−8·0.15/64))^8 ≈ 10⁻¹⁴; at the cap with n names,
+/// (1 − e^(−8n/2²⁸))^8: 5·10⁻¹³ at 1 M rows (none expected below about 3 M
+/// rows), 2·10⁻⁵ at 10 M (about 200 suspects, one extra reading of names
+/// only). Beyond `SUSPECT_CAP` suspects (a file in which more than 100,000
+/// names repeat) the confirmation checks every name and memory then grows
+/// with the catalogue.
+pub(super) struct Bloom {
+    words: Vec<std::sync::atomic::AtomicU64>,
+    /// Words − 1 (a power of two less one).
+    mask: u64,
+    /// log2 of the words: the hash bits above it give the probes.
+    shift: u32,
+}
+
+const BLOOM_MAX_WORDS_LOG2: u32 = 22;
+const BLOOM_MIN_WORDS_LOG2: u32 = 12;
+
+/// A fast 64-bit hash of a name, eight bytes at a time (multiply–xorshift
+/// rounds, splitmix64 finish). Not for adversarial input: a collision only
+/// costs a confirmation read.
+fn name_hash(s: &str) -> u64 {
+    let b = s.as_bytes();
+    let mut h = 0x243f_6a88_85a3_08d3u64 ^ (b.len() as u64);
+    let mut chunks = b.chunks_exact(8);
+    for c in chunks.by_ref() {
+        let w = u64::from_le_bytes([c[0], c[1], c[2], c[3], c[4], c[5], c[6], c[7]]);
+        h = (h ^ w).wrapping_mul(0x9e37_79b9_7f4a_7c15);
+        h ^= h >> 29;
+    }
+    let rest = chunks.remainder();
+    if !rest.is_empty() {
+        let mut w = [0u8; 8];
+        w[..rest.len()].copy_from_slice(rest);
+        h = (h ^ u64::from_le_bytes(w)).wrapping_mul(0x9e37_79b9_7f4a_7c15);
+        h ^= h >> 29;
+    }
+    h ^= h >> 30;
+    h = h.wrapping_mul(0xbf58_476d_1ce4_e5b9);
+    h ^= h >> 27;
+    h = h.wrapping_mul(0x94d0_49bb_1331_11eb);
+    h ^ (h >> 31)
+}
+
+impl Bloom {
+    /// Insert the names of a segment's checked rows, setting `suspect`.
+    /// The words are first read with plain loads, which the processor
+    /// overlaps, so the atomic updates (each a full barrier) then find
+    /// them in cache: one memory wait per segment instead of one per row.
+    pub(super) fn insert_all(&self, outs: &mut [Outcome<'_>]) {
+        let mut touch = 0u64;
+        for o in outs.iter() {
+            if let Outcome::Checked { name, .. } = o {
+                let h = name_hash(name);
+                touch ^=
+                    self.words[(h & self.mask) as usize].load(std::sync::atomic::Ordering::Relaxed);
+            }
+        }
+        std::hint::black_box(touch);
+        for o in outs.iter_mut() {
+            if let Outcome::Checked { name, suspect, .. } = o {
+                *suspect = self.insert(name);
+            }
+        }
+    }
+
+    /// A filter for an input of `bytes` (None: unknown, the largest).
+    pub(super) fn for_input(bytes: Option<u64>) -> Self {
+        let shift = match bytes {
+            None => BLOOM_MAX_WORDS_LOG2,
+            Some(b) => (b / 8)
+                .max(1)
+                .next_power_of_two()
+                .trailing_zeros()
+                .clamp(BLOOM_MIN_WORDS_LOG2, BLOOM_MAX_WORDS_LOG2),
+        };
+        let n = 1usize << shift;
+        let mut words = Vec::with_capacity(n);
+        words.resize_with(n, || std::sync::atomic::AtomicU64::new(0));
+        Bloom {
+            words,
+            mask: n as u64 - 1,
+            shift,
+        }
+    }
+    /// Insert; true if the name may have been seen before.
+    pub(super) fn insert(&self, name: &str) -> bool {
+        let h = name_hash(name);
+        // The low bits choose the word; the others give the probes.
+        let word = &self.words[(h & self.mask) as usize];
+        let mut g = (h >> self.shift).wrapping_mul(0xff51_afd7_ed55_8ccd) ^ h;
+        let mut mask = 0u64;
+        for _ in 0..8 {
+            mask |= 1u64 << (g & 63);
+            g >>= 6;
+        }
+        let old = word.fetch_or(mask, std::sync::atomic::Ordering::Relaxed);
+        old & mask == mask
+    }
+}
+
+/// Most suspects kept per file before the confirmation checks every name.
+pub(super) const SUSPECT_CAP: usize = 100_000;
+
+/// A name the Bloom filter flagged: (file index, name, line).
+#[derive(Clone, Debug, Serialize)]
+pub struct Suspect {
+    pub file: usize,
+    pub name: String,
+    pub line: u64,
+}
+
+/// Names confirmed to repeat: their errors (at most 1000 listed), their
+/// (file, line)s when asked for, and how many there are.
+pub(crate) struct Repeats {
+    pub errors: Vec<Error>,
+    pub lines: HashSet<(usize, u64)>,
+    pub total: usize,
+}
+
+/// Read each catalogue's flagged names again (`flagged(file)`: the names,
+/// and whether every name must be compared) and confirm the repeats among
+/// the rows `keep` accepts.
+pub(crate) fn find_repeats<R: Read>(
+    catalogs: Vec<Catalog<R>>,
+    flagged: impl Fn(usize) -> (HashSet<String>, bool),
+    keep: impl Fn(&crate::catalog::Schema, &crate::catalog::records::Record<'_>) -> bool + Copy,
+    want_lines: bool,
+) -> Result<Repeats> {
+    let mut rep = Repeats {
+        errors: Vec::new(),
+        lines: HashSet::new(),
+        total: 0,
+    };
+    for (fi, cat) in catalogs.into_iter().enumerate() {
+        let (names, all) = flagged(fi);
+        if names.is_empty() && !all {
+            continue;
+        }
+        let file = cat.file.clone();
+        let name_col = cat.schema.name_column();
+        confirm_duplicates(cat, (!all).then_some(&names), keep, |name, line, first| {
+            if want_lines {
+                rep.lines.insert((fi, line));
+            }
+            rep.total += 1;
+            if rep.errors.len() < 1000 {
+                rep.errors.push(Error::input(
+                    Location::in_file(&file)
+                        .with_line(line)
+                        .with_column(name_col as u64 + 1),
+                    format!("duplicate section name '{name}' (first on line {first})"),
+                ));
+            }
+        })?;
+    }
+    Ok(rep)
+}
+
+/// The refusal of a catalogue whose names repeat.
+pub(crate) fn refuse_repeats(mut errors: Vec<Error>, total: usize) -> Error {
+    if total > errors.len() {
+        errors.push(Error::msg(format!("... and {} more", total - errors.len())));
+    }
+    errors.push(Error::msg(format!(
+        "{total} duplicate name(s): the catalogue is refused (fix them, or use --skip-bad-rows to keep only the first of each)"
+    )));
+    Error::Many(errors)
+}
+
+/// Second reading of one catalogue: `found(name, line, first line)` for
+/// every occurrence of a suspect name after its first (true duplicates),
+/// exactly, in file order, among the rows `keep` accepts.
+pub fn confirm_duplicates<R: Read>(
+    mut cat: Catalog<R>,
+    names: Option<&HashSet<String>>,
+    keep: impl Fn(&crate::catalog::Schema, &crate::catalog::records::Record<'_>) -> bool,
+    mut found: impl FnMut(&str, u64, u64),
+) -> Result<()> {
+    let name_col = cat.schema.name_column();
+    let mut first: std::collections::HashMap<String, u64> = std::collections::HashMap::new();
+    let mut chunk = Chunk::default();
+    loop {
+        let n = cat.next_chunk(&mut chunk)?;
+        if n == 0 {
+            break;
+        }
+        for rec in chunk.records.iter() {
+            let name = std::str::from_utf8(rec.get(name_col).unwrap_or(b""))
+                .unwrap_or("")
+                .trim();
+            // Only rows the scan entered in the filter (valid, and for a
+            // scan admitted by the filters) count: a bad row never makes a
+            // good one a repeat.
+            if names.is_none_or(|n| n.contains(name)) && keep(&cat.schema, &rec) {
+                let line = rec.line();
+                match first.get(name) {
+                    Some(&f) => found(name, line, f),
+                    None => {
+                        first.insert(name.to_string(), line);
+                    }
+                }
+            }
+        }
+    }
+    Ok(())
+}

@@ -1,0 +1,512 @@
+//! The scan pipeline: a reader thread hands blocks of records to the
+//! workers, which parse, filter and check each row in parallel
+//! (`check_record`); the outcomes are merged in file order into what the
+//! scan keeps (`Kept`), then finished into a `Selection`. Also the scan
+//! with exact duplicate detection (`scan_checked`).
+
+use super::duplicates::{Bloom, SUSPECT_CAP, Suspect, find_repeats, refuse_repeats};
+use super::rank::{KeyRef, compare, dominated, dominated_by, near_insert};
+use super::{Candidate, Counts, Rank, ScanOptions, Selection, TopList, to_candidate};
+use crate::catalog::read::Catalog;
+use crate::catalog::records::{Block, Record, Records};
+use crate::catalog::{Materials, Schema, parse_row};
+use crate::check::{Prepared, SectionInput, Summary, Verdict};
+use crate::error::{Error, Location, Result};
+use rayon::prelude::*;
+use std::collections::HashSet;
+use std::io::Read;
+use std::sync::mpsc::{Receiver, SyncSender};
+
+/// What the parallel phase hands to the merge: small, so moving a chunk
+/// of them is cheap. A row that enters a list is parsed again to build
+/// its candidate (rare after the first chunks).
+pub(super) enum Outcome<'r> {
+    Bad(u64, usize, String),
+    Filtered,
+    Excluded,
+    Checked {
+        name: &'r str,
+        /// The duplicate filter had seen this name.
+        suspect: bool,
+        mass: f64,
+        depth: f64,
+        cost: Option<f64>,
+        summary: Summary,
+    },
+}
+
+/// Scan catalogues against a prepared job. `progress` is called after
+/// each chunk with the rows and bytes read so far (over all files). Rows in
+/// `exclude` ((file, line)) are skipped as bad. Names the duplicate filter
+/// flags are returned as suspects for `confirm_duplicates`.
+pub fn scan<R: Read + Send>(
+    prep: &Prepared,
+    catalogs: Vec<Catalog<R>>,
+    mats: &Materials<'_>,
+    opts: &ScanOptions,
+    progress: &(dyn Fn(u64, u64) + Sync),
+) -> Result<Selection> {
+    scan_excluding(prep, catalogs, mats, opts, &HashSet::new(), progress)
+}
+
+/// What every row of a scan is checked against.
+struct ScanJob<'a> {
+    prep: &'a Prepared,
+    mats: &'a Materials<'a>,
+    opts: &'a ScanOptions,
+    exclude: &'a HashSet<(usize, u64)>,
+}
+
+/// `scan` with rows to leave out: each catalogue in turn (`scan_file`),
+/// then what was kept is finished (`Kept::finish`).
+pub fn scan_excluding<R: Read + Send>(
+    prep: &Prepared,
+    catalogs: Vec<Catalog<R>>,
+    mats: &Materials<'_>,
+    opts: &ScanOptions,
+    exclude: &HashSet<(usize, u64)>,
+    progress: &(dyn Fn(u64, u64) + Sync),
+) -> Result<Selection> {
+    let job = ScanJob {
+        prep,
+        mats,
+        opts,
+        exclude,
+    };
+    let mut kept = Kept::new(opts);
+    let mut done_bytes = 0u64;
+    for (fi, cat) in catalogs.into_iter().enumerate() {
+        done_bytes += scan_file(&job, fi, cat, &mut kept, done_bytes, progress)?;
+    }
+    kept.finish(opts)
+}
+
+/// One catalogue of a scan: a reader thread reads the next block (finding
+/// where its records end) while this one is parsed and checked, segment by
+/// segment, in parallel; the names enter the duplicate filter, and the
+/// outcomes are merged in file order. Returns the bytes read.
+fn scan_file<R: Read + Send>(
+    job: &ScanJob<'_>,
+    fi: usize,
+    cat: Catalog<R>,
+    kept: &mut Kept,
+    done_bytes: u64,
+    progress: &(dyn Fn(u64, u64) + Sync),
+) -> Result<u64> {
+    kept.files.push(cat.file.clone());
+    let bloom = Bloom::for_input(cat.size_hint);
+    let schema = cat.schema.clone();
+    let file = cat.file.clone();
+    let header_line = cat.header_line;
+    let rows_before = kept.counts.rows;
+    let delim = cat.delimiter;
+    let mut place = FilePlace {
+        fi,
+        file: &file,
+        schema: &schema,
+        suspects: 0,
+    };
+    let read_bytes = std::thread::scope(|sc| -> Result<u64> {
+        let (tx, rx) = std::sync::mpsc::sync_channel::<Result<Block>>(2);
+        let (back_tx, back_rx) = std::sync::mpsc::channel::<Block>();
+        let mut cat = cat;
+        cat.set_segment(job.opts.chunk);
+        let reader = sc.spawn(move || read_blocks(cat, tx, back_rx));
+        let mut pool: Vec<Records> = Vec::new();
+        for msg in rx {
+            let block = msg?;
+            let pos = block.end_offset;
+            let schema = &schema;
+            let mut parsed = map_block(
+                &block,
+                delim,
+                &mut pool,
+                || (),
+                |_, rec| check_record(job, fi, schema, rec),
+            );
+            parsed
+                .par_iter_mut()
+                .for_each(|(_, outs)| bloom.insert_all(outs));
+            for (rec, out) in parsed
+                .into_iter()
+                .flat_map(|(recs, outs)| recs.iter().zip(outs))
+            {
+                kept.merge(job, &mut place, rec, out)?;
+            }
+            progress(kept.counts.rows, done_bytes + pos);
+            let _ = back_tx.send(block);
+        }
+        // A panic in the reader is an internal error, never the end of
+        // the file.
+        reader
+            .join()
+            .map_err(|_| Error::Internal("the catalogue reader thread stopped unexpectedly".into()))
+    })?;
+    if kept.counts.rows == rows_before {
+        return Err(Error::input(
+            Location::in_file(&file).with_line(header_line + 1),
+            "the catalogue has a header but no rows: expected one section per row after the header",
+        ));
+    }
+    Ok(read_bytes)
+}
+
+/// The reader thread: read blocks into the ones sent back (or new ones)
+/// and send them on. Returns the offset at the end of the file, or 0 when
+/// the receiver has gone or reading failed (the error is sent).
+fn read_blocks<R: Read>(
+    mut cat: Catalog<R>,
+    tx: SyncSender<Result<Block>>,
+    back_rx: Receiver<Block>,
+) -> u64 {
+    loop {
+        let mut block = back_rx.try_recv().unwrap_or_default();
+        match cat.next_block(&mut block) {
+            Ok(false) => return cat.offset(),
+            Ok(true) => {
+                if tx.send(Ok(block)).is_err() {
+                    return 0;
+                }
+            }
+            Err(e) => {
+                let _ = tx.send(Err(e));
+                return 0;
+            }
+        }
+    }
+}
+
+/// The parallel phase for one record: left out, bad, filtered, or checked.
+fn check_record<'r>(job: &ScanJob<'_>, fi: usize, schema: &Schema, rec: Record<'r>) -> Outcome<'r> {
+    if !job.exclude.is_empty() && job.exclude.contains(&(fi, rec.line())) {
+        return Outcome::Excluded;
+    }
+    match parse_row(schema, &rec, job.mats) {
+        Err(e) => Outcome::Bad(rec.line(), e.column, e.message),
+        Ok(row) => {
+            if !job.opts.filters.admits(&row) {
+                return Outcome::Filtered;
+            }
+            let mat = job.mats.get(&row.material);
+            let s = job
+                .prep
+                .check(SectionInput::new(&row.props, row.mass).with_material(mat));
+            Outcome::Checked {
+                name: row.name,
+                suspect: false,
+                mass: row.mass,
+                depth: row.props.depth,
+                cost: row.cost,
+                summary: s,
+            }
+        }
+    }
+}
+
+/// The catalogue being merged: its index, name and schema, and how many of
+/// its names the duplicate filter flagged so far.
+struct FilePlace<'a> {
+    fi: usize,
+    file: &'a str,
+    schema: &'a Schema,
+    suspects: usize,
+}
+
+/// What the scan keeps while it reads (see `Selection`).
+struct Kept {
+    lists: Vec<TopList>,
+    near: TopList,
+    unverified: TopList,
+    pareto: Vec<Candidate>,
+    counts: Counts,
+    errors: Vec<Error>,
+    skipped: Vec<String>,
+    files: Vec<String>,
+    suspects: Vec<Suspect>,
+    check_all_names: Vec<usize>,
+}
+
+impl Kept {
+    fn new(opts: &ScanOptions) -> Kept {
+        Kept {
+            lists: opts
+                .ranks
+                .iter()
+                .map(|&(r, n)| TopList::new(r, n))
+                .collect(),
+            near: TopList::new(Rank::Utilisation, opts.near),
+            unverified: TopList::new(
+                opts.ranks.first().map(|r| r.0).unwrap_or(Rank::Mass),
+                opts.unverified,
+            ),
+            pareto: Vec::new(),
+            counts: Counts::default(),
+            errors: Vec::new(),
+            skipped: Vec::new(),
+            files: Vec::new(),
+            suspects: Vec::new(),
+            check_all_names: Vec::new(),
+        }
+    }
+
+    /// Merge one record's outcome, in file order.
+    fn merge(
+        &mut self,
+        job: &ScanJob<'_>,
+        place: &mut FilePlace<'_>,
+        rec: Record<'_>,
+        out: Outcome<'_>,
+    ) -> Result<()> {
+        self.counts.rows += 1;
+        let line = rec.line();
+        match out {
+            Outcome::Bad(line, col, msg) => self.bad_row(place.file, line, col, msg),
+            Outcome::Excluded => self.counts.bad += 1,
+            Outcome::Filtered => self.counts.filtered += 1,
+            Outcome::Checked {
+                name,
+                suspect,
+                mass,
+                depth,
+                cost,
+                summary: s,
+            } => {
+                if suspect {
+                    self.suspect(place, name, line);
+                }
+                self.counts.checked += 1;
+                let k = KeyRef {
+                    mass,
+                    depth,
+                    cost,
+                    utilisation: s.utilisation,
+                    name,
+                    file: place.fi,
+                    line,
+                };
+                let materialise = || -> Result<Candidate> {
+                    let row = parse_row(place.schema, &rec, job.mats)
+                        .map_err(|e| Error::Internal(e.message))?;
+                    Ok(to_candidate(job.prep, job.mats, &row, &s, place.fi, line))
+                };
+                self.keep_checked(job.opts, &k, &s, materialise)?;
+            }
+        }
+        Ok(())
+    }
+
+    /// A row that could not be read: counted, and listed (up to a limit).
+    fn bad_row(&mut self, file: &str, line: u64, col: usize, msg: String) {
+        self.counts.bad += 1;
+        let e = Error::input(
+            Location::in_file(file)
+                .with_line(line)
+                .with_column(col as u64),
+            msg,
+        );
+        if self.skipped.len() < 100 {
+            self.skipped.push(e.to_string());
+        }
+        if self.errors.len() < 1000 {
+            self.errors.push(e);
+        }
+    }
+
+    /// A name the duplicate filter flagged: kept as a suspect, or, past
+    /// `SUSPECT_CAP` in this file, every name of the file is to be compared.
+    fn suspect(&mut self, place: &mut FilePlace<'_>, name: &str, line: u64) {
+        if place.suspects >= SUSPECT_CAP {
+            if !self.check_all_names.contains(&place.fi) {
+                self.check_all_names.push(place.fi);
+            }
+        } else {
+            place.suspects += 1;
+            self.suspects.push(Suspect {
+                file: place.fi,
+                name: name.to_string(),
+                line,
+            });
+        }
+    }
+
+    /// Keep a checked row where a list wants it: a passing row in the
+    /// rankings and on the front, a not-verified one apart (and ranked
+    /// with `include_unverified`), a failing one among the nearest misses.
+    /// No allocation unless the row is kept.
+    fn keep_checked(
+        &mut self,
+        opts: &ScanOptions,
+        k: &KeyRef<'_>,
+        s: &Summary,
+        materialise: impl Fn() -> Result<Candidate>,
+    ) -> Result<()> {
+        if s.passes {
+            self.counts.passing += 1;
+            let front =
+                opts.pareto && !self.pareto.iter().any(|p| dominated_by(k.mass, k.depth, p));
+            let any = self.lists.iter().any(|l| l.wants_key(k));
+            if front || any {
+                let cand = materialise()?;
+                if front {
+                    self.pareto.retain(|p| !dominated(p, &cand));
+                    self.pareto.push(cand.clone());
+                }
+                for l in self.lists.iter_mut() {
+                    if l.wants_key(k) {
+                        l.insert(cand.clone());
+                    }
+                }
+            }
+        } else if s.verdict == Verdict::NotVerified {
+            self.counts.not_verified += 1;
+            let in_lists = opts.include_unverified && self.lists.iter().any(|l| l.wants_key(k));
+            if in_lists || self.unverified.wants_key(k) {
+                let cand = materialise()?;
+                if opts.include_unverified {
+                    for l in self.lists.iter_mut() {
+                        if l.wants_key(k) {
+                            l.insert(cand.clone());
+                        }
+                    }
+                }
+                if self.unverified.wants_key(k) {
+                    self.unverified.insert(cand);
+                }
+            }
+        } else {
+            self.counts.failing += 1;
+            let wanted = self.near.items.len() < self.near.limit
+                || self
+                    .near
+                    .items
+                    .last()
+                    .is_some_and(|l| s.utilisation < l.utilisation);
+            if wanted {
+                near_insert(&mut self.near, materialise()?);
+            }
+        }
+        Ok(())
+    }
+
+    /// The selection: refused if rows were bad (unless they are to be
+    /// skipped), the lists sorted and cut, the front marked.
+    fn finish(mut self, opts: &ScanOptions) -> Result<Selection> {
+        // (Excluded rows count as bad, and only come with skip_bad_rows.)
+        if self.counts.bad > 0 && !opts.skip_bad_rows {
+            let total = self.counts.bad;
+            let mut errs = self.errors;
+            if total as usize > errs.len() {
+                errs.push(Error::msg(format!(
+                    "... and {} more",
+                    total as usize - errs.len()
+                )));
+            }
+            errs.push(Error::msg(format!(
+                "{total} bad row(s): the catalogue is refused (fix them, or use --skip-bad-rows to leave them out)"
+            )));
+            return Err(Error::Many(errs));
+        }
+        for l in self.lists.iter_mut() {
+            l.finish();
+        }
+        self.unverified.finish();
+        self.pareto.sort_by(|a, b| compare(Rank::Mass, a, b));
+        let on_front: HashSet<(usize, u64)> =
+            self.pareto.iter().map(|c| (c.file, c.line)).collect();
+        for l in self.lists.iter_mut() {
+            for c in l.items.iter_mut() {
+                c.pareto = on_front.contains(&(c.file, c.line));
+            }
+        }
+        for c in self.pareto.iter_mut() {
+            c.pareto = true;
+        }
+        Ok(Selection {
+            lists: self.lists,
+            pareto: self.pareto,
+            near_misses: self.near,
+            unverified: self.unverified,
+            counts: self.counts,
+            skipped: self.skipped,
+            files: self.files,
+            suspects: self.suspects,
+            check_all_names: self.check_all_names,
+        })
+    }
+}
+
+/// Parse a block's segments and map each record, in parallel: one
+/// (records, results) pair per segment, in file order. `init` makes the
+/// state one segment's records share, in order (see search::spans).
+pub(crate) fn map_block<'p, T, S, I, F>(
+    block: &Block,
+    delim: u8,
+    pool: &'p mut Vec<Records>,
+    init: I,
+    f: F,
+) -> Vec<(&'p Records, Vec<T>)>
+where
+    T: Send + 'p,
+    I: Fn() -> S + Sync,
+    F: Fn(&mut S, crate::catalog::records::Record<'p>) -> T + Sync,
+{
+    let nseg = block.segments.len();
+    if pool.len() < nseg {
+        pool.resize_with(nseg, Records::default);
+    }
+    pool[..nseg]
+        .par_iter_mut()
+        .enumerate()
+        .map(|(k, recs)| {
+            block.parse_segment(k, delim, recs);
+            let recs: &'p Records = recs;
+            let mut state = init();
+            (recs, recs.iter().map(|r| f(&mut state, r)).collect())
+        })
+        .collect()
+}
+
+/// Scan with exact duplicate detection: `open` (re)opens the catalogues;
+/// a second reading confirms the names the Bloom filter flagged, and a
+/// re-scan without the duplicates follows only when some are real and
+/// bad rows are to be skipped.
+pub fn scan_checked<R: Read + Send>(
+    prep: &Prepared,
+    open: &dyn Fn() -> Result<Vec<Catalog<R>>>,
+    mats: &Materials<'_>,
+    opts: &ScanOptions,
+    progress: &(dyn Fn(u64, u64) + Sync),
+) -> Result<Selection> {
+    let mut sel = scan(prep, open()?, mats, opts, progress)?;
+    if sel.suspects.is_empty() && sel.check_all_names.is_empty() {
+        return Ok(sel);
+    }
+    let keep = |schema: &crate::catalog::Schema, rec: &crate::catalog::records::Record<'_>| {
+        parse_row(schema, rec, mats).is_ok_and(|r| opts.filters.admits(&r))
+    };
+    let flagged = |fi: usize| {
+        let names: HashSet<String> = sel
+            .suspects
+            .iter()
+            .filter(|s| s.file == fi)
+            .map(|s| s.name.clone())
+            .collect();
+        (names, sel.check_all_names.contains(&fi))
+    };
+    let rep = find_repeats(open()?, flagged, keep, opts.skip_bad_rows)?;
+    let (errors, exclude, dup_total) = (rep.errors, rep.lines, rep.total);
+    if errors.is_empty() {
+        sel.suspects.clear();
+        sel.check_all_names.clear();
+        return Ok(sel);
+    }
+    if !opts.skip_bad_rows {
+        return Err(refuse_repeats(errors, dup_total));
+    }
+    let mut again = scan_excluding(prep, open()?, mats, opts, &exclude, progress)?;
+    again.skipped.extend(errors.iter().map(|e| e.to_string()));
+    again.skipped.truncate(100);
+    again.suspects.clear();
+    again.check_all_names.clear();
+    Ok(again)
+}
