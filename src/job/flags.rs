@@ -67,12 +67,23 @@ fn flag<T>(r: Result<T>, name: &str) -> Result<T> {
     r.map_err(|e| e.in_field(name))
 }
 
+/// A stress option, if given.
+fn stress(v: &Option<String>, name: &str) -> Result<Option<f64>> {
+    v.as_deref()
+        .map(|t| flag(units::parse(t, Dim::Stress), name))
+        .transpose()
+}
+
+/// The names of the options given, in order.
+fn given<const N: usize>(options: [(bool, &'static str); N]) -> Vec<&'static str> {
+    options.into_iter().filter(|o| o.0).map(|o| o.1).collect()
+}
+
 impl JobFlags {
     /// The options that describe the beam, loads or combinations (refused
     /// with --job), by name.
     fn beam_flags(&self) -> Vec<&'static str> {
-        let mut v = Vec::new();
-        for (given, name) in [
+        given([
             (self.span.is_some(), "--span"),
             (self.supports.is_some(), "--supports"),
             (self.dead.is_some(), "--dead"),
@@ -83,19 +94,13 @@ impl JobFlags {
             (self.preset.is_some(), "--preset"),
             (self.limit_live.is_some(), "--limit-live"),
             (self.limit_total.is_some(), "--limit-total"),
-        ] {
-            if given {
-                v.push(name);
-            }
-        }
-        v
+        ])
     }
 
     /// The options that only matter to section checks (refused by
     /// `analyse`, which checks no section).
     fn check_flags(&self) -> Vec<&'static str> {
-        let mut v = Vec::new();
-        for (given, name) in [
+        given([
             (self.fb.is_some(), "--Fb"),
             (self.fv.is_some(), "--Fv"),
             (self.fy.is_some(), "--Fy"),
@@ -105,12 +110,7 @@ impl JobFlags {
             (self.braced_flange.is_some(), "--braced-flange"),
             (self.load_height.is_some(), "--load-height"),
             (self.exclude.is_some(), "--exclude"),
-        ] {
-            if given {
-                v.push(name);
-            }
-        }
-        v
+        ])
     }
 
     /// Build the job for `analyse`: options that only affect section checks
@@ -140,14 +140,10 @@ impl JobFlags {
     /// Whether the options ask for self-weight settings (which need a
     /// section's area to mean anything).
     pub fn self_weight_flags(&self) -> Vec<&'static str> {
-        let mut v = Vec::new();
-        if self.density.is_some() {
-            v.push("--density");
-        }
-        if self.no_self_weight {
-            v.push("--no-self-weight");
-        }
-        v
+        given([
+            (self.density.is_some(), "--density"),
+            (self.no_self_weight, "--no-self-weight"),
+        ])
     }
 
     /// Build the job (reading the job file if one is named).
@@ -218,11 +214,6 @@ impl JobFlags {
     ) -> Result<(Vec<String>, Vec<String>)> {
         let mut set = Vec::new();
         let mut checks = Vec::new();
-        let stress = |v: &Option<String>, name: &str| -> Result<Option<f64>> {
-            v.as_deref()
-                .map(|t| flag(units::parse(t, Dim::Stress), name))
-                .transpose()
-        };
         if let Some(k) = &self.kind {
             m.kind = flag(super::parse_kind(k), "--kind")?;
             set.push(format!("--kind {k}"));
@@ -373,11 +364,6 @@ impl JobFlags {
         if crate::beam::presets::partial_snow(self.preset.as_deref()) {
             super::set_partial_snow(&mut beam, &[], &mut notes);
         }
-        let stress = |v: &Option<String>, name: &str| -> Result<Option<f64>> {
-            v.as_deref()
-                .map(|t| flag(units::parse(t, Dim::Stress), name))
-                .transpose()
-        };
         let e = stress(&self.e, "--E")?.ok_or_else(|| {
             Error::msg("missing the modulus of elasticity: add --E (e.g. --E 200GPa)")
         })?;
