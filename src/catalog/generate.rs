@@ -499,3 +499,56 @@ fn check_sizes(v: &[f64], name: &str) -> Result<()> {
     }
     Ok(())
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn options_as_typed_become_the_spec() {
+        let s = |t: &str| Some(t.to_string());
+        let o = Options {
+            family: "welded-i".into(),
+            bf: s("150..400:50mm"),
+            tf: s("8,10mm"),
+            hw: s("0.3..0.4:0.1m"),
+            tw: s("6mm"),
+            fy: s("345MPa"),
+            ..Default::default()
+        };
+        let spec = o.spec().unwrap();
+        let Spec::WeldedI { bf, tf, hw, tw, .. } = &spec else {
+            panic!("welded-i gives a welded I spec")
+        };
+        let Spec::WeldedI {
+            lambda_f: Some(lambda_f),
+            lambda_w: Some(lambda_w),
+            density,
+            ..
+        } = spec.clone()
+        else {
+            panic!("--Fy gives both slenderness limits")
+        };
+        // 150 to 400 by 50: six values, both ends included (arithmetic);
+        // 1 m = 1000 mm.
+        assert_eq!(*bf, vec![150.0, 200.0, 250.0, 300.0, 350.0, 400.0]);
+        assert_eq!((tf, tw), (&vec![8.0, 10.0], &vec![6.0]));
+        assert_eq!(hw.len(), 2);
+        assert!((hw[0] - 300.0).abs() < 1e-9 && (hw[1] - 400.0).abs() < 1e-9);
+        // AISC 360-16 Table B4.1b compact limits (from memory): flange
+        // 0.38·√(E/Fy), web 3.76·√(E/Fy), at the default E = 200 GPa.
+        let r = (200_000.0f64 / 345.0).sqrt();
+        assert!((lambda_f - 0.38 * r).abs() < 1e-9);
+        assert!((lambda_w - 3.76 * r).abs() < 1e-9);
+        assert_eq!(density, 7850.0);
+        // A rectangle option is refused for the welded I family.
+        let e = Options { b: s("100mm"), ..o }
+            .spec()
+            .unwrap_err()
+            .to_string();
+        assert!(
+            e.contains("--b does not apply to the welded-i family"),
+            "{e}"
+        );
+    }
+}
