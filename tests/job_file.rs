@@ -37,13 +37,16 @@ fn demo_job_reads_as_written() {
         .collect();
     assert_eq!(strength, vec!["D", "D+L", "D+0.75L", "0.6D"]);
     // IBC Table 1604.3 floor members: L/360 live, L/240 total (from memory).
-    let limits: Vec<f64> = b
-        .combinations
+    assert_eq!(limits(b), vec![360.0, 240.0]);
+    assert_eq!(b.self_weight_case, Some(0));
+}
+
+/// The deflection limits (L/n) of the combinations, in order.
+fn limits(b: &beamsift::beam::model::Beam) -> Vec<f64> {
+    b.combinations
         .iter()
         .filter_map(|c| c.limit.and_then(|l| l.ratio))
-        .collect();
-    assert_eq!(limits, vec![360.0, 240.0]);
-    assert_eq!(b.self_weight_case, Some(0));
+        .collect()
 }
 
 fn err(text: &str) -> String {
@@ -104,4 +107,62 @@ fn errors_name_file_line_and_column() {
     assert!(e.starts_with("job.toml:1:"), "{e}");
     let e = err(&BASE.replace("\"pinned\", \"pinned\"", "\"pinned\", \"hinge\""));
     assert!(e.contains("unknown support 'hinge'"), "{e}");
+}
+
+/// The job from plain flag values, as any front end gives them (no command
+/// line involved): what each value means, and the rules between them.
+#[test]
+fn flags_build_the_job_a_front_end_describes() {
+    use beamsift::job::JobFlags;
+    let s = |t: &str| Some(t.to_string());
+    let flags = JobFlags {
+        span: s("4.2m,4.2m"),
+        dead: s("1.2kN/m"),
+        live_point: vec!["12kN@2.5m".into()],
+        e: s("11GPa"),
+        fb: s("10MPa"),
+        ..Default::default()
+    };
+    let job = flags.load().unwrap();
+    let b = &job.beam;
+    // SI: 1 m = 1000 mm, 1 kN/m = 1 N/mm, 1 kN = 1000 N, 1 GPa = 1000 MPa.
+    assert_eq!(b.spans, vec![4200.0, 4200.0]);
+    assert_eq!(b.supports, vec![Support::Pinned; 3]);
+    match b.loads[0].kind {
+        LoadKind::Distributed { w1, w2, x1, x2 } => {
+            assert!((w1 - 1.2).abs() < 1e-12 && (w2 - 1.2).abs() < 1e-12);
+            assert_eq!((x1, x2), (0.0, 8400.0));
+        }
+        _ => panic!("--dead is a uniform load over the whole beam"),
+    }
+    match b.loads[1].kind {
+        LoadKind::Point { x, p } => assert_eq!((x, p), (2500.0, 12_000.0)),
+        _ => panic!("--live-point is a point load"),
+    }
+    assert_eq!(job.material.e, 11_000.0);
+    assert_eq!(job.material.fb_tension, Some(10.0));
+    // IBC Table 1604.3 floor members: L/360 live, L/240 total (from memory).
+    assert_eq!(limits(b), vec![360.0, 240.0]);
+    // Two spans need three supports.
+    let two = JobFlags {
+        supports: s("pinned,roller"),
+        ..flags.clone()
+    };
+    assert!(
+        two.load()
+            .unwrap_err()
+            .to_string()
+            .contains("need 3 supports")
+    );
+    // With a job file, the beam comes from the file: --span is refused
+    // before the file is read.
+    let with_file = JobFlags {
+        job: Some("no-such-job.toml".into()),
+        ..flags
+    };
+    let e = with_file.load().unwrap_err().to_string();
+    assert!(
+        e.contains("--span, --dead, --live-point describe(s) the beam"),
+        "{e}"
+    );
 }

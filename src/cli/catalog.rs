@@ -3,13 +3,14 @@
 use super::Out;
 use super::output::emit;
 use beamsift::catalog::Materials;
+use beamsift::catalog::generate;
 use beamsift::catalog::read::{self, ReadOptions};
 use beamsift::check::Material;
 use beamsift::error::{Error, Result};
 use beamsift::job;
 use beamsift::report::catalog::{ValidateResult, show_document, validate_document};
 use beamsift::report::{self, Format};
-use beamsift::units::{self, Dim};
+use beamsift::units;
 use std::path::PathBuf;
 
 #[derive(clap::Subcommand, Debug)]
@@ -79,10 +80,10 @@ pub struct GenerateArgs {
     #[arg(long = "Fy")]
     pub fy: Option<String>,
     /// Modulus of elasticity for the slenderness limits.
-    #[arg(long = "E", default_value = "200GPa")]
+    #[arg(long = "E", default_value = generate::DEFAULT_E)]
     pub e: String,
     /// Steel density for the mass column (welded-i).
-    #[arg(long, default_value = "7850kg/m3")]
+    #[arg(long, default_value = generate::DEFAULT_DENSITY)]
     pub density: String,
     /// Price per kg of steel for the cost column (welded-i).
     #[arg(long = "price-per-kg")]
@@ -92,96 +93,27 @@ pub struct GenerateArgs {
     pub currency: String,
 }
 
-/// A list "6,8,10mm" or a range "150..400:10mm".
-fn sizes(text: &Option<String>, name: &str) -> Result<Vec<f64>> {
-    let t = text
-        .as_deref()
-        .ok_or_else(|| Error::msg(format!("--{name} is required for this family")))?;
-    if let Some((range, step)) = t.split_once(':')
-        && let Some((a, b)) = range.split_once("..")
-    {
-        let unit: String = step
-            .trim_start_matches(|c: char| c.is_ascii_digit() || c == '.')
-            .to_string();
-        let p = |v: &str| {
-            let v = v.trim();
-            let v = if v.chars().last().is_some_and(|c| c.is_ascii_digit()) {
-                format!("{v}{unit}")
-            } else {
-                v.to_string()
-            };
-            units::parse(&v, Dim::Length).map_err(|e| e.in_field(&format!("--{name}")))
-        };
-        let (lo, hi, st) = (p(a)?, p(b)?, p(step)?);
-        if !(st > 0.0 && hi >= lo) {
-            return Err(Error::msg(format!(
-                "--{name}: expected START..END:STEP with END ≥ START and STEP > 0"
-            )));
-        }
-        let n = ((hi - lo) / st + 1e-9).floor();
-        if n >= MAX_SIZES as f64 {
-            return Err(Error::msg(format!(
-                "--{name}: the range gives more than the {} values one list may give: use a coarser step",
-                units::count(MAX_SIZES as u64)
-            )));
-        }
-        let v: Vec<f64> = (0..=n as usize).map(|k| lo + k as f64 * st).collect();
-        check_sizes(&v, name)?;
-        return Ok(v);
-    }
-    let v = units::parse_list(t, Dim::Length, &format!("--{name}"))?;
-    check_sizes(&v, name)?;
-    Ok(v)
-}
-
-/// Grade names are plain CSV cells, given once each, with positive rates.
-fn check_grades(g: Vec<(String, Option<f64>)>) -> Result<Vec<(String, Option<f64>)>> {
-    for (k, (name, rate)) in g.iter().enumerate() {
-        if name.is_empty() || name.chars().any(|c| c == '"' || c == ';' || c.is_control()) {
-            return Err(Error::msg(format!(
-                "grade {} '{name}': expected a non-empty name without quotes, semicolons or control characters",
-                k + 1
-            )));
-        }
-        if g[..k].iter().any(|o| o.0 == *name) {
-            return Err(Error::msg(format!("grade '{name}' is given twice")));
-        }
-        if let Some(r) = rate
-            && !(*r > 0.0 && *r < 1e7)
-        {
-            return Err(Error::msg(format!(
-                "grade '{name}': price {r} per m³ is outside 0 < price < 10,000,000"
-            )));
+impl GenerateArgs {
+    /// The options as given, for the library.
+    fn options(&self) -> generate::Options {
+        generate::Options {
+            family: self.family.clone(),
+            bf: self.bf.clone(),
+            tf: self.tf.clone(),
+            hw: self.hw.clone(),
+            tw: self.tw.clone(),
+            b: self.b.clone(),
+            d: self.d.clone(),
+            grades: self.grades.clone(),
+            max_aspect: self.max_aspect,
+            lambda_f: self.lambda_f,
+            lambda_w: self.lambda_w,
+            fy: self.fy.clone(),
+            e: self.e.clone(),
+            density: self.density.clone(),
+            price_per_kg: self.price_per_kg,
         }
     }
-    Ok(g)
-}
-
-/// Most values one size list may give.
-const MAX_SIZES: usize = 100_000;
-
-fn check_sizes(v: &[f64], name: &str) -> Result<()> {
-    if v.len() > MAX_SIZES {
-        return Err(Error::msg(format!(
-            "--{name}: {} values, more than the {} one list may give: use a coarser step",
-            units::count(v.len() as u64),
-            units::count(MAX_SIZES as u64)
-        )));
-    }
-    let mut sorted = v.to_vec();
-    sorted.sort_by(f64::total_cmp);
-    if let Some(w) = sorted.windows(2).find(|w| w[0] == w[1]) {
-        return Err(Error::msg(format!(
-            "--{name}: {} mm is given twice (the rows would repeat a name)",
-            w[0]
-        )));
-    }
-    if let Some(x) = v.iter().find(|x| !(**x > 0.0 && **x <= 10_000.0)) {
-        return Err(Error::msg(format!(
-            "--{name}: {x} mm is outside 0 < size ≤ 10 m"
-        )));
-    }
-    Ok(())
 }
 
 #[derive(clap::Args, Debug)]
@@ -264,7 +196,6 @@ pub fn run(cmd: Cmd, out: &Out) -> Result<i32> {
 }
 
 fn generate(a: GenerateArgs, out: &Out) -> Result<i32> {
-    use beamsift::catalog::generate::{self, Spec};
     if !matches!(out.format, Format::Table | Format::Csv) {
         return Err(Error::msg(
             "catalog generate writes a catalogue CSV: --format json or markdown has no meaning here",
@@ -277,113 +208,7 @@ fn generate(a: GenerateArgs, out: &Out) -> Result<i32> {
         )
         .in_field("--units"));
     }
-    let family = beamsift::section::spec::normalise_family(&a.family);
-    let foreign: &[(&str, bool)] = match family.as_str() {
-        "welded-i" => &[
-            ("--b", a.b.is_some()),
-            ("--d", a.d.is_some()),
-            ("--grades", a.grades.is_some()),
-            ("--max-aspect", a.max_aspect.is_some()),
-        ],
-        "rect" => &[
-            ("--bf", a.bf.is_some()),
-            ("--tf", a.tf.is_some()),
-            ("--hw", a.hw.is_some()),
-            ("--tw", a.tw.is_some()),
-            ("--lambda-f", a.lambda_f.is_some()),
-            ("--lambda-w", a.lambda_w.is_some()),
-            ("--Fy", a.fy.is_some()),
-            ("--E", a.e != "200GPa"),
-            ("--density", a.density != "7850kg/m3"),
-            ("--price-per-kg", a.price_per_kg.is_some()),
-        ],
-        _ => &[],
-    };
-    let unused: Vec<&str> = foreign.iter().filter(|f| f.1).map(|f| f.0).collect();
-    if !unused.is_empty() {
-        return Err(Error::msg(format!(
-            "{} {} not apply to the {family} family (nothing would use {})",
-            unused.join(", "),
-            if unused.len() == 1 { "does" } else { "do" },
-            if unused.len() == 1 { "it" } else { "them" }
-        )));
-    }
-    for (name, v) in [
-        ("--max-aspect", a.max_aspect),
-        ("--lambda-f", a.lambda_f),
-        ("--lambda-w", a.lambda_w),
-    ] {
-        if let Some(v) = v
-            && !(v > 0.0 && v <= 1000.0)
-        {
-            return Err(Error::msg(format!(
-                "{name}: {v} is outside 0 < value ≤ 1000"
-            )));
-        }
-    }
-    if let Some(p) = a.price_per_kg
-        && !(p > 0.0 && p < 1e6)
-    {
-        return Err(Error::msg(format!(
-            "--price-per-kg: {p} is outside 0 < price < 1,000,000"
-        )));
-    }
-    let spec = match family.as_str() {
-        "welded-i" => {
-            let e = units::parse(&a.e, Dim::Stress).map_err(|e| e.in_field("--E"))?;
-            let fy =
-                a.fy.as_deref()
-                    .map(|t| units::parse(t, Dim::Stress).map_err(|e| e.in_field("--Fy")))
-                    .transpose()?;
-            let (df, dw) = fy
-                .map(|fy| {
-                    beamsift::optimise::compact_slenderness(
-                        beamsift::optimise::Family::WeldedI,
-                        e,
-                        fy,
-                    )
-                })
-                .unwrap_or((None, None));
-            Spec::WeldedI {
-                bf: sizes(&a.bf, "bf")?,
-                tf: sizes(&a.tf, "tf")?,
-                hw: sizes(&a.hw, "hw")?,
-                tw: sizes(&a.tw, "tw")?,
-                lambda_f: a.lambda_f.or(df),
-                lambda_w: a.lambda_w.or(dw),
-                density: units::parse(&a.density, Dim::Density)
-                    .map_err(|e| e.in_field("--density"))?,
-                price_per_kg: a.price_per_kg,
-            }
-        }
-        "rect" => {
-            let grades = match &a.grades {
-                Some(g) => g
-                    .split(',')
-                    .map(|p| match p.split_once('=') {
-                        Some((n, r)) => {
-                            units::parse_number(r).map(|r| (n.trim().to_string(), Some(r)))
-                        }
-                        None => Ok((p.trim().to_string(), None)),
-                    })
-                    .collect::<Result<Vec<_>>>()
-                    .and_then(check_grades)
-                    .map_err(|e| e.in_field("--grades"))?,
-                None => vec![(String::new(), None)],
-            };
-            Spec::Rect {
-                b: sizes(&a.b, "b")?,
-                d: sizes(&a.d, "d")?,
-                grades,
-                max_aspect: a.max_aspect,
-            }
-        }
-        other => {
-            return Err(Error::msg(format!(
-                "catalog generate: '{other}' is not supported: expected welded-i or rect"
-            )));
-        }
-    };
+    let spec = a.options().spec()?;
     let n = match &out.path {
         Some(p) => {
             let mut f = super::files::StreamFile::create(p)?;

@@ -12,11 +12,13 @@
 //! One file per part of the job: `raw` (the TOML as written), `source`
 //! (spans to locations), `values` (the words flags and schedules share),
 //! `beam` (spans, supports, cases), `loads`, `combinations` (with the
-//! presets), `material` (and grades), `checks` (the criteria).
+//! presets), `material` (and grades), `checks` (the criteria); `flags`
+//! (the job from flag values, or a job file with values replaced).
 
 mod beam;
 mod checks;
 mod combinations;
+mod flags;
 mod loads;
 mod material;
 mod raw;
@@ -24,6 +26,7 @@ mod source;
 mod values;
 
 pub use crate::beam::presets::{set_partial_snow, standard as standard_combinations};
+pub use flags::JobFlags;
 pub use values::{
     RATIO_RANGE, parse_braced_flange, parse_bracing, parse_kind, parse_load_height, parse_ratio,
     parse_support,
