@@ -51,7 +51,8 @@
 //!            X 300,rolled-i,300,150,10.7,7.1,15\n";
 //! let open = || Ok(vec![read::open(csv.as_bytes(), "stock.csv", &ReadOptions::default())?]);
 //! let opts = ScanOptions { ranks: vec![(Rank::Mass, 3)], ..ScanOptions::default() };
-//! let sel = search::scan_checked(&prep, &open, &job.materials(), &opts, &|_, _| {})?;
+//! let mats = beamsift::catalog::Materials::of(&job);
+//! let sel = search::scan_checked(&prep, &open, &mats, &opts, &|_, _| {})?;
 //!
 //! // By hand: M = (4 + 6 + 0.354 self-weight) kN/m × (6 m)² / 8 = 46.6 kN·m;
 //! // X 160 (IPE 160 dimensions, S ≈ 109 cm³ from memory) is stressed far
@@ -101,3 +102,8 @@ pub mod sweep;
 pub mod units;
 
 pub use error::{Error, Result};
+
+/// The caution every human-readable result carries (and every JSON
+/// result), defined once at the root so any module may attach it.
+pub const CAUTION: &str = "CAUTION: beamsift is an aid for a competent person, not a substitute for one. \
+Verify every result against the governing local code and licensed practice before it is used.";

@@ -5,12 +5,12 @@
 //! here: the terminal table, JSON and the calculation sheet print these
 //! numbers and compute none of their own.
 
+use crate::CAUTION;
 use crate::beam::analysis::{self, Analysis};
 use crate::beam::demand::Quantity;
 use crate::beam::model::ComboKind;
 use crate::check::{CheckKind, Item, Material, Prepared, SectionInput, Verdict, working::Working};
 use crate::job::Job;
-use crate::report::CAUTION;
 use crate::section::Properties;
 use crate::units::{Show, System};
 use serde::Serialize;

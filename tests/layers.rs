@@ -138,3 +138,54 @@ fn no_command_file_imports_another() {
     }
     assert!(problems.is_empty(), "{problems:#?}");
 }
+
+#[test]
+fn the_library_modules_form_no_cycle() {
+    // Top-level modules and the modules each one uses (code only).
+    let root = Path::new(env!("CARGO_MANIFEST_DIR")).join("src");
+    let mut all = Vec::new();
+    files(&root, &mut all);
+    let mut uses: std::collections::BTreeMap<String, std::collections::BTreeSet<String>> =
+        Default::default();
+    for p in all {
+        let rel = p.strip_prefix(&root).unwrap().display().to_string();
+        let top = rel
+            .split('/')
+            .next()
+            .unwrap()
+            .trim_end_matches(".rs")
+            .to_string();
+        if top == "cli" || top == "main" || top == "lib" {
+            continue;
+        }
+        for (_, code) in src(&rel) {
+            for part in code.split("crate::").skip(1) {
+                let m: String = part
+                    .chars()
+                    .take_while(|c| c.is_ascii_lowercase() || *c == '_')
+                    .collect();
+                if !m.is_empty() && m != top && !m.chars().all(|c| c == '_') {
+                    uses.entry(top.clone()).or_default().insert(m);
+                }
+            }
+        }
+    }
+    // Depth-first search for a path back to each module.
+    let mut cycles = Vec::new();
+    for (a, targets) in &uses {
+        for b in targets {
+            let mut stack = vec![b.clone()];
+            let mut seen = std::collections::BTreeSet::new();
+            while let Some(x) = stack.pop() {
+                if &x == a {
+                    cycles.push(format!("{a} -> {b} -> … -> {a}"));
+                    break;
+                }
+                if seen.insert(x.clone()) {
+                    stack.extend(uses.get(&x).into_iter().flatten().cloned());
+                }
+            }
+        }
+    }
+    assert!(cycles.is_empty(), "{cycles:#?}\nuses: {uses:#?}");
+}

@@ -45,6 +45,14 @@ pub struct Materials<'a> {
 }
 
 impl<'a> Materials<'a> {
+    /// A job's material and named grades, as catalogue rows refer to them.
+    pub fn of(job: &'a crate::job::Job) -> Materials<'a> {
+        Materials {
+            base: &job.material,
+            grades: &job.grades,
+        }
+    }
+
     pub fn get(&self, m: &'a RowMaterial) -> &'a Material {
         match m {
             RowMaterial::Job => self.base,

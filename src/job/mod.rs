@@ -63,14 +63,6 @@ impl Job {
     pub fn prepare(&self) -> Result<crate::check::Prepared> {
         crate::check::Prepared::new(&self.beam, self.material.clone(), self.criteria.clone())
     }
-
-    /// The job's material and named grades, as catalogue rows refer to them.
-    pub fn materials(&self) -> crate::catalog::Materials<'_> {
-        crate::catalog::Materials {
-            base: &self.material,
-            grades: &self.grades,
-        }
-    }
 }
 
 /// Read a text file (a job file), reporting invalid UTF-8 as bad input at

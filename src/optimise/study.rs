@@ -8,7 +8,7 @@ use super::discrete::{self, Grid, GridOptions};
 use super::{Constraint, Objective, Optimum, Problem};
 use crate::check::{Group, Item, Prepared, SectionInput};
 use crate::error::Result;
-use crate::report::{self, member};
+use crate::member;
 use crate::units::{Show, System};
 use serde::Serialize;
 
@@ -144,7 +144,7 @@ pub fn study(title: &str, prob: &Problem, prep: &Prepared, opts: &StudyOptions) 
         not_checked: prep.not_checked(&d_props, None),
         excluded: prep.criteria.exclude.list(),
         assumptions: prep.assumptions(),
-        caution: report::CAUTION,
+        caution: crate::CAUTION,
     })
 }
 

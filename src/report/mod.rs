@@ -21,8 +21,7 @@ pub mod text;
 use serde::Serialize;
 
 /// The caution every human-readable result carries.
-pub const CAUTION: &str = "CAUTION: beamsift is an aid for a competent person, not a substitute for one. \
-Verify every result against the governing local code and licensed practice before it is used.";
+pub use crate::CAUTION;
 
 /// Column alignment.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize)]
