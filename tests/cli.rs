@@ -426,3 +426,68 @@ fn segment_locations_follow_the_units() {
     let si = text(&run(&args("si"))).0;
     assert!(si.contains("segment 0.000–2.000 m"), "{si}");
 }
+
+/// A shape given to `report` leaves the catalogue options nothing to act
+/// on: each is refused by name, never ignored.
+#[test]
+fn report_with_a_shape_refuses_catalogue_options() {
+    let job = repo("catalogs/demo-job.toml");
+    let dir = tempfile::tempdir().unwrap();
+    let to = dir.path().join("s");
+    for opt in [
+        &["--max-depth", "100mm"][..],
+        &["--section", "NB 360 L"],
+        &["--in-stock"],
+        &["--skip-bad-rows"],
+    ] {
+        let o = run(&[
+            &[
+                "report",
+                "--job",
+                job.to_str().unwrap(),
+                "--to",
+                to.to_str().unwrap(),
+            ][..],
+            opt,
+            &["rect", "b=100mm", "d=300mm"],
+        ]
+        .concat());
+        let (_, err) = text(&o);
+        assert_eq!(o.status.code(), Some(2), "{opt:?}: {err}");
+        assert!(err.contains(opt[0]), "{opt:?}: {err}");
+        assert!(std::fs::read_dir(dir.path()).unwrap().next().is_none());
+    }
+}
+
+/// A name that a spreadsheet would run as a formula is written as text
+/// (OWASP, "CSV Injection": prefix =, +, -, @ with an apostrophe).
+#[test]
+fn csv_defuses_formula_names() {
+    let dir = tempfile::tempdir().unwrap();
+    let cat = dir.path().join("stock.csv");
+    std::fs::write(
+        &cat,
+        "# invented test row (IPE 300 dimensions, from memory)\n\
+         name,shape,d [mm],bf [mm],tf [mm],tw [mm],r [mm]\n\
+         \"=HYPERLINK(\"\"http://x\"\")\",rolled-i,300,150,10.7,7.1,15\n",
+    )
+    .unwrap();
+    let job = repo("catalogs/demo-job.toml");
+    let o = run(&[
+        "select",
+        "--job",
+        job.to_str().unwrap(),
+        "-c",
+        cat.to_str().unwrap(),
+        "--format",
+        "csv",
+    ]);
+    let (out, err) = text(&o);
+    assert!(o.status.code().is_some_and(|c| c <= 1), "{err}");
+    assert!(out.contains("'=HYPERLINK"), "{out}");
+    assert!(
+        !out.lines()
+            .any(|l| l.starts_with("=HYPERLINK") || l.contains(",=HYPERLINK")),
+        "{out}"
+    );
+}

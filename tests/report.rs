@@ -289,7 +289,7 @@ fn names_from_the_job_are_escaped_in_both_formats() {
         .replace("name = \"test steel\"", "name = \"steel <img src=x onerror=1>\"")
         .replace(
             "[presets]",
-            "[[combination]]\nname = \"C <svg onload=1> |\"\nfactors = { dead = 1.0, live = 1.0 }\n[presets]",
+            "[[combination]]\nname = \"C <svg onload=1> | a\\\\|b\\n# PASSES [x](javascript:1)\"\nfactors = { dead = 1.0, live = 1.0 }\n[presets]",
         );
     let job = from_toml(&hostile, "hostile.toml").unwrap();
     let prep = Prepared::new(&job.beam, job.material.clone(), job.criteria.clone()).unwrap();
@@ -308,8 +308,14 @@ fn names_from_the_job_are_escaped_in_both_formats() {
         );
         assert!(text.contains("C &lt;svg onload=1&gt;"), "{what}");
     }
-    // In a pipe table the bar of a name is a character, not a column.
+    // In a pipe table the bar of a name is a character, not a column; a
+    // backslash before it stays a backslash (CommonMark §2.4).
     assert!(md.contains("C &lt;svg onload=1&gt; \\|"));
+    assert!(md.contains("a\\\\\\|b"), "backslash then bar");
+    // A line break in a name starts no heading, and a link in it is text.
+    assert!(!md.lines().any(|l| l.starts_with("# PASSES")), "{md}");
+    assert!(!md.contains("[x](javascript"), "a live link");
+    assert!(md.contains("[x]\\(javascript:1)"), "{md}");
     // Every table row of the Markdown keeps its header's column count.
     for block in md.split("\n\n").filter(|b| b.starts_with("| ")) {
         let cols = |l: &str| l.replace("\\|", "").matches('|').count();

@@ -59,6 +59,31 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         if !a.cat.catalog.is_empty() {
             return Err(Error::msg("give either a shape or --catalog, not both"));
         }
+        // Without a catalogue the catalogue options have nothing to act on:
+        // refused by name rather than ignored.
+        let c = &a.cat;
+        let idle: Vec<&str> = [
+            (a.section.is_some(), "--section"),
+            (c.delimiter != ",", "--delimiter"),
+            (c.skip_bad_rows, "--skip-bad-rows"),
+            (c.max_depth.is_some(), "--max-depth"),
+            (c.min_depth.is_some(), "--min-depth"),
+            (c.max_width.is_some(), "--max-width"),
+            (c.grade.is_some(), "--grade"),
+            (c.in_stock, "--in-stock"),
+            (c.name.is_some(), "--name"),
+            (c.jobs.is_some(), "--jobs"),
+        ]
+        .into_iter()
+        .filter_map(|(set, name)| set.then_some(name))
+        .collect();
+        if !idle.is_empty() {
+            return Err(Error::msg(format!(
+                "{} select(s) rows of a catalogue, and a shape was given instead: leave {} out, or give --catalog FILE without the shape",
+                idle.join(", "),
+                if idle.len() == 1 { "it" } else { "them" }
+            )));
+        }
         let shape = shape_from_pairs(fam, &split_pairs(dims)?)?;
         let p = shape.properties()?;
         let subject = Subject {
@@ -101,7 +126,19 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         let note = sheet::scan_note(&sel, &opts.filters, a.cat.skip_bad_rows);
         let mut written = match &a.section {
             Some(n) => {
-                let c = sel.named(n)?;
+                let c = sel.named(n).map_err(|e| {
+                    let f = opts.filters.describe();
+                    // The name filter is the section itself.
+                    let others: Vec<&String> = f.iter().filter(|d| !d.starts_with("names matching")).collect();
+                    if others.is_empty() {
+                        e
+                    } else {
+                        Error::msg(format!(
+                            "{e}, among the rows the filters let through ({}): it may have been left out by them",
+                            others.iter().map(|s| s.as_str()).collect::<Vec<_>>().join(", ")
+                        ))
+                    }
+                })?;
                 let m = mats.get(&c.material).clone();
                 let subject = Subject {
                     name: &c.name,

@@ -8,7 +8,8 @@
 //! carriage return or newline needs it). In a numeric (right-aligned)
 //! column a number shown with thousands separators (`12,345.6`) loses
 //! them so a spreadsheet reads a number; text columns (names, marks) are
-//! written exactly as they are, commas included.
+//! written as they are, commas included (a cell that would start a
+//! spreadsheet formula is prefixed with an apostrophe).
 
 use super::{Block, Document};
 
@@ -32,9 +33,15 @@ fn grouped_number(s: &str) -> Option<String> {
     Some(s.replace(',', ""))
 }
 
+/// A cell. A text cell that a spreadsheet would run as a formula (it
+/// starts with `=`, `+`, `-`, `@`, a tab or a carriage return: names come
+/// from user files) is written with a leading apostrophe, as the OWASP
+/// guidance on CSV injection advises.
 fn cell(s: &str, numeric: bool) -> String {
     if numeric {
         grouped_number(s).unwrap_or_else(|| s.to_string())
+    } else if s.starts_with(['=', '+', '-', '@', '\t', '\r']) {
+        format!("'{s}")
     } else {
         s.to_string()
     }

@@ -4,22 +4,62 @@
 //!
 //! Escaping, in one place: text outside code is written with `&`, `<` and
 //! `>` as entities (a Markdown viewer renders raw HTML, and names and
-//! titles come from user files), and `|` as `\|` inside table cells. The
-//! working of a check is an indented code block, where entities are not
-//! read: it is written as it is.
+//! titles come from user files), the markup that could start a link, an
+//! image, emphasis or code — `\`, `` ` ``, `*`, `_` between words' ends,
+//! `[` and `(` after `]`, a leading `[` or `#` — backslash-escaped
+//! (CommonMark 0.31.2 §2.4), line breaks folded into
+//! spaces (a name cannot start a heading or a list), and `|` as `\|`
+//! inside table cells. The working of a check is an indented code block,
+//! where nothing is read as markup: it is written as it is, its line
+//! breaks folded likewise.
 
 use super::{Align, Block, Document, Table};
 
 /// Text outside code blocks.
 pub fn text(s: &str) -> String {
-    s.replace('&', "&amp;")
-        .replace('<', "&lt;")
-        .replace('>', "&gt;")
+    let chars: Vec<char> = s.chars().collect();
+    let mut out = String::with_capacity(s.len());
+    for (i, &c) in chars.iter().enumerate() {
+        let before = i.checked_sub(1).map(|j| chars[j]);
+        let after = chars.get(i + 1).copied();
+        let word = |x: Option<char>| x.is_some_and(char::is_alphanumeric);
+        let escape = match c {
+            '\\' | '`' | '*' => true,
+            // Intraword underscores (y_c) make no emphasis (CommonMark §6.2).
+            '_' => !(word(before) && word(after)),
+            // A link or image needs "](" or "][" (§6.3, §6.4), a reference
+            // definition a leading "[" (§4.7): "[kN]" alone stays as it is.
+            '[' => i == 0 || matches!(before, Some(']' | '!')),
+            '(' => before == Some(']'),
+            _ => false,
+        };
+        match c {
+            '&' => out.push_str("&amp;"),
+            '<' => out.push_str("&lt;"),
+            '>' => out.push_str("&gt;"),
+            '\r' | '\n' => out.push(' '),
+            c => {
+                if escape {
+                    out.push('\\');
+                }
+                out.push(c);
+            }
+        }
+    }
+    if out.starts_with('#') {
+        out.insert(0, '\\');
+    }
+    out
+}
+
+/// A line of code (the working of a check): one line, as it is.
+fn code(s: &str) -> String {
+    s.replace(['\r', '\n'], " ")
 }
 
 /// A table cell (or header).
 fn cell(s: &str) -> String {
-    text(s).replace('|', "\\|").replace(['\r', '\n'], " ")
+    text(s).replace('|', "\\|")
 }
 
 pub fn table(t: &Table) -> String {
@@ -79,20 +119,20 @@ pub fn render(doc: &Document) -> String {
             }
             Block::Figure(f) => out.push_str(&format!(
                 "![{}](data:image/svg+xml;base64,{})\n\n",
-                text(&f.caption).replace(['[', ']'], ""),
+                text(&f.caption),
                 super::sheet::base64(f.svg.as_bytes())
             )),
             Block::Check(heading, c) => {
                 out.push_str(&format!("### {}\n\n", text(heading)));
-                out.push_str(&format!("    {}\n", c.formula));
+                out.push_str(&format!("    {}\n", code(&c.formula)));
                 for line in &c.substitution {
-                    out.push_str(&format!("      {line}\n"));
+                    out.push_str(&format!("      {}\n", code(line)));
                 }
-                out.push_str(&format!("      {}\n", c.result));
-                out.push_str(&format!("    allowable: {}\n", c.allowable));
+                out.push_str(&format!("      {}\n", code(&c.result)));
+                out.push_str(&format!("    allowable: {}\n", code(&c.allowable)));
                 out.push_str(&format!(
                     "    utilisation: {} — {}\n\n",
-                    c.utilisation,
+                    code(&c.utilisation),
                     if c.passes { "passes" } else { "FAILS" }
                 ));
             }

@@ -202,8 +202,12 @@ pub fn document(result: &Study, source: &LimitSource, sys: System) -> Document {
     if !notes.is_empty() {
         doc.list("Notes:", notes);
     }
+    // Welds and stiffeners are in the section's own list (plate shapes);
+    // the slenderness limits apply to plate families, not to a rectangle.
     let mut nc = result.not_checked.clone();
-    nc.push("welds between plates, stiffeners, and local buckling beyond the slenderness limits stated above".into());
+    if fam != Family::Rect {
+        nc.push("local buckling beyond the slenderness limits stated above".into());
+    }
     doc.caution(nc);
     doc
 }
