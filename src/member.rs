@@ -151,6 +151,15 @@ fn segment_words(x1: f64, x2: f64, sys: System) -> String {
 }
 
 impl Line {
+    /// Where the line is, in the display units: its unbraced segment, or
+    /// its span or overhang and the position along the beam.
+    pub fn location(&self, sys: System) -> String {
+        match self.segment {
+            Some(_) => self.part_shown(sys),
+            None => format!("{}, x = {}", self.part, Show::Span.fmt(self.x, sys)),
+        }
+    }
+
     /// The part in the display units (a segment's ends are positions).
     pub fn part_shown(&self, sys: System) -> String {
         match self.segment {
@@ -262,11 +271,6 @@ pub fn member_check(
         supports_x,
         caution: CAUTION,
     }
-}
-
-/// Convenience: the kinds of section value a reader may want.
-pub fn section_input(props: &Properties, mass: f64) -> SectionInput<'_> {
-    SectionInput::new(props, mass)
 }
 
 /// The diagrams of the governing combinations: V and M of the strength

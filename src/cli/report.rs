@@ -1,4 +1,5 @@
-//! `beamsift report`, and the `--report` option of check, select and optimise:
+//! `beamsift report` (the `--report` option of check and select writes the
+//! same sheet):
 //! a calculation sheet as Markdown and HTML.
 
 use super::Out;
@@ -123,11 +124,11 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
             ..ScanOptions::default()
         };
         let (sel, _) = run_scan(&job, &prep, &a.cat, &opts)?;
-        let note = sheet::scan_note(&sel, &opts.filters, a.cat.skip_bad_rows);
+        let note = sheet::scan_note(&sel, &opts.filters, a.cat.skip_bad_rows, sys);
         let mut written = match &a.section {
             Some(n) => {
                 let c = sel.named(n).map_err(|e| {
-                    let f = opts.filters.describe();
+                    let f = opts.filters.describe(sys);
                     // The name filter is the section itself.
                     let others: Vec<&String> = f.iter().filter(|d| !d.starts_with("names matching")).collect();
                     if others.is_empty() {

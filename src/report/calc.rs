@@ -67,10 +67,7 @@ pub fn written_checks(r: &MemberCheck, sys: System) -> Vec<WrittenCheck> {
     r.lines
         .iter()
         .map(|l| {
-            let location = match l.check {
-                CheckKind::LateralTorsional => l.part_shown(sys),
-                _ => format!("{}, x = {}", l.part, Show::Span.fmt(l.x, sys)),
-            };
+            let location = l.location(sys);
             let w = &l.working;
             let terms: Vec<String> = w
                 .terms

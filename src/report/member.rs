@@ -3,7 +3,7 @@
 //! sheet.
 
 pub use crate::member::{
-    Diagram, Line, MemberCheck, Settlement, line, member_check, part_at, part_of, section_input,
+    Diagram, Line, MemberCheck, Settlement, line, member_check, part_at, part_of,
 };
 
 use super::{Align, Document, Table};
@@ -11,14 +11,6 @@ use crate::beam::model::{ComboKind, Support};
 use crate::check::CheckKind;
 use crate::job::Job;
 use crate::units::{Show, System};
-
-fn fmt_part(l: &Line, sys: System) -> String {
-    if l.segment.is_some() {
-        l.part_shown(sys)
-    } else {
-        format!("{}, x = {}", l.part, Show::Span.fmt(l.x, sys))
-    }
-}
 
 /// (action, demand, capacity) formatted for a line.
 pub fn fmt_values(l: &Line, sys: System) -> (String, String, String) {
@@ -298,7 +290,7 @@ pub fn document(job: &Job, r: &MemberCheck, sys: System) -> Document {
         t.row(vec![
             l.check.short().to_string(),
             l.combination.clone(),
-            fmt_part(l, sys),
+            l.location(sys),
             a,
             d,
             c,
@@ -325,7 +317,7 @@ Utilisation = demand / capacity (allowable strength: nominal/Ω).",
             r.utilisation,
             g.label,
             g.combination,
-            fmt_part(g, sys)
+            g.location(sys)
         )),
         None => doc.para(format!(
             "{}: no check line was evaluated.",

@@ -102,10 +102,15 @@ pub fn alternatives(list: &[Candidate], skip: &str, sys: System) -> Option<Table
 
 /// How the scan that found a sheet's section read its catalogue: rows
 /// read, the filters and what they left out, bad rows skipped.
-pub fn scan_note(sel: &Selection, filters: &crate::search::Filters, skip_bad_rows: bool) -> String {
+pub fn scan_note(
+    sel: &Selection,
+    filters: &crate::search::Filters,
+    skip_bad_rows: bool,
+    sys: System,
+) -> String {
     let c = &sel.counts;
     let mut s = format!("chosen among {} row(s) read", c.rows);
-    let f = filters.describe();
+    let f = filters.describe(sys);
     if !f.is_empty() {
         s.push_str(&format!(
             ", filtered to {} ({} row(s) left out)",

@@ -46,8 +46,8 @@ pub fn glob(pattern: &str, s: &str) -> bool {
 impl Filters {
     /// The filters in words (empty when none is set), e.g. "in stock only,
     /// depth at most 350 mm".
-    pub fn describe(&self) -> Vec<String> {
-        let mm = |v: f64| format!("{} mm", crate::units::fmt_num(v));
+    pub fn describe(&self, sys: crate::units::System) -> Vec<String> {
+        let mm = |v: f64| crate::units::Show::Dimension.fmt(v, sys);
         let mut out = Vec::new();
         if let Some(v) = self.max_depth {
             out.push(format!("depth at most {}", mm(v)));
