@@ -491,3 +491,51 @@ fn csv_defuses_formula_names() {
         "{out}"
     );
 }
+
+/// `batch --objective cost` sizes each member by price: with an invented
+/// stock list where the heavier NB 200 L costs 20/m and the lighter
+/// NB 160 L 99/m, the lintel L1 (2.4 m, both pass) takes NB 200 L by cost
+/// and NB 160 L by mass; the bill totals follow the choice (2 × 2.4 m ×
+/// 20/m = 96 for L1 alone).
+#[test]
+fn batch_by_cost_picks_the_cheapest_passing_section() {
+    let dir = tempfile::tempdir().unwrap();
+    let cat = dir.path().join("stock.csv");
+    std::fs::write(
+        &cat,
+        "# invented prices for the test; dimensions as the demo list\n\
+         name,shape,d [mm],bf [mm],tf [mm],tw [mm],r [mm],mass [kg/m],cost [EUR/m]\n\
+         NB 160 L,rolled-i,160,90,8.0,5.1,10,17.7,99.0\n\
+         NB 200 L,rolled-i,200,110,9.1,5.8,12,25.0,20.0\n",
+    )
+    .unwrap();
+    let sched = dir.path().join("s.csv");
+    std::fs::write(
+        &sched,
+        "# invented member for the test\nmark,count,spans [m],dead [kN/m],live [kN/m],bracing\nL1,2,2.4,6.5,2.4,continuous\n",
+    )
+    .unwrap();
+    let job = repo("catalogs/demo-job.toml");
+    let pick = |objective: &str| -> serde_json::Value {
+        let o = run(&[
+            "batch",
+            "--schedule",
+            sched.to_str().unwrap(),
+            "--job",
+            job.to_str().unwrap(),
+            "-c",
+            cat.to_str().unwrap(),
+            "--objective",
+            objective,
+            "--json",
+        ]);
+        assert!(o.status.success(), "{}", text(&o).1);
+        serde_json::from_slice(&o.stdout).unwrap()
+    };
+    let by_cost = pick("cost");
+    assert_eq!(by_cost["members"][0]["section"], "NB 200 L");
+    let total = by_cost["total_cost"].as_f64().unwrap();
+    assert!((total - 96.0).abs() < 1e-6, "{total}");
+    let by_mass = pick("mass");
+    assert_eq!(by_mass["members"][0]["section"], "NB 160 L");
+}
