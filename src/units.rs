@@ -555,6 +555,15 @@ pub enum System {
     Us,
 }
 
+impl System {
+    /// Every choice with its name (the serde name where it has one) and
+    /// a line of help, for front ends that list the choices.
+    pub const CHOICES: &[(Self, &str, &str)] = &[
+        (Self::Si, "si", "SI: mm, m, kN, kN·m, MPa"),
+        (Self::Us, "us", "US customary: in, ft, kip, kip·ft, ksi"),
+    ];
+}
+
 /// What a printed number means, which decides its display unit.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, serde::Serialize, serde::Deserialize)]
 #[serde(rename_all = "snake_case")]
