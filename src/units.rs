@@ -522,6 +522,13 @@ pub fn parse_number(text: &str) -> Result<f64> {
     }
 }
 
+/// Parse an optional quantity of `dim` (an option that may be absent);
+/// errors name `field`.
+pub fn parse_field(text: Option<&str>, dim: Dim, field: &str) -> Result<Option<f64>> {
+    text.map(|t| parse(t, dim).map_err(|e| e.in_field(field)))
+        .transpose()
+}
+
 /// Parse a list such as `"6,8,10mm"` (one unit at the end, applying to
 /// every bare number) or `"4m,5.5m"` (a unit on each) as quantities of
 /// `dim`; errors name `field`.

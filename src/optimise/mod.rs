@@ -24,6 +24,7 @@
 
 pub mod discrete;
 pub mod families;
+pub mod options;
 pub mod study;
 
 use crate::check::{Group, Material, Prepared, SectionInput};
@@ -32,6 +33,7 @@ use crate::section::Shape;
 use argmin::core::{CostFunction, Executor, State};
 use argmin::solver::neldermead::NelderMead;
 pub use families::{Axis, FamilyKind, Limits};
+pub use options::Options;
 use rayon::prelude::*;
 use serde::{Deserialize, Serialize};
 pub use study::{Sensitivity, Study, StudyOptions, Variant, study};
