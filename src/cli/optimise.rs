@@ -4,7 +4,6 @@
 use super::Out;
 use super::jobargs::JobArgs;
 use super::output::emit;
-use beamsift::check::Prepared;
 use beamsift::error::Result;
 use beamsift::optimise::{self, Family, Objective};
 use beamsift::report;
@@ -103,7 +102,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     options.refuse_inapplicable()?;
     let job = a.job.load()?;
     let sys = out.units;
-    let prep = Prepared::new(&job.beam, job.material.clone(), job.criteria.clone())?;
+    let prep = job.prepare()?;
     let (prob, opts) = options.build(&job.material, sys)?;
     let result = optimise::study(&job.title, &prob, &prep, &opts)?;
     let source = LimitSource {

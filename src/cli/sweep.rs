@@ -4,7 +4,6 @@ use super::Out;
 use super::catargs::CatalogArgs;
 use super::jobargs::JobArgs;
 use super::output::{emit, write_atomic};
-use beamsift::catalog::Materials;
 use beamsift::error::Result;
 use beamsift::job::Job;
 use beamsift::optimise::Family;
@@ -78,20 +77,12 @@ pub struct TableArgs {
     pub chart: Option<PathBuf>,
 }
 
-/// The job's material and grades, as the rows refer to them.
-fn materials(job: &Job) -> Materials<'_> {
-    Materials {
-        base: &job.material,
-        grades: &job.grades,
-    }
-}
-
 fn load(job: &Job, cat: &CatalogArgs) -> Result<(Vec<Candidate>, search::Counts)> {
     cat.setup_threads()?;
     let (cats, _) = cat.open()?;
     let (rows, c, _) = search::load_rows(
         cats,
-        &materials(job),
+        &job.materials(),
         cat.skip_bad_rows,
         &cat.filters_for(job)?,
     )?;
@@ -120,7 +111,7 @@ pub fn run(cmd: Cmd, out: &Out) -> Result<i32> {
 fn run_lightest(a: LightestArgs, out: &Out) -> Result<i32> {
     let job = a.job.load()?;
     let spans = sweep::options::spans(&a.spans, a.optimise.is_some())?;
-    let mats = materials(&job);
+    let mats = job.materials();
     let sys = out.units;
     // One reading of the catalogues for every span.
     a.cat.setup_threads()?;
@@ -165,7 +156,7 @@ fn run_table(a: TableArgs, out: &Out) -> Result<i32> {
     let (columns, beams) = flags.columns(&job.beam)?;
     let opts = flags.options(out.units)?;
     let (rows, counts) = load(&job, &a.cat)?;
-    let mats = materials(&job);
+    let mats = job.materials();
     let pb = super::progress::count_bar(rows.len() as u64, a.cat.quiet, "sections");
     let cells = sweep::span_table(
         &beams,

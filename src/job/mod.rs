@@ -64,6 +64,15 @@ impl Job {
         crate::check::Prepared::new(&self.beam, self.material.clone(), self.criteria.clone())
     }
 
+    /// The currency to print: the job's, else the first catalogue's
+    /// (`cats`), else "cost".
+    pub fn currency_or(&self, cats: &[String]) -> String {
+        self.currency
+            .clone()
+            .or_else(|| cats.first().cloned())
+            .unwrap_or_else(|| "cost".into())
+    }
+
     /// The job's material and named grades, as catalogue rows refer to them.
     pub fn materials(&self) -> crate::catalog::Materials<'_> {
         crate::catalog::Materials {
