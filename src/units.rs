@@ -522,6 +522,13 @@ pub fn parse_number(text: &str) -> Result<f64> {
     }
 }
 
+/// Parse an optional quantity of `dim` (an option that may be absent);
+/// errors name `field`.
+pub fn parse_field(text: Option<&str>, dim: Dim, field: &str) -> Result<Option<f64>> {
+    text.map(|t| parse(t, dim).map_err(|e| e.in_field(field)))
+        .transpose()
+}
+
 /// Parse a list such as `"6,8,10mm"` (one unit at the end, applying to
 /// every bare number) or `"4m,5.5m"` (a unit on each) as quantities of
 /// `dim`; errors name `field`.
@@ -553,6 +560,15 @@ pub enum System {
     Si,
     /// US customary: in, ft, kip, kip·ft, ksi.
     Us,
+}
+
+impl System {
+    /// Every choice with its name (the serde name where it has one) and
+    /// a line of help, for front ends that list the choices.
+    pub const CHOICES: &[(Self, &str, &str)] = &[
+        (Self::Si, "si", "SI: mm, m, kN, kN·m, MPa"),
+        (Self::Us, "us", "US customary: in, ft, kip, kip·ft, ksi"),
+    ];
 }
 
 /// What a printed number means, which decides its display unit.

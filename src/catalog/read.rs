@@ -16,6 +16,23 @@ pub struct ReadOptions {
     pub delimiter: u8,
 }
 
+impl ReadOptions {
+    /// The options for a delimiter given as text: one character, or
+    /// `tab` (or `\t`).
+    pub fn from_delimiter(text: &str) -> Result<Self> {
+        let delimiter = match text {
+            "tab" | "\\t" => b'\t',
+            s if s.len() == 1 => s.as_bytes()[0],
+            s => {
+                return Err(Error::msg(format!(
+                    "--delimiter '{s}': expected one character or 'tab'"
+                )));
+            }
+        };
+        Ok(ReadOptions { delimiter })
+    }
+}
+
 impl Default for ReadOptions {
     fn default() -> Self {
         ReadOptions { delimiter: b',' }

@@ -5,7 +5,6 @@ use super::Out;
 use super::jobargs::JobArgs;
 use super::output::emit;
 use beamsift::beam::analysis;
-use beamsift::check::Prepared;
 use beamsift::error::{Error, Result};
 use beamsift::report;
 use beamsift::report::analysis::{Basis, document};
@@ -71,7 +70,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
                 .transpose()?;
         (ix, 0.0, None)
     };
-    let prep = Prepared::new(&job.beam, job.material.clone(), job.criteria.clone())?;
+    let prep = job.prepare()?;
     let d = &prep.demand;
     let w = prep.self_weight(mass);
     let ei = ix.map(|i| i * job.material.e);

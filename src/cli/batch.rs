@@ -95,7 +95,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         .iter()
         .filter_map(|c| c.schema.currency.clone())
         .collect();
-    let cur = super::catargs::currency(&template, &currencies);
+    let cur = template.currency_or(&currencies);
     let mats = Materials {
         base: &template.material,
         grades: &template.grades,

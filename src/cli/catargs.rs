@@ -1,14 +1,12 @@
 //! Catalogue options shared by select, shortlist and batch.
 
 use super::progress;
-use beamsift::catalog::Materials;
 use beamsift::catalog::read::{self, Catalog, ReadOptions};
 use beamsift::check::Prepared;
 use beamsift::error::{Error, Result};
 use beamsift::job::Job;
 use beamsift::search::Filters;
 use beamsift::search::{self, ScanOptions, Selection};
-use beamsift::units::{self, Dim};
 use std::path::PathBuf;
 
 #[derive(clap::Args, Debug, Clone)]
@@ -56,48 +54,25 @@ pub use beamsift::catalog::input::Input;
 
 impl CatalogArgs {
     pub fn options(&self) -> Result<ReadOptions> {
-        let d = match self.delimiter.as_str() {
-            "tab" | "\\t" => b'\t',
-            s if s.len() == 1 => s.as_bytes()[0],
-            s => {
-                return Err(Error::msg(format!(
-                    "--delimiter '{s}': expected one character or 'tab'"
-                )));
-            }
-        };
-        Ok(ReadOptions { delimiter: d })
+        ReadOptions::from_delimiter(&self.delimiter)
     }
 
-    /// The filters, checked against the job: a grade the job does not
-    /// define can match no row (rows naming it are refused), so it is
-    /// refused here rather than filtering everything out silently.
-    pub fn filters_for(&self, job: &beamsift::job::Job) -> Result<Filters> {
-        if let Some(g) = &self.grade
-            && !job.grades.iter().any(|(n, _)| n.eq_ignore_ascii_case(g))
-        {
-            let known: Vec<&str> = job.grades.iter().map(|(n, _)| n.as_str()).collect();
-            return Err(Error::msg(format!(
-                "--grade {g}: the job defines no such grade (expected one of [{}]; grades are [materials.NAME] tables)",
-                known.join(", ")
-            )));
-        }
+    /// The filters, checked against the job (a grade it does not define
+    /// is refused).
+    pub fn filters_for(&self, job: &Job) -> Result<Filters> {
+        Filters::check_grade(self.grade.as_deref(), job)?;
         self.filters()
     }
 
     pub fn filters(&self) -> Result<Filters> {
-        let len = |v: &Option<String>, n: &str| -> Result<Option<f64>> {
-            v.as_deref()
-                .map(|t| units::parse(t, Dim::Length).map_err(|e| e.in_field(n)))
-                .transpose()
-        };
-        Ok(Filters {
-            max_depth: len(&self.max_depth, "--max-depth")?,
-            min_depth: len(&self.min_depth, "--min-depth")?,
-            max_width: len(&self.max_width, "--max-width")?,
-            grade: self.grade.clone(),
-            in_stock_only: self.in_stock,
-            name: self.name.clone(),
-        })
+        Filters::parse(
+            self.max_depth.as_deref(),
+            self.min_depth.as_deref(),
+            self.max_width.as_deref(),
+            self.grade.clone(),
+            self.in_stock,
+            self.name.clone(),
+        )
     }
 
     /// The inputs, named (and streams read) once per run.
@@ -130,15 +105,8 @@ impl CatalogArgs {
 
     pub fn setup_threads(&self) -> Result<()> {
         if let Some(n) = self.jobs {
-            // More workers than cores only add memory and switching: at
-            // most four per core (and 256).
             let cores = std::thread::available_parallelism().map_or(1, |c| c.get());
-            let max = (4 * cores).min(256);
-            if n == 0 || n > max {
-                return Err(Error::msg(format!(
-                    "--jobs {n}: expected 1 to {max} (four per core on this machine)"
-                )));
-            }
+            search::check_workers(n, cores)?;
             if let Err(e) = rayon::ThreadPoolBuilder::new()
                 .num_threads(n)
                 .build_global()
@@ -158,19 +126,6 @@ impl CatalogArgs {
     }
 }
 
-/// The currency to print.
-pub fn currency(job: &Job, cats: &[String]) -> String {
-    job.currency
-        .clone()
-        .or_else(|| cats.first().cloned())
-        .unwrap_or_else(|| "cost".into())
-}
-
-/// The prepared demand of a job.
-pub fn prepare(job: &Job) -> Result<Prepared> {
-    Prepared::new(&job.beam, job.material.clone(), job.criteria.clone())
-}
-
 pub fn run_scan(
     job: &Job,
     prep: &Prepared,
@@ -183,15 +138,12 @@ pub fn run_scan(
         .iter()
         .filter_map(|c| c.schema.currency.clone())
         .collect();
-    let mats = Materials {
-        base: &job.material,
-        grades: &job.grades,
-    };
+    let mats = beamsift::catalog::Materials::of(job);
     drop(cats);
     let pb = progress::bytes_bar(bytes, cat.quiet);
     // The files are opened again for the exact duplicate confirmation.
     let open = || cat.open().map(|(c, _)| c);
     let sel = search::scan_checked(prep, &open, &mats, opts, &|_, b| pb.set_position(b))?;
     pb.finish_and_clear();
-    Ok((sel, currency(job, &currencies)))
+    Ok((sel, job.currency_or(&currencies)))
 }

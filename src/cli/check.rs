@@ -3,7 +3,6 @@
 use super::Out;
 use super::jobargs::JobArgs;
 use super::output::emit;
-use beamsift::check::Prepared;
 use beamsift::report::{self, member, sheet};
 use beamsift::section::spec::{shape_from_pairs, split_pairs};
 
@@ -35,7 +34,7 @@ pub fn run(a: Args, out: &Out) -> beamsift::Result<i32> {
     let job = a.job.load()?;
     let props = shape.properties()?;
     let mass = props.mass_per_length(job.material.density);
-    let prep = Prepared::new(&job.beam, job.material.clone(), job.criteria.clone())?;
+    let prep = job.prepare()?;
     let result = member::member_check(&job, &prep, &shape.describe(out.units), &props, mass, None);
     let doc = member::document(&job, &result, out.units);
     emit(out, &report::render(out.format, &result, &doc))?;

@@ -3,7 +3,7 @@
 //! a calculation sheet as Markdown and HTML.
 
 use super::Out;
-use super::catargs::{CatalogArgs, prepare, run_scan};
+use super::catargs::{CatalogArgs, run_scan};
 use super::jobargs::JobArgs;
 use super::output::{emit, write_sheet};
 use beamsift::error::{Error, Result};
@@ -50,7 +50,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         .in_field("--format"));
     }
     let job = a.job.load()?;
-    let prep = prepare(&job)?;
+    let prep = job.prepare()?;
     let sys = out.units;
     let mats = beamsift::catalog::Materials {
         base: &job.material,

@@ -1,7 +1,7 @@
 //! `beamsift select` and `beamsift shortlist`: scan catalogues, rank what
 //! passes, and price a shortlist.
 
-use super::catargs::{CatalogArgs, prepare, run_scan};
+use super::catargs::{CatalogArgs, run_scan};
 use super::jobargs::JobArgs;
 use super::output::emit;
 use super::{EXIT_FAILS, Out};
@@ -68,7 +68,7 @@ pub struct ShortlistArgs {
 
 pub fn run(a: Args, out: &Out) -> Result<i32> {
     let job = a.job.load()?;
-    let prep = prepare(&job)?;
+    let prep = job.prepare()?;
     let top = if a.all { usize::MAX } else { a.top.max(1) };
     let opts = ScanOptions {
         ranks: vec![(a.rank, top)],
@@ -118,7 +118,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
 
 pub fn run_shortlist(a: ShortlistArgs, out: &Out) -> Result<i32> {
     let job = a.job.load()?;
-    let prep = prepare(&job)?;
+    let prep = job.prepare()?;
     let length = match &a.length {
         Some(t) => {
             let l = units::parse(t, Dim::Length).map_err(|e| e.in_field("--length"))?;

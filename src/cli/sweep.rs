@@ -4,8 +4,7 @@ use super::Out;
 use super::catargs::CatalogArgs;
 use super::jobargs::JobArgs;
 use super::output::{emit, write_atomic};
-use beamsift::catalog::Materials;
-use beamsift::error::{Error, Result};
+use beamsift::error::Result;
 use beamsift::job::Job;
 use beamsift::optimise::Family;
 use beamsift::report;
@@ -14,8 +13,7 @@ use beamsift::report::sweep::{
     table_document,
 };
 use beamsift::search::{self, Candidate};
-use beamsift::sweep::{self, Column, TableOptions};
-use beamsift::units::{self, Dim, Show};
+use beamsift::sweep::{self, TableFlags};
 use std::path::{Path, PathBuf};
 
 pub const EXAMPLES: &str = "Examples:
@@ -79,30 +77,12 @@ pub struct TableArgs {
     pub chart: Option<PathBuf>,
 }
 
-fn parse_spans(text: &str) -> Result<Vec<f64>> {
-    if let Some((range, step)) = text.split_once(':')
-        && let Some((a, b)) = range.split_once("..")
-    {
-        let p = |t: &str| units::parse(t, Dim::Length).map_err(|e| e.in_field("--spans"));
-        return sweep::span_range(p(a)?, p(b)?, p(step)?);
-    }
-    units::parse_list(text, Dim::Length, "--spans")
-}
-
-/// The job's material and grades, as the rows refer to them.
-fn materials(job: &Job) -> Materials<'_> {
-    Materials {
-        base: &job.material,
-        grades: &job.grades,
-    }
-}
-
 fn load(job: &Job, cat: &CatalogArgs) -> Result<(Vec<Candidate>, search::Counts)> {
     cat.setup_threads()?;
     let (cats, _) = cat.open()?;
     let (rows, c, _) = search::load_rows(
         cats,
-        &materials(job),
+        &beamsift::catalog::Materials::of(job),
         cat.skip_bad_rows,
         &cat.filters_for(job)?,
     )?;
@@ -130,24 +110,8 @@ pub fn run(cmd: Cmd, out: &Out) -> Result<i32> {
 
 fn run_lightest(a: LightestArgs, out: &Out) -> Result<i32> {
     let job = a.job.load()?;
-    let spans = parse_spans(&a.spans)?;
-    // Each span is a prepared job checked against the catalogue (and with
-    // --optimise an optimisation, about 50 ms): bound the work a typo in a
-    // range can ask for.
-    let most = if a.optimise.is_some() { 200 } else { 1000 };
-    if spans.len() > most {
-        return Err(Error::msg(format!(
-            "{} spans asked for, more than the {most} one sweep takes{}: use a larger step",
-            spans.len(),
-            if a.optimise.is_some() {
-                " with --optimise"
-            } else {
-                ""
-            }
-        ))
-        .in_field("--spans"));
-    }
-    let mats = materials(&job);
+    let spans = sweep::options::spans(&a.spans, a.optimise.is_some())?;
+    let mats = beamsift::catalog::Materials::of(&job);
     let sys = out.units;
     // One reading of the catalogues for every span.
     a.cat.setup_threads()?;
@@ -183,83 +147,16 @@ fn run_lightest(a: LightestArgs, out: &Out) -> Result<i32> {
 
 fn run_table(a: TableArgs, out: &Out) -> Result<i32> {
     let job = a.job.load()?;
-    let mut columns = Vec::new();
-    let mut beams = Vec::new();
-    match (&a.spacings, &a.live_levels) {
-        (Some(_), Some(_)) => return Err(Error::msg("give --spacings or --live-levels, not both")),
-        (Some(s), None) => {
-            for w in units::parse_list(s, Dim::Length, "--spacings")? {
-                let c = Column::Spacing(w);
-                beams.push(c.beam(&job.beam).ok_or_else(|| {
-                    Error::msg(
-                        "--spacings needs area loads in the job (a [[load]] with area and width)",
-                    )
-                })?);
-                columns.push(c);
-            }
-        }
-        (None, Some(s)) => {
-            for part in s.split(',') {
-                let unit: String = s
-                    .rsplit(|c: char| c.is_ascii_digit() || c == '.')
-                    .next()
-                    .unwrap_or("")
-                    .to_string();
-                let t = if part
-                    .trim()
-                    .chars()
-                    .last()
-                    .is_some_and(|c| c.is_ascii_digit())
-                {
-                    format!("{}{unit}", part.trim())
-                } else {
-                    part.trim().to_string()
-                };
-                let p = units::parse(&t, Dim::AreaLoad).map_err(|e| e.in_field("--live-levels"))?;
-                let c = Column::LivePressure(p);
-                beams.push(c.beam(&job.beam).ok_or_else(|| {
-                    Error::msg("--live-levels needs live area loads in the job (a [[load]] of a live case with area and width)")
-                })?);
-                columns.push(c);
-            }
-        }
-        (None, None) => {
-            beams.push(job.beam.clone());
-            columns.push(Column::AsGiven);
-        }
-    }
-    let round = a
-        .round
-        .as_deref()
-        .map(|t| units::parse(t, Dim::Length).map_err(|e| e.in_field("--round")))
-        .transpose()?;
-    let tolerance = units::parse(a.tolerance.as_deref().unwrap_or("1mm"), Dim::Length)
-        .map_err(|e| e.in_field("--tolerance"))?;
-    // Ranges: a tolerance from 0.001 mm to 100 mm; rounding from 1 mm to
-    // 1 m (a step that rounds down, never up).
-    if !(1e-3..=100.0).contains(&tolerance) {
-        return Err(Error::msg(format!(
-            "{}: expected a tolerance from 0.001 mm to 100 mm",
-            Show::Dimension.fmt(tolerance, out.units)
-        ))
-        .in_field("--tolerance"));
-    }
-    if let Some(r) = round
-        && !(1.0..=1000.0).contains(&r)
-    {
-        return Err(Error::msg(format!(
-            "{}: expected a rounding step from 1 mm to 1 m (spans are rounded down to a multiple of it)",
-            Show::Dimension.fmt(r, out.units)
-        ))
-        .in_field("--round"));
-    }
-    let opts = TableOptions {
-        tolerance,
-        round,
-        ..TableOptions::default()
+    let flags = TableFlags {
+        spacings: a.spacings.clone(),
+        live_levels: a.live_levels.clone(),
+        round: a.round.clone(),
+        tolerance: a.tolerance.clone(),
     };
+    let (columns, beams) = flags.columns(&job.beam)?;
+    let opts = flags.options(out.units)?;
     let (rows, counts) = load(&job, &a.cat)?;
-    let mats = materials(&job);
+    let mats = beamsift::catalog::Materials::of(&job);
     let pb = super::progress::count_bar(rows.len() as u64, a.cat.quiet, "sections");
     let cells = sweep::span_table(
         &beams,
@@ -277,14 +174,14 @@ fn run_table(a: TableArgs, out: &Out) -> Result<i32> {
         &columns,
         &rows,
         cells,
-        round,
+        opts.round,
         &mats,
         shown(a.chart.as_deref()),
         sys,
     )?;
     write_chart(a.chart.as_deref(), || table_chart(&result, sys));
     let search = Search {
-        tolerance,
+        tolerance: opts.tolerance,
         tolerance_given: a.tolerance.is_some(),
         max_span: opts.max_span,
     };

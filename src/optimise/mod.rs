@@ -24,6 +24,7 @@
 
 pub mod discrete;
 pub mod families;
+pub mod options;
 pub mod study;
 
 use crate::check::{Group, Material, Prepared, SectionInput};
@@ -32,6 +33,7 @@ use crate::section::Shape;
 use argmin::core::{CostFunction, Executor, State};
 use argmin::solver::neldermead::NelderMead;
 pub use families::{Axis, FamilyKind, Limits};
+pub use options::Options;
 use rayon::prelude::*;
 use serde::{Deserialize, Serialize};
 pub use study::{Sensitivity, Study, StudyOptions, Variant, study};
@@ -53,6 +55,27 @@ pub enum Family {
 impl Family {
     /// Every family, in the order of the variants.
     pub const ALL: [Family; 4] = [Family::Rect, Family::WeldedI, Family::MonoI, Family::Rhs];
+
+    /// Every choice with its name (the serde name where it has one) and
+    /// a line of help, for front ends that list the choices.
+    pub const CHOICES: &[(Self, &str, &str)] = &[
+        (Self::Rect, "rect", "Solid rectangle: b, d"),
+        (
+            Self::WeldedI,
+            "welded-i",
+            "Doubly symmetric welded I: bf, tf, hw, tw",
+        ),
+        (
+            Self::MonoI,
+            "mono-i",
+            "Mono-symmetric welded I: bf_top, tf_top, bf_bot, tf_bot, hw, tw",
+        ),
+        (
+            Self::Rhs,
+            "rhs",
+            "Rectangular hollow section (sharp corners): b, h, t",
+        ),
+    ];
 
     /// The implementation of the family: everything the optimiser knows
     /// of it.
@@ -99,6 +122,24 @@ pub enum Objective {
     Cost,
     /// Overall depth (area breaks ties).
     Depth,
+}
+
+impl Objective {
+    /// Every choice with its name (the serde name where it has one) and
+    /// a line of help, for front ends that list the choices.
+    pub const CHOICES: &[(Self, &str, &str)] = &[
+        (
+            Self::Area,
+            "area",
+            "Cross-sectional area (= mass per length)",
+        ),
+        (
+            Self::Cost,
+            "cost",
+            "Cost from plate prices (currency per kg by thickness)",
+        ),
+        (Self::Depth, "depth", "Overall depth (area breaks ties)"),
+    ];
 }
 
 /// A constraint, for reporting.

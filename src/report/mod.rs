@@ -215,6 +215,21 @@ pub enum Format {
     Markdown,
 }
 
+impl Format {
+    /// Every choice with its name (the serde name where it has one) and
+    /// a line of help, for front ends that list the choices.
+    pub const CHOICES: &[(Self, &str, &str)] = &[
+        (Self::Table, "table", "Aligned tables for the terminal"),
+        (
+            Self::Json,
+            "json",
+            "JSON from the result model (for scripts)",
+        ),
+        (Self::Csv, "csv", "CSV of the main table(s)"),
+        (Self::Markdown, "markdown", "Markdown"),
+    ];
+}
+
 /// Render a result in the chosen format.
 pub fn render<T: Serialize>(format: Format, result: &T, doc: &Document) -> String {
     match format {

@@ -2,6 +2,9 @@
 //! a name glob.
 
 use crate::catalog::Row;
+use crate::error::{Error, Result};
+use crate::job::Job;
+use crate::units::{self, Dim};
 use serde::Serialize;
 
 /// Row filters, applied before checking.
@@ -14,6 +17,44 @@ pub struct Filters {
     pub in_stock_only: bool,
     /// Glob on the name: `*` any run, `?` one character.
     pub name: Option<String>,
+}
+
+impl Filters {
+    /// The filters from the values as typed: lengths with units (errors
+    /// name `--max-depth`, `--min-depth`, `--max-width`).
+    pub fn parse(
+        max_depth: Option<&str>,
+        min_depth: Option<&str>,
+        max_width: Option<&str>,
+        grade: Option<String>,
+        in_stock_only: bool,
+        name: Option<String>,
+    ) -> Result<Filters> {
+        Ok(Filters {
+            max_depth: units::parse_field(max_depth, Dim::Length, "--max-depth")?,
+            min_depth: units::parse_field(min_depth, Dim::Length, "--min-depth")?,
+            max_width: units::parse_field(max_width, Dim::Length, "--max-width")?,
+            grade,
+            in_stock_only,
+            name,
+        })
+    }
+
+    /// A grade filter the job does not define can match no row (rows
+    /// naming it are refused): it is refused rather than filtering
+    /// everything out silently.
+    pub fn check_grade(grade: Option<&str>, job: &Job) -> Result<()> {
+        if let Some(g) = grade
+            && !job.grades.iter().any(|(n, _)| n.eq_ignore_ascii_case(g))
+        {
+            let known: Vec<&str> = job.grades.iter().map(|(n, _)| n.as_str()).collect();
+            return Err(Error::msg(format!(
+                "--grade {g}: the job defines no such grade (expected one of [{}]; grades are [materials.NAME] tables)",
+                known.join(", ")
+            )));
+        }
+        Ok(())
+    }
 }
 
 /// Simple glob match (`*`, `?`), case-insensitive.

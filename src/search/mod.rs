@@ -26,7 +26,7 @@ pub use filters::{Filters, glob};
 pub use load::load_rows;
 pub use rank::{Rank, TopList, compare};
 pub(crate) use scan::map_block;
-pub use scan::{scan, scan_checked, scan_excluding};
+pub use scan::{check_workers, scan, scan_checked, scan_excluding};
 
 use crate::catalog::{Materials, Row, RowMaterial};
 use crate::check::{Item, Prepared, Verdict};

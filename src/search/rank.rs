@@ -19,6 +19,25 @@ pub enum Rank {
     Utilisation,
 }
 
+impl Rank {
+    /// Every choice with its name (the serde name where it has one) and
+    /// a line of help, for front ends that list the choices.
+    pub const CHOICES: &[(Self, &str, &str)] = &[
+        (Self::Mass, "mass", "Lightest first (mass per length)"),
+        (
+            Self::Cost,
+            "cost",
+            "Cheapest first (cost per length; rows without a cost last)",
+        ),
+        (Self::Depth, "depth", "Shallowest first"),
+        (
+            Self::Utilisation,
+            "utilisation",
+            "Most highly utilised first (the least spare capacity)",
+        ),
+    ];
+}
+
 /// The total order used for ranking (criterion, then mass, depth, name,
 /// file, line).
 pub fn compare(rank: Rank, a: &Candidate, b: &Candidate) -> Ordering {

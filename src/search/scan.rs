@@ -510,3 +510,15 @@ pub fn scan_checked<R: Read + Send>(
     again.check_all_names.clear();
     Ok(again)
 }
+
+/// A worker count for the scans, checked: more workers than cores only
+/// add memory and switching, so at most four per core (and 256).
+pub fn check_workers(n: usize, cores: usize) -> Result<()> {
+    let max = (4 * cores).min(256);
+    if n == 0 || n > max {
+        return Err(Error::msg(format!(
+            "--jobs {n}: expected 1 to {max} (four per core on this machine)"
+        )));
+    }
+    Ok(())
+}

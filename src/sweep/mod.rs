@@ -22,7 +22,9 @@
 //! `tolerance`.
 
 mod optima;
+pub mod options;
 pub use optima::{SpanOptimum, optimum_by_span};
+pub use options::TableFlags;
 
 use crate::beam::model::{Beam, LoadKind, Support};
 use crate::catalog::Materials;
