@@ -329,18 +329,17 @@ fn select_where_follows_the_units() {
     assert!(out.contains(&us), "{out}");
 }
 
-/// A name that looks like a grouped number stays text in CSV output
-/// (RFC 4180: a field with a comma is quoted, not altered); only numeric
-/// columns lose their thousands separators.
-#[test]
-fn csv_keeps_names_that_look_like_numbers() {
+/// `select --format csv` on the demo job over a one-row catalogue of our
+/// own (the row after the header line given); the CSV text.
+fn select_csv_on(row: &str) -> String {
     let dir = tempfile::tempdir().unwrap();
     let cat = dir.path().join("stock.csv");
     std::fs::write(
         &cat,
-        "# invented test rows (IPE 300 dimensions, from memory)\n\
-         name,shape,d [mm],bf [mm],tf [mm],tw [mm],r [mm]\n\
-         \"1,250\",rolled-i,300,150,10.7,7.1,15\n",
+        format!(
+            "# invented test row (IPE 300 dimensions, from memory)\n\
+             name,shape,d [mm],bf [mm],tf [mm],tw [mm],r [mm]\n{row}\n"
+        ),
     )
     .unwrap();
     let job = repo("catalogs/demo-job.toml");
@@ -355,6 +354,15 @@ fn csv_keeps_names_that_look_like_numbers() {
     ]);
     let (out, err) = text(&o);
     assert!(o.status.code().is_some_and(|c| c <= 1), "{err}");
+    out
+}
+
+/// A name that looks like a grouped number stays text in CSV output
+/// (RFC 4180: a field with a comma is quoted, not altered); only numeric
+/// columns lose their thousands separators.
+#[test]
+fn csv_keeps_names_that_look_like_numbers() {
+    let out = select_csv_on("\"1,250\",rolled-i,300,150,10.7,7.1,15");
     // The ranked table: passing sections, or the nearest misses.
     let table: String = out
         .lines()
@@ -463,27 +471,7 @@ fn report_with_a_shape_refuses_catalogue_options() {
 /// (OWASP, "CSV Injection": prefix =, +, -, @ with an apostrophe).
 #[test]
 fn csv_defuses_formula_names() {
-    let dir = tempfile::tempdir().unwrap();
-    let cat = dir.path().join("stock.csv");
-    std::fs::write(
-        &cat,
-        "# invented test row (IPE 300 dimensions, from memory)\n\
-         name,shape,d [mm],bf [mm],tf [mm],tw [mm],r [mm]\n\
-         \"=HYPERLINK(\"\"http://x\"\")\",rolled-i,300,150,10.7,7.1,15\n",
-    )
-    .unwrap();
-    let job = repo("catalogs/demo-job.toml");
-    let o = run(&[
-        "select",
-        "--job",
-        job.to_str().unwrap(),
-        "-c",
-        cat.to_str().unwrap(),
-        "--format",
-        "csv",
-    ]);
-    let (out, err) = text(&o);
-    assert!(o.status.code().is_some_and(|c| c <= 1), "{err}");
+    let out = select_csv_on("\"=HYPERLINK(\"\"http://x\"\")\",rolled-i,300,150,10.7,7.1,15");
     assert!(out.contains("'=HYPERLINK"), "{out}");
     assert!(
         !out.lines()
