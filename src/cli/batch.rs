@@ -96,10 +96,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         .filter_map(|c| c.schema.currency.clone())
         .collect();
     let cur = template.currency_or(&currencies);
-    let mats = Materials {
-        base: &template.material,
-        grades: &template.grades,
-    };
+    let mats = Materials::of(&template);
     let filters = a.cat.filters_for(&template)?;
     let (rows, counts, _skipped) = search::load_rows(cats, &mats, a.cat.skip_bad_rows, &filters)?;
     let by_cost = a.objective == "cost";

@@ -52,10 +52,6 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     let job = a.job.load()?;
     let prep = job.prepare()?;
     let sys = out.units;
-    let mats = beamsift::catalog::Materials {
-        base: &job.material,
-        grades: &job.grades,
-    };
     let written = if let Some((fam, dims)) = a.shape.split_first() {
         if !a.cat.catalog.is_empty() {
             return Err(Error::msg("give either a shape or --catalog, not both"));
@@ -140,20 +136,11 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
                         ))
                     }
                 })?;
-                let m = mats.get(&c.material).clone();
-                let subject = Subject {
-                    name: &c.name,
-                    properties: &c.properties,
-                    mass: c.mass,
-                    source: sheet::candidate_source(&sel, c),
-                    alternatives: None,
-                    material: Some(&m),
-                };
-                sheet::for_section(&job, &prep, subject, sys)
+                sheet::for_candidate(&job, &prep, &sel, c, false, sys)
             }
             None => {
                 let c = sel.lists[0].items.first().ok_or_else(|| Error::NoSolution("no catalogue section passes: nothing to report (see `beamsift select` for the nearest misses, and the sections not verified)".into()))?;
-                sheet::for_candidate(&job, &prep, &sel, c, sys)
+                sheet::for_candidate(&job, &prep, &sel, c, true, sys)
             }
         };
         written.sheet.section_source = format!("{}; {note}", written.sheet.section_source);

@@ -85,14 +85,14 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         None => None,
         Some(prefix) => Some(match sel.lists[0].items.iter().find(|c| c.passes) {
             Some(best) => {
-                let s = sheet::for_candidate(&job, &prep, &sel, best, sys);
+                let s = sheet::for_candidate(&job, &prep, &sel, best, true, sys);
                 super::output::write_sheet(&s, prefix).map(|(md, html)| {
                     format!(
                         "Calculation sheet for {}: {} and {} ({}).",
                         best.name,
                         md.display(),
                         html.display(),
-                        s.verdict_word()
+                        s.verdict.word()
                     )
                 })?
             }

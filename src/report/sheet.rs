@@ -18,12 +18,6 @@ pub struct Written {
     pub verdict: Verdict,
 }
 
-impl Written {
-    pub fn verdict_word(&self) -> &'static str {
-        self.verdict.word()
-    }
-}
-
 /// What a sheet is about: the section, where it came from, what else passed.
 pub struct Subject<'a> {
     pub name: &'a str,
@@ -45,20 +39,17 @@ pub fn for_section(job: &Job, prep: &Prepared, s: Subject<'_>, sys: System) -> W
     }
 }
 
-/// The sheet of a catalogue row found by a scan (with the next lightest
-/// passing rows as alternatives).
+/// The sheet of a catalogue row found by a scan, in the row's own
+/// material; with `alternatives`, the next lightest passing rows too.
 pub fn for_candidate(
     job: &Job,
     prep: &Prepared,
     sel: &Selection,
     c: &Candidate,
+    alternatives: bool,
     sys: System,
 ) -> Written {
-    let mats = crate::catalog::Materials {
-        base: &job.material,
-        grades: &job.grades,
-    };
-    let m = mats.get(&c.material).clone();
+    let m = crate::catalog::Materials::of(job).get(&c.material).clone();
     for_section(
         job,
         prep,
@@ -67,7 +58,11 @@ pub fn for_candidate(
             properties: &c.properties,
             mass: c.mass,
             source: candidate_source(sel, c),
-            alternatives: alternatives(&sel.lists[0].items, &c.name, sys),
+            alternatives: if alternatives {
+                self::alternatives(&sel.lists[0].items, &c.name, sys)
+            } else {
+                None
+            },
             material: Some(&m),
         },
         sys,
