@@ -248,9 +248,14 @@ proptest! {
         seed in any::<u64>(),
     ) {
         let beam = continuous(spans, seed);
-        let dm = Demand::build(&beam, &[]).unwrap();
+        let mut dm = Demand::build(&beam, &[]).unwrap();
         let st = beam.stretches();
         let ne = dm.len.len();
+        // The lookups the checks use (by self-weight interval) answer the
+        // queries below, as they do in a catalogue scan.
+        dm.register(Quantity::Moment, 0..ne);
+        dm.register(Quantity::Shear, 0..ne);
+        dm.register(Quantity::Deflection, dm.stretch_elements(0));
         let w_sw = 0.3;
         let mut worst = [f64::NEG_INFINITY, f64::INFINITY, 0.0f64, 0.0f64];
         for mask in 0u32..(1 << st.len()) {
@@ -296,6 +301,65 @@ proptest! {
         prop_assert!((v.max.abs().max(v.min.abs()) - worst[2]).abs() <= 1e-9 * worst[2]);
         let yy = y.max.abs().max(y.min.abs());
         prop_assert!((yy - worst[3]).abs() <= 1e-9 * worst[3], "δ {} vs {}", yy, worst[3]);
+    }
+
+    /// Extremes looked up by self-weight interval (survivors only) equal
+    /// the full search over every element and pattern — same values to
+    /// round-off and the same positions — for self-weights spread over the
+    /// whole grid and several in one interval, with two patterned cases,
+    /// partial and point loads, fixed ends and overhangs.
+    #[test]
+    fn lookup_equals_full_search(
+        spans in prop::collection::vec(1500.0..8000.0f64, 1..5),
+        seed in any::<u64>(),
+        weights in prop::collection::vec(-6.0..2.5f64, 12),
+    ) {
+        let mut beam = continuous(spans, seed);
+        let l = beam.length();
+        let sn = beam.case("S", Category::Snow);
+        beam.load(sn, LoadKind::Distributed { x1: 0.2 * l, x2: 0.7 * l, w1: 2.0, w2: 5.0 });
+        beam.load(0, LoadKind::Point { x: 0.45 * l, p: 7_000.0 });
+        beam.combo("1.2D+1.6S+0.5L", ComboKind::Strength, &[(0, 1.2), (sn, 1.6), (1, 0.5)]);
+        beam.combo("0.9D", ComboKind::Strength, &[(0, 0.9)]);
+        let full = Demand::build(&beam, &[]).unwrap();
+        let mut fast = full.clone();
+        let ne = full.len.len();
+        let mut ranges = vec![(Quantity::Moment, 0..ne), (Quantity::Shear, 0..ne)];
+        for k in 0..full.stretches.len() {
+            ranges.push((Quantity::Deflection, full.stretch_elements(k)));
+            ranges.push((Quantity::Moment, full.stretch_elements(k)));
+        }
+        for (q, r) in &ranges {
+            fast.register(*q, r.clone());
+        }
+        for &lw in &weights {
+            // 10^lw N/mm, and a neighbour in the same grid interval.
+            for w in [10f64.powf(lw), 10f64.powf(lw) * 1.01, 0.0] {
+                for ci in 0..full.combos.len() {
+                    for (q, r) in &ranges {
+                        let a = full.combo_extremes(ci, w, 1.0, *q, r.clone());
+                        let b = fast.combo_extremes(ci, w, 1.0, *q, r.clone());
+                        let scale = a.max.abs().max(a.min.abs()).max(1e-300);
+                        prop_assert!((a.max - b.max).abs() <= 1e-12 * scale, "{q:?} max {} vs {} (w {w})", a.max, b.max);
+                        prop_assert!((a.min - b.min).abs() <= 1e-12 * scale, "{q:?} min {} vs {} (w {w})", a.min, b.min);
+                        if a.max != 0.0 {
+                            prop_assert!((a.x_max - b.x_max).abs() <= 1e-6 * l, "{q:?} x_max {} vs {}", a.x_max, b.x_max);
+                        }
+                        if a.min != 0.0 {
+                            prop_assert!((a.x_min - b.x_min).abs() <= 1e-6 * l, "{q:?} x_min {} vs {}", a.x_min, b.x_min);
+                        }
+                        // The largest magnitude alone (shear, deflection).
+                        let (va, xa) = a.abs_max();
+                        let sl = fast.section(w, 1.0);
+                        let (vb, xb) = fast.abs_extreme(&fast.apply(ci, &sl), *q, r.clone());
+                        prop_assert!((va - vb).abs() <= 1e-12 * scale, "{q:?} abs {} vs {} (w {w})", va, vb);
+                        if va != 0.0 {
+                            prop_assert!((xa - xb).abs() <= 1e-6 * l, "{q:?} abs at {} vs {}", xa, xb);
+                        }
+                    }
+                }
+            }
+        }
     }
 
     /// The fast check (demand + unit self-weight scaled by the section's

@@ -298,8 +298,7 @@ impl Prepared {
                 }
             }
             if !ex.shear {
-                let v = d.extremes(&a, Quantity::Shear, 0..ne);
-                let (vv, x) = v.abs_max();
+                let (vv, x) = d.abs_extreme(&a, Quantity::Shear, 0..ne);
                 if let (Some(fv), Some(k)) = (m.fv, shear_k) {
                     let cap = if timber {
                         fv * cd * m.timber.fv_factor()
@@ -345,8 +344,7 @@ impl Prepared {
                 let Some(limit) = a.combo.limit else { continue };
                 for (k, &(e0, e1)) in self.stretch_elems.iter().enumerate() {
                     let st = &d.stretches[k];
-                    let exm = d.extremes(&a, Quantity::Deflection, e0..e1);
-                    let (y, x) = exm.abs_max();
+                    let (y, x) = d.abs_extreme(&a, Quantity::Deflection, e0..e1);
                     let delta = y / ei;
                     let mut l_eff = st.x2 - st.x1;
                     if st.cantilever {

@@ -8,7 +8,7 @@ use super::{
     BracedFlange, Bracing, Criteria, LoadHeight, LongTerm, Material, MaterialKind, Prepared, timber,
 };
 use crate::beam::model::{Category, ComboKind};
-use crate::beam::{Beam, Demand};
+use crate::beam::{Beam, Demand, Quantity};
 use crate::error::{Error, Result};
 use crate::section::{Form, Properties};
 
@@ -90,14 +90,26 @@ impl Prepared {
                 extra.push(a + (b - a) * k as f64 / 4.0);
             }
         }
-        let demand = Demand::build(&beam, &extra)?;
+        let mut demand = Demand::build(&beam, &extra)?;
         let segments = segments::place(&segs, &demand.mesh.x, &criteria);
-        let stretch_elems = (0..demand.stretches.len())
+        let stretch_elems: Vec<(usize, usize)> = (0..demand.stretches.len())
             .map(|k| {
                 let r = demand.stretch_elements(k);
                 (r.start, r.end)
             })
             .collect();
+        // The ranges the checks ask about (prepared.rs): the whole beam for
+        // moment and shear, each stretch for deflection, each bracing
+        // segment for moment.
+        let ne = demand.len.len();
+        demand.register(Quantity::Moment, 0..ne);
+        demand.register(Quantity::Shear, 0..ne);
+        for &(e0, e1) in &stretch_elems {
+            demand.register(Quantity::Deflection, e0..e1);
+        }
+        for seg in &segments {
+            demand.register(Quantity::Moment, seg.elems.0..seg.elems.1);
+        }
         let strength = (0..demand.combos.len())
             .filter(|&i| demand.combos[i].kind == ComboKind::Strength)
             .collect();

@@ -30,6 +30,7 @@
 //! each span's displaced supports; the settlements are reported apart.
 
 mod extremes;
+mod lookup;
 mod pattern;
 mod section;
 mod springs;
@@ -98,6 +99,9 @@ pub struct ComboDemand {
     /// Per element and quantity, the extremes precomputed for every section
     /// where they can be (no patterns, no springs); empty otherwise.
     pub(crate) pre: Vec<[Pre; 3]>,
+    /// Extremes looked up by self-weight interval for the element ranges
+    /// the checks ask about ([`Demand::register`]).
+    pub(crate) lookups: Vec<lookup::Lookup>,
 }
 
 /// The beam analysed once.
@@ -129,7 +133,38 @@ pub enum Quantity {
     Deflection,
 }
 
+impl Quantity {
+    /// Position in per-quantity arrays (moment, shear, deflection).
+    #[inline]
+    pub(crate) fn index(self) -> usize {
+        match self {
+            Quantity::Moment => 0,
+            Quantity::Shear => 1,
+            Quantity::Deflection => 2,
+        }
+    }
+}
+
 impl Demand {
+    /// Make the extremes of quantity `q` over `elems` a lookup by
+    /// self-weight interval in every combination where that saves work
+    /// (see `lookup.rs`); [`Demand::extremes`] then uses it for exactly
+    /// this range. Call once per range a check will ask about.
+    pub fn register(&mut self, q: Quantity, elems: std::ops::Range<usize>) {
+        for ci in 0..self.combos.len() {
+            let known = self.combos[ci]
+                .lookups
+                .iter()
+                .any(|l| l.q == q && l.elems == (elems.start, elems.end));
+            if known {
+                continue;
+            }
+            if let Some(l) = lookup::Lookup::new(self, ci, q, elems.clone()) {
+                self.combos[ci].lookups.push(l);
+            }
+        }
+    }
+
     /// Analyse every case, the unit self-weight, and every combination.
     /// `extra` adds stations (brace points, quarter points) to the mesh.
     pub fn build(beam: &Beam, extra: &[f64]) -> Result<Demand> {
@@ -268,6 +303,7 @@ impl Analysed<'_> {
             patterns,
             pattern_labels,
             env,
+            lookups: Vec::new(),
         })
     }
 }

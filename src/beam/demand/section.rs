@@ -84,13 +84,48 @@ impl Demand {
         q: Quantity,
         elems: std::ops::Range<usize>,
     ) -> Extremes {
+        let lookup = a
+            .combo
+            .lookups
+            .iter()
+            .find(|l| l.q == q && l.elems == (elems.start, elems.end));
+        if let Some(ex) = lookup.and_then(|l| l.extremes(self, a)) {
+            return ex;
+        }
+        self.extremes_full(a, q, elems)
+    }
+
+    /// The largest magnitude of a quantity over `elems`, signed, and its
+    /// position: `extremes(..).abs_max()`, with less work where a lookup
+    /// is registered for the range.
+    pub fn abs_extreme(
+        &self,
+        a: &Applied<'_>,
+        q: Quantity,
+        elems: std::ops::Range<usize>,
+    ) -> (f64, f64) {
+        let lookup = a
+            .combo
+            .lookups
+            .iter()
+            .find(|l| l.q == q && l.elems == (elems.start, elems.end));
+        if let Some(v) = lookup.and_then(|l| l.abs_extreme(self, a)) {
+            return v;
+        }
+        self.extremes(a, q, elems).abs_max()
+    }
+
+    /// [`Demand::extremes`] by searching every element and pattern (what
+    /// a lookup's survivors are drawn from, and its fallback).
+    pub(super) fn extremes_full(
+        &self,
+        a: &Applied<'_>,
+        q: Quantity,
+        elems: std::ops::Range<usize>,
+    ) -> Extremes {
         let combo = a.combo;
         let mut ex = Extremes::EMPTY;
-        let qi = match q {
-            Quantity::Moment => 0,
-            Quantity::Shear => 1,
-            Quantity::Deflection => 2,
-        };
+        let qi = q.index();
         if combo.patterns.is_empty() {
             let pre = &combo.pre;
             for e in elems {
