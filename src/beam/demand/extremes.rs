@@ -272,6 +272,21 @@ pub(super) fn curvature_bound(q: Quantity, c: &Coef, l: f64) -> f64 {
     }
 }
 
+/// f + s·u, coefficient by coefficient (a combination's base polynomial
+/// at self-weight scale s).
+#[inline]
+pub(super) fn scaled_sum(f: &Coef, u: &Coef, s: f64) -> Coef {
+    [
+        f[0] + s * u[0],
+        f[1] + s * u[1],
+        f[2] + s * u[2],
+        f[3] + s * u[3],
+        f[4] + s * u[4],
+        f[5] + s * u[5],
+    ]
+}
+
+/// a + b, coefficient by coefficient.
 #[inline]
 pub(super) fn add_coef(a: &Coef, b: &Coef) -> Coef {
     [

@@ -29,7 +29,7 @@
 //! stored result. Anything else (s outside the grid, negative or not
 //! finite) takes the full search.
 
-use super::extremes::add_coef;
+use super::extremes::{add_coef, scaled_sum};
 use super::{Applied, Demand, Extremes, Pre, Quantity, element_extremes, eval};
 use crate::beam::solve::Coef;
 use std::sync::OnceLock;
@@ -85,15 +85,7 @@ impl Candidate {
     /// full search (`base_coef`, then the pattern added).
     #[inline]
     fn coef(&self, s: f64) -> Coef {
-        let (f, u) = (&self.f, &self.u);
-        let base = [
-            f[0] + s * u[0],
-            f[1] + s * u[1],
-            f[2] + s * u[2],
-            f[3] + s * u[3],
-            f[4] + s * u[4],
-            f[5] + s * u[5],
-        ];
+        let base = scaled_sum(&self.f, &self.u, s);
         match &self.p {
             None => base,
             Some(p) => add_coef(&base, p),

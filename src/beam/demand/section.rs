@@ -2,13 +2,27 @@
 //! extremes, envelopes and reactions read from it (the per-section path:
 //! scale and add, no allocation).
 
-use super::extremes::{add_coef, curvature_bound};
+use super::extremes::{add_coef, curvature_bound, scaled_sum};
 use super::pattern::NST;
 use super::{
     Applied, Demand, Extremes, MAX_PATTERN_PARTS, MAX_SPRINGS, Quantity, SectionLoad,
     element_extremes, eval,
 };
 use crate::beam::solve::Coef;
+
+impl super::ComboDemand {
+    /// The lookup registered for quantity `q` over `elems`, if any.
+    #[inline]
+    fn lookup(
+        &self,
+        q: Quantity,
+        elems: &std::ops::Range<usize>,
+    ) -> Option<&super::lookup::Lookup> {
+        self.lookups
+            .iter()
+            .find(|l| l.q == q && l.elems == (elems.start, elems.end))
+    }
+}
 
 impl Demand {
     /// Prepare a section: self-weight intensity `w_sw` (N/mm) and bending
@@ -58,17 +72,7 @@ impl Demand {
     /// patterns left out.
     #[inline]
     pub fn base_coef(&self, a: &Applied<'_>, e: usize) -> Coef {
-        let f = &a.combo.fixed.elems[e];
-        let u = &self.unit_sw.elems[e];
-        let s = a.s;
-        let c = [
-            f[0] + s * u[0],
-            f[1] + s * u[1],
-            f[2] + s * u[2],
-            f[3] + s * u[3],
-            f[4] + s * u[4],
-            f[5] + s * u[5],
-        ];
+        let c = scaled_sum(&a.combo.fixed.elems[e], &self.unit_sw.elems[e], a.s);
         if a.sect.ns == 0 {
             c
         } else {
@@ -84,12 +88,7 @@ impl Demand {
         q: Quantity,
         elems: std::ops::Range<usize>,
     ) -> Extremes {
-        let lookup = a
-            .combo
-            .lookups
-            .iter()
-            .find(|l| l.q == q && l.elems == (elems.start, elems.end));
-        if let Some(ex) = lookup.and_then(|l| l.extremes(self, a)) {
+        if let Some(ex) = a.combo.lookup(q, &elems).and_then(|l| l.extremes(self, a)) {
             return ex;
         }
         self.extremes_full(a, q, elems)
@@ -104,12 +103,11 @@ impl Demand {
         q: Quantity,
         elems: std::ops::Range<usize>,
     ) -> (f64, f64) {
-        let lookup = a
+        if let Some(v) = a
             .combo
-            .lookups
-            .iter()
-            .find(|l| l.q == q && l.elems == (elems.start, elems.end));
-        if let Some(v) = lookup.and_then(|l| l.abs_extreme(self, a)) {
+            .lookup(q, &elems)
+            .and_then(|l| l.abs_extreme(self, a))
+        {
             return v;
         }
         self.extremes(a, q, elems).abs_max()
