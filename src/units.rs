@@ -414,7 +414,76 @@ pub fn unit_factor(unit: &str, dim: Dim) -> Result<f64> {
     )))
 }
 
-/// Parse feet–inches: `12'-6"`, `12' 6"`, `12'`, `6"`, `12'-6 1/2"`.
+/// Read a whole text as a non-negative number written as a decimal
+/// (`1.5`), a fraction (`3/16`) or a mixed number (`1-1/2`, `1 1/2`):
+/// whole, numerator and denominator are plain digits and the denominator
+/// is not zero. Negative fractions are refused (every fractional quantity
+/// we read is a length that must be positive). The error says what was
+/// expected.
+pub fn fraction(text: &str) -> std::result::Result<f64, String> {
+    const FORMS: &str =
+        "expected a decimal, a fraction or a mixed number such as 3/16, 1-1/2 or 1 1/2";
+    let t = text.trim();
+    let digits = |s: &str| !s.is_empty() && s.bytes().all(|c| c.is_ascii_digit());
+    if t.starts_with('-') {
+        return Err(format!(
+            "'{t}' is negative: a fractional length must be positive"
+        ));
+    }
+    let Some((head, den)) = t.rsplit_once('/') else {
+        return match split_number(t) {
+            Some((v, rest)) if rest.is_empty() && v.is_finite() && v >= 0.0 => Ok(v),
+            _ => Err(format!("cannot read '{t}': {FORMS}")),
+        };
+    };
+    let (whole, num) = match head.trim_end().rsplit_once([' ', '-']) {
+        Some((w, n)) => (Some(w.trim()), n.trim()),
+        None => (None, head.trim()),
+    };
+    let den = den.trim();
+    if !digits(num) || !digits(den) || whole.is_some_and(|w| !digits(w)) {
+        return Err(format!("cannot read '{t}' as a fraction: {FORMS}"));
+    }
+    let d: f64 = den
+        .parse()
+        .map_err(|_| format!("cannot read '{t}': {FORMS}"))?;
+    if d == 0.0 {
+        return Err(format!(
+            "'{t}' divides by zero: the denominator must not be 0"
+        ));
+    }
+    let n: f64 = num
+        .parse()
+        .map_err(|_| format!("cannot read '{t}': {FORMS}"))?;
+    let w: f64 = match whole {
+        Some(w) => w
+            .parse()
+            .map_err(|_| format!("cannot read '{t}': {FORMS}"))?,
+        None => 0.0,
+    };
+    let v = w + n / d;
+    if v.is_finite() {
+        Ok(v)
+    } else {
+        Err(format!("'{t}' is out of range"))
+    }
+}
+
+/// Split a leading fraction or mixed number (`3/16 in`, `1-1/2in`,
+/// `1 1/2 in`) from its unit: `None` when the number part holds no `/`
+/// (an ordinary number), else the value or why it cannot be read.
+fn split_fraction(t: &str) -> Option<std::result::Result<(f64, &str), String>> {
+    let end = t
+        .find(|c: char| !(c.is_ascii_digit() || matches!(c, '/' | '-' | '+' | '.' | ' ')))
+        .unwrap_or(t.len());
+    let (number, unit) = t.split_at(end);
+    if !number.contains('/') {
+        return None;
+    }
+    Some(fraction(number).map(|v| (v, unit)))
+}
+
+/// Parse feet–inches: `12'-6"`, `12' 6"`, `12'`, `6"`, `12'-6 1/2"`, `1-1/2"`.
 fn parse_feet_inches(s: &str) -> Option<f64> {
     let s = s
         .replace(['′', '’'], "'")
@@ -435,23 +504,7 @@ fn parse_feet_inches(s: &str) -> Option<f64> {
         0.0
     } else {
         let body = inch_part.strip_suffix('"')?.trim();
-        let mut total = 0.0;
-        for (i, tok) in body.split_whitespace().enumerate() {
-            if i > 1 {
-                return None;
-            }
-            if let Some((n, d)) = tok.split_once('/') {
-                let n: f64 = n.parse().ok()?;
-                let d: f64 = d.parse().ok()?;
-                if d == 0.0 {
-                    return None;
-                }
-                total += n / d;
-            } else {
-                total += tok.parse::<f64>().ok()?;
-            }
-        }
-        total
+        fraction(body).ok()?
     };
     if !(feet.is_finite() && inches.is_finite()) || feet < 0.0 || inches < 0.0 {
         return None;
@@ -488,7 +541,18 @@ pub fn parse(text: &str, dim: Dim) -> Result<f64> {
             ))
         });
     }
-    let (value, unit) = split_number(t).ok_or_else(|| {
+    let fractional = match split_fraction(t) {
+        Some(_) if dim != Dim::Length => {
+            return Err(Error::msg(format!(
+                "'{t}': fractions are read only for lengths; write a {} as a decimal followed by a unit ({})",
+                dim.name(),
+                dim.accepted()
+            )));
+        }
+        Some(r) => Some(r.map_err(Error::msg)?),
+        None => None,
+    };
+    let (value, unit) = fractional.or_else(|| split_number(t)).ok_or_else(|| {
         Error::msg(format!(
             "'{t}' does not start with a number: expected a {} such as 12.5 followed by a unit ({})",
             dim.name(),
@@ -536,7 +600,7 @@ pub fn parse_list(text: &str, dim: Dim, field: &str) -> Result<Vec<f64>> {
     let parts: Vec<&str> = text.split(',').map(str::trim).collect();
     let last = parts.last().copied().unwrap_or("");
     let unit: String = last
-        .trim_start_matches(|c: char| c.is_ascii_digit() || c == '.' || c == ' ')
+        .trim_start_matches(|c: char| c.is_ascii_digit() || matches!(c, '.' | ' ' | '/' | '-'))
         .to_string();
     parts
         .iter()

@@ -527,3 +527,49 @@ fn batch_by_cost_picks_the_cheapest_passing_section() {
     let by_mass = pick("mass");
     assert_eq!(by_mass["members"][0]["section"], "NB 160 L");
 }
+
+/// Fractional inches in a catalogue's `in` dimension cells read equal to
+/// their decimals: a dressed 2x10 is 1-1/2 x 9-1/4 in (NDS Supplement
+/// Table 1B, from memory), so its row equals the 1.5 x 9.25 in row; nonsense
+/// is refused with the cell's line and column and the reason.
+#[test]
+fn catalogue_cells_read_fractional_inches() {
+    let dir = tempfile::tempdir().unwrap();
+    let ok = dir.path().join("ok.csv");
+    std::fs::write(
+        &ok,
+        "name,shape,b [in],d [in]\nA,rect,1-1/2,9 1/4\nD,rect,1.5,9.25\n",
+    )
+    .unwrap();
+    let o = common::run(&["catalog", "show", ok.to_str().unwrap(), "--format", "csv"]);
+    let (out, err) = common::text(&o);
+    assert!(o.status.success(), "{err}");
+    let rows: Vec<&str> = out
+        .lines()
+        .filter(|l| l.starts_with('2') || l.starts_with('3'))
+        .collect();
+    assert_eq!(rows.len(), 2, "{out}");
+    assert_eq!(
+        rows[0].split_once(",A,").unwrap().1,
+        rows[1].split_once(",D,").unwrap().1,
+        "{out}"
+    );
+    assert!(rows[0].contains(",234.9,"), "9.25 in = 234.95 mm: {out}");
+    let bad = dir.path().join("bad.csv");
+    std::fs::write(
+        &bad,
+        "name,shape,b [in],d [in]\nB,rect,1/0,9\nC,rect,3//4,9\nE,rect,1-1/2/3,9\n",
+    )
+    .unwrap();
+    let o = common::run(&["catalog", "validate", bad.to_str().unwrap()]);
+    let (out, _) = common::text(&o);
+    assert_eq!(o.status.code(), Some(2), "{out}");
+    assert!(
+        out.contains("bad.csv:2:3") && out.contains("denominator"),
+        "{out}"
+    );
+    assert!(
+        out.contains("bad.csv:3:3") && out.contains("bad.csv:4:3"),
+        "{out}"
+    );
+}

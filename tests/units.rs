@@ -162,3 +162,57 @@ fn capacities_are_shown_rounded_down() {
         "14.99"
     );
 }
+
+/// Fractional inches: 1 in = 25.4 mm exactly (NIST SP 811 (2008), B.8,
+/// from memory); the fractions are plain arithmetic (3/16 = 0.1875).
+#[test]
+fn fractional_inches() {
+    check("3/16 in", Dim::Length, 0.1875 * 25.4);
+    check("1-1/2 in", Dim::Length, 1.5 * 25.4);
+    check("1 1/2 in", Dim::Length, 1.5 * 25.4);
+    check("1-1/2in", Dim::Length, 1.5 * 25.4);
+    check("5/8\"", Dim::Length, 0.625 * 25.4);
+    check("1-1/2\"", Dim::Length, 1.5 * 25.4);
+    check("12'-1 1/4\"", Dim::Length, 12.0 * 304.8 + 1.25 * 25.4);
+    let list = beamsift::units::parse_list("3/16,1/4,1-1/2 in", Dim::Length, "t").unwrap();
+    let want = [0.1875 * 25.4, 0.25 * 25.4, 1.5 * 25.4];
+    for (g, w) in list.iter().zip(want) {
+        common::close("list", *g, w, 1e-9);
+    }
+    assert_eq!(list.len(), 3);
+}
+
+#[test]
+fn fraction_nonsense_is_refused_with_the_reason() {
+    for (text, says) in [
+        ("1/0 in", "denominator"),
+        ("3//4 in", "fraction"),
+        ("1-1/2/3 in", "fraction"),
+        ("-1/2 in", "negative"),
+        ("1/2.5 in", "fraction"),
+        ("1/2\"", ""),
+    ] {
+        match parse(text, Dim::Length) {
+            Ok(v) if says.is_empty() => common::close(text, v, 12.7, 1e-9),
+            Ok(v) => panic!("{text} read as {v}"),
+            Err(e) => assert!(e.to_string().contains(says), "{text}: {e}"),
+        }
+    }
+    let e = parse("1/2 kip", Dim::Force).unwrap_err().to_string();
+    assert!(e.contains("only for lengths"), "{e}");
+}
+
+proptest::proptest! {
+    /// A fraction parses equal to its decimal (w + n/d, plain arithmetic).
+    #[test]
+    fn a_fraction_equals_its_decimal(w in 0u32..100, n in 0u32..64, d in 1u32..65) {
+        let v = w as f64 + n as f64 / d as f64;
+        for text in [format!("{w}-{n}/{d} in"), format!("{w} {n}/{d} in")] {
+            let got = parse(&text, Dim::Length).unwrap();
+            proptest::prop_assert!((got - v * 25.4).abs() <= 1e-9 * (1.0 + v), "{text}: {got}");
+        }
+        let cell = format!("{w}-{n}/{d}");
+        let got = beamsift::catalog::number(cell.as_bytes()).unwrap();
+        proptest::prop_assert!((got - v).abs() <= 1e-12 * (1.0 + v), "{cell}: {got}");
+    }
+}

@@ -10,7 +10,8 @@ const POW10: [f64; 23] = [
 /// "How to read floating point numbers accurately"): a plain decimal with
 /// at most 15 significant digits is an exact integer m and an exact power
 /// of ten, so m / 10^k is correctly rounded by one IEEE division. Anything
-/// else (exponents, long mantissas) goes to the standard library parser.
+/// else (exponents, long mantissas) goes to the standard library parser, and
+/// a cell holding `/` is read as a fraction or mixed number (`3/16`, `1-1/2`).
 #[inline]
 pub fn number(cell: &[u8]) -> Option<f64> {
     let mut b = cell;
@@ -62,6 +63,11 @@ pub fn number(cell: &[u8]) -> Option<f64> {
         let v = m as f64 / POW10[k];
         return Some(if neg { -v } else { v });
     }
-    let v: f64 = std::str::from_utf8(b).ok()?.parse().ok()?;
+    let text = std::str::from_utf8(b).ok()?;
+    if b.contains(&b'/') {
+        // A fraction or mixed number (3/16, 1-1/2, 1 1/2): off the fast path.
+        return crate::units::fraction(text).ok();
+    }
+    let v: f64 = text.parse().ok()?;
     v.is_finite().then_some(v)
 }

@@ -247,7 +247,22 @@ impl<'r> Cells<'r> {
                     continue;
                 }
                 let v = match number(bytes) {
+                    Some(_) if bytes.contains(&b'/') && !matches!(col, Col::Dim(..)) => {
+                        let shown = String::from_utf8_lossy(bytes).trim().to_string();
+                        return Err(cell_err(
+                            i,
+                            schema,
+                            format!(
+                                "'{shown}': fractions are read only in dimension columns; write this value as a decimal"
+                            ),
+                        ));
+                    }
                     Some(v) => v,
+                    None if bytes.contains(&b'/') => {
+                        let shown = String::from_utf8_lossy(bytes);
+                        let why = crate::units::fraction(&shown).err().unwrap_or_default();
+                        return Err(cell_err(i, schema, why));
+                    }
                     None => {
                         let shown = String::from_utf8_lossy(bytes).trim().to_string();
                         return Err(cell_err(
