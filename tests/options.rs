@@ -241,6 +241,12 @@ fn table() -> BTreeMap<&'static str, (Expect, Vec<&'static str>)> {
     add("batch --schedule", Changes, &[]);
     add("batch --max-sizes", Changes, &["--max-sizes", "2"]);
     add("batch --objective", Changes, &["--objective", "cost"]);
+    add(
+        "batch --stock-lengths",
+        Changes,
+        &["--stock-lengths", "6m,12m"],
+    );
+    add("batch --kerf", Refused, &["--kerf", "3mm"]);
     // optimise.
     add("optimise --bound", Changes, &["--bound", "tw=8mm..20mm"]);
     add("optimise --max-depth", Changes, &["--max-depth", "450mm"]);

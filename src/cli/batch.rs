@@ -12,6 +12,7 @@ use beamsift::report::{
     batch::{BatchView, document},
 };
 use beamsift::search::{self, batch};
+use beamsift::units::{self, Dim};
 use serde::Serialize;
 use std::path::PathBuf;
 
@@ -38,6 +39,13 @@ pub struct Args {
     /// Rationalise for least total mass or least total cost.
     #[arg(long, value_parser = ["mass", "cost"], default_value = "mass")]
     pub objective: String,
+    /// Stock bar lengths to cut each section's members from, e.g. `6m,12m`:
+    /// reports the bars bought, offcuts and waste, and members that need a splice.
+    #[arg(long = "stock-lengths", value_name = "LIST")]
+    pub stock_lengths: Option<String>,
+    /// Saw kerf per piece when cutting from stock bars [default: 0 mm].
+    #[arg(long, value_name = "LENGTH", requires = "stock_lengths")]
+    pub kerf: Option<String>,
     /// Deflection limit under variable load, for members without a service
     /// preset (refused when the template has one) [default: L/360].
     #[arg(long = "limit-live")]
@@ -80,6 +88,26 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         .map_err(|e| e.in_field("--limit-live"))?;
     let n_total = job::parse_ratio(a.limit_total.as_deref().unwrap_or("L/240"))
         .map_err(|e| e.in_field("--limit-total"))?;
+    let stock = a
+        .stock_lengths
+        .as_deref()
+        .map(|t| {
+            let v = units::parse_list(t, Dim::Length, "--stock-lengths")?;
+            if v.iter().any(|&x| !(x > 0.0 && x.is_finite())) {
+                return Err(Error::msg(format!(
+                    "--stock-lengths: every stock length must be positive (got {t})"
+                )));
+            }
+            Ok(v)
+        })
+        .transpose()?;
+    let kerf = units::parse_field(a.kerf.as_deref(), Dim::Length, "--kerf")?.unwrap_or(0.0);
+    if !(0.0..=50.0).contains(&kerf) {
+        return Err(Error::msg(format!(
+            "--kerf: expected a saw kerf from 0 to 50 mm, got {}",
+            a.kerf.as_deref().unwrap_or("")
+        )));
+    }
     let sched_shown = a.schedule.display().to_string();
     let f = std::fs::File::open(&a.schedule).map_err(|e| Error::io(&sched_shown, e))?;
     let members = batch::read_schedule(
@@ -100,7 +128,15 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     let filters = a.cat.filters_for(&template)?;
     let (rows, counts, _skipped) = search::load_rows(cats, &mats, a.cat.skip_bad_rows, &filters)?;
     let by_cost = a.objective == "cost";
-    let schedule = batch::schedule(&members, &rows, &mats, &filters, by_cost, a.max_sizes)?;
+    if by_cost && rows.iter().all(|r| r.cost.is_none()) {
+        return Err(Error::msg(
+            "--objective cost: the catalogue has no prices (no cost column, or every cost cell empty): add a cost column, or use --objective mass",
+        ));
+    }
+    let mut schedule = batch::schedule(&members, &rows, &mats, &filters, by_cost, a.max_sizes)?;
+    if let Some(stock) = &stock {
+        schedule.cutting = Some(batch::cut_schedule(&schedule, stock, kerf));
+    }
     let view = BatchView {
         sys,
         schedule: &sched_shown,
@@ -115,7 +151,11 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         excluded: template.criteria.exclude.list(),
     };
     let doc = document(&schedule, &view);
-    let code = if schedule.not_sized.is_empty() {
+    let splice = schedule
+        .cutting
+        .as_ref()
+        .is_some_and(|c| c.sections.iter().any(|s| !s.too_long.is_empty()));
+    let code = if schedule.not_sized.is_empty() && !splice {
         0
     } else {
         EXIT_FAILS

@@ -4,7 +4,7 @@
 use super::select::{Legend, finish_doc};
 use super::{Align, Document, Table};
 use crate::search::Counts;
-use crate::search::batch::{BoqLine, Schedule};
+use crate::search::batch::{BoqLine, Cutting, Schedule};
 use crate::units::{self, Show, System};
 
 /// How a schedule is shown.
@@ -168,6 +168,9 @@ pub fn document(s: &Schedule, v: &BatchView<'_>) -> Document {
             )
         });
     }
+    if let Some(c) = &s.cutting {
+        cutting(&mut doc, c, sys);
+    }
     if !s.not_sized.is_empty() {
         doc.para(format!(
             "No section in the catalogue passes: {}. Check these members with `beamsift select` to see the nearest misses{}.",
@@ -177,4 +180,84 @@ pub fn document(s: &Schedule, v: &BatchView<'_>) -> Document {
     }
     finish_doc(&mut doc, &v.excluded, &s.assumptions, &s.notes, legend);
     doc
+}
+
+/// The bars bought per section, their offcuts and waste, and the members
+/// that need a splice.
+fn cutting(doc: &mut Document, c: &Cutting, sys: System) {
+    let (w, wf) = if sys == System::Si {
+        ("kg", 1.0)
+    } else {
+        ("lb", 1.0 / units::KG_PER_LB)
+    };
+    let span = Show::Span.label(sys);
+    let stock: Vec<String> = c
+        .stock_lengths
+        .iter()
+        .map(|&l| Show::Span.num(l, sys))
+        .collect();
+    let mut t = Table::new(
+        format!(
+            "Cutting from stock bars ({} {span}; kerf {} mm per piece{})",
+            stock.join(", "),
+            units::fmt_num(c.kerf),
+            if c.rationalised {
+                "; rationalised sections"
+            } else {
+                ""
+            }
+        ),
+        &[
+            ("Section", Align::Left),
+            (&format!("Bars bought [count × {span}]"), Align::Left),
+            (&format!("Bought [{span}]"), Align::Right),
+            (&format!("Cut [{span}]"), Align::Right),
+            (&format!("Waste [{span}]"), Align::Right),
+            (&format!("Waste [{w}]"), Align::Right),
+            ("Waste [%]", Align::Right),
+            ("Plan", Align::Left),
+            ("Needs a splice", Align::Left),
+        ],
+    );
+    for s in &c.sections {
+        t.row(vec![
+            s.section.clone(),
+            s.bars
+                .iter()
+                .map(|(l, n)| format!("{n} × {}", Show::Span.num(*l, sys)))
+                .collect::<Vec<_>>()
+                .join(", "),
+            Show::Span.num(s.plan.bought, sys),
+            Show::Span.num(s.plan.used, sys),
+            Show::Span.num(s.plan.waste(), sys),
+            format!("{:.0}", s.waste_mass * wf),
+            format!("{:.1}", 100.0 * s.plan.waste_fraction()),
+            if s.plan.exact {
+                "least length (exact)".into()
+            } else {
+                "first-fit decreasing".into()
+            },
+            if s.too_long.is_empty() {
+                "—".into()
+            } else {
+                s.too_long.join(", ")
+            },
+        ]);
+    }
+    doc.table(t);
+    doc.para(
+        "Each piece uses its length plus one kerf; offcuts are counted as waste. Up to 10 pieces per section the plan buys the least total length (exhaustive search); beyond that first-fit decreasing (with one stock length at most 11/9 × the optimum + 6/9 bars).".to_string(),
+    );
+    let long: Vec<String> = c
+        .sections
+        .iter()
+        .filter(|s| !s.too_long.is_empty())
+        .map(|s| format!("{} ({})", s.too_long.join(", "), s.section))
+        .collect();
+    if !long.is_empty() {
+        doc.para(format!(
+            "PROBLEM: longer than every stock length less the kerf, not cut and not in the bars bought: {}. These need a splice (design it and check it) or a special length.",
+            long.join("; ")
+        ));
+    }
 }

@@ -2,6 +2,7 @@
 //! catalogue, total a bill of quantities, and optionally rationalise to at
 //! most k distinct sections. The schedule format is in [`super::schedule`].
 
+use super::cutting::{CutPlan, cut};
 use super::rationalise::{Plan, rationalise};
 pub use super::schedule::{Member, read_schedule};
 use super::{Candidate, Filters};
@@ -231,6 +232,9 @@ pub struct Schedule {
     /// Currency; none when a chosen row has no price.
     pub total_cost: Option<f64>,
     pub rationalised: Option<Rationalised>,
+    /// The members cut from stock bars, per section (with `--stock-lengths`).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub cutting: Option<Cutting>,
     /// Marks no catalogue row passes.
     pub not_sized: Vec<String>,
     /// Each distinct assumption once, prefixed with the marks it concerns
@@ -332,8 +336,87 @@ pub fn schedule(
         total_mass,
         total_cost,
         rationalised,
+        cutting: None,
         not_sized,
         assumptions,
         notes,
     })
+}
+
+/// The bars bought for one section and how its members are cut.
+#[derive(Clone, Debug, Serialize)]
+pub struct SectionCut {
+    pub section: String,
+    /// kg/m.
+    pub mass: f64,
+    /// The mark of each piece (indices of the plan's pieces).
+    pub pieces: Vec<String>,
+    pub plan: CutPlan,
+    /// Bars bought per stock length: (mm, count).
+    pub bars: Vec<(f64, usize)>,
+    /// kg of offcuts and kerfs.
+    pub waste_mass: f64,
+    /// Marks longer than every stock length less the kerf (need a splice).
+    pub too_long: Vec<String>,
+}
+
+/// Every section's cutting plan, with the stock lengths and kerf used.
+#[derive(Clone, Debug, Serialize)]
+pub struct Cutting {
+    /// mm.
+    pub stock_lengths: Vec<f64>,
+    /// mm per piece.
+    pub kerf: f64,
+    /// Which sizing was cut: the rationalised one when there is one.
+    pub rationalised: bool,
+    pub sections: Vec<SectionCut>,
+}
+
+/// Cut the schedule's members (the rationalised sections when the
+/// schedule was rationalised) from bars of `stock` lengths (mm) with a
+/// `kerf` (mm) per piece. Members without a section are not cut.
+pub fn cut_schedule(s: &Schedule, stock: &[f64], kerf: f64) -> Cutting {
+    let section_of = |m: &MemberOut| -> Option<String> {
+        match &s.rationalised {
+            Some(r) => r
+                .members
+                .iter()
+                .find(|(mark, _)| *mark == m.result.mark)
+                .map(|(_, sec)| sec.clone()),
+            None => m.section.clone(),
+        }
+    };
+    let bill = s.rationalised.as_ref().map_or(&s.bill, |r| &r.bill);
+    let mut sections = Vec::new();
+    for line in bill {
+        let mut lengths = Vec::new();
+        let mut marks = Vec::new();
+        for m in &s.members {
+            if section_of(m).as_deref() == Some(line.section.as_str()) {
+                for _ in 0..m.result.count {
+                    lengths.push(m.result.length);
+                    marks.push(m.result.mark.clone());
+                }
+            }
+        }
+        let plan = cut(&lengths, stock, kerf);
+        let mass = line.total_mass / (line.total_length / 1000.0);
+        let mut too_long: Vec<String> = plan.too_long.iter().map(|&i| marks[i].clone()).collect();
+        too_long.dedup();
+        sections.push(SectionCut {
+            section: line.section.clone(),
+            mass,
+            bars: plan.bars_by_stock(),
+            waste_mass: mass * plan.waste() / 1000.0,
+            too_long,
+            pieces: marks,
+            plan,
+        });
+    }
+    Cutting {
+        stock_lengths: stock.to_vec(),
+        kerf,
+        rationalised: s.rationalised.is_some(),
+        sections,
+    }
 }

@@ -9,6 +9,7 @@
 //! depend on the number of threads.
 
 pub mod batch;
+pub mod cutting;
 pub mod rationalise;
 pub mod schedule;
 pub mod spans;
