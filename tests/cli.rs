@@ -42,6 +42,20 @@ fn check_exit_codes_follow_the_verdict() {
     let bad = run(&[&["check", "--job", job], &IPE300[..]].concat());
     assert_eq!(bad.status.code(), Some(1));
     assert!(text(&bad).0.contains("FAILS"));
+    // The calculation sheet of a failing member is written, and the
+    // command still exits 1 (from `report` and from `check --report`).
+    let dir = tempfile::tempdir().unwrap();
+    for (k, cmd) in [&["report", "--job", job][..], &["check", "--job", job]]
+        .iter()
+        .enumerate()
+    {
+        let to = dir.path().join(format!("fails-{k}"));
+        let flag = if k == 0 { "--to" } else { "--report" };
+        let o = run(&[*cmd, &[flag, to.to_str().unwrap()], &IPE300[..]].concat());
+        assert_eq!(o.status.code(), Some(1), "{cmd:?}: {}", text(&o).1);
+        let md = std::fs::read_to_string(to.with_extension("md")).unwrap();
+        assert!(md.contains("FAILS"), "{cmd:?}");
+    }
     // JSON for scripts.
     let o = run(&[&["check", "--job", job, "--json"], &IPE300[..]].concat());
     let v: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();

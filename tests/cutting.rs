@@ -161,7 +161,7 @@ proptest! {
         pieces in prop::collection::vec(500u32..=12_000, 1..=7),
     ) {
         // One stock length: FFD ≤ 11/9·OPT + 6/9 bars (Dósa 2007, the tight
-        // bound for first-fit decreasing).
+        // bound for first-fit decreasing; from memory).
         let pieces: Vec<f64> = pieces.iter().map(|&p| p as f64).collect();
         let plan = cut_limited(&pieces, &[12_000.0], 0.0, 0);
         valid(&plan, &pieces, 0.0);

@@ -13,7 +13,7 @@
 //! longest stock length, each bar then shortened to the shortest stock
 //! length that holds its pieces. With a single stock length, first-fit
 //! decreasing uses at most 11/9·OPT + 6/9 bars (Dósa 2007, the tight bound
-//! for FFD in bin packing).
+//! for FFD in bin packing; from memory).
 
 use serde::Serialize;
 
