@@ -587,3 +587,83 @@ fn catalogue_cells_read_fractional_inches() {
         "{out}"
     );
 }
+
+/// `check --section NAME -c FILE` checks the catalogue row by name: the
+/// same verdict and utilisation as `select` gives that row, and, within
+/// the self-weight difference of the row's printed mass (65.5 kg/m) from
+/// A × 7850 kg/m³, as `check` of the same rolled I by its dimensions
+/// (whose properties are tested against handbook values in
+/// tests/sections.rs). A wrong-case name is refused with the similar one.
+#[test]
+fn check_takes_a_catalogue_row_by_name() {
+    let job = repo("catalogs/demo-job.toml");
+    let cat = repo("catalogs/demo-steel.csv");
+    let (job, cat) = (job.to_str().unwrap(), cat.to_str().unwrap());
+    let json = |o: &std::process::Output| -> serde_json::Value {
+        serde_json::from_slice(&o.stdout).unwrap_or_else(|e| panic!("{e}: {}", text(o).1))
+    };
+    let named = run(&[
+        "check",
+        "--job",
+        job,
+        "-c",
+        cat,
+        "--section",
+        "NB 360 L",
+        "--json",
+    ]);
+    assert_eq!(named.status.code(), Some(0), "{}", text(&named).1);
+    let named = json(&named);
+    assert_eq!(named["section"], "NB 360 L");
+    let sel = json(&run(&[
+        "select", "--job", job, "-c", cat, "--name", "NB 360 L", "--json", "-q",
+    ]));
+    let row = &sel["passing"][0];
+    assert_eq!(row["name"], "NB 360 L", "{sel}");
+    let u = named["utilisation"].as_f64().unwrap();
+    assert!(
+        (u - row["utilisation"].as_f64().unwrap()).abs() < 1e-12,
+        "{u} vs {row}"
+    );
+    let dims = json(&run(&[
+        "check",
+        "--job",
+        job,
+        "rolled-i",
+        "d=360mm",
+        "bf=190mm",
+        "tf=13.6mm",
+        "tw=8.7mm",
+        "r=18mm",
+        "--json",
+    ]));
+    let ud = dims["utilisation"].as_f64().unwrap();
+    assert!(
+        (u - ud).abs() / ud < 2e-3,
+        "by name {u}, by dimensions {ud}"
+    );
+
+    let wrong = run(&["check", "--job", job, "-c", cat, "--section", "nb 360 l"]);
+    assert_eq!(wrong.status.code(), Some(2));
+    assert!(
+        text(&wrong).1.contains("similar: 'NB 360 L'"),
+        "{}",
+        text(&wrong).1
+    );
+    // A catalogue without a name, and a name with a shape, are refused.
+    let o = run(&["check", "--job", job, "-c", cat]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(text(&o).1.contains("--section"), "{}", text(&o).1);
+    let o = run(&[
+        "check",
+        "--job",
+        job,
+        "--section",
+        "NB 360 L",
+        "rect",
+        "b=100mm",
+        "d=300mm",
+    ]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(text(&o).1.contains("--section"), "{}", text(&o).1);
+}

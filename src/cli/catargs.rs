@@ -147,3 +147,90 @@ pub fn run_scan(
     pb.finish_and_clear();
     Ok((sel, job.currency_or(&currencies)))
 }
+
+impl CatalogArgs {
+    /// Without a catalogue the catalogue options have nothing to act on:
+    /// refused by name rather than ignored (`section`: --section was given).
+    pub fn refuse_idle(&self, section: bool) -> Result<()> {
+        let idle: Vec<&str> = [
+            (section, "--section"),
+            (self.delimiter != ",", "--delimiter"),
+            (self.skip_bad_rows, "--skip-bad-rows"),
+            (self.max_depth.is_some(), "--max-depth"),
+            (self.min_depth.is_some(), "--min-depth"),
+            (self.max_width.is_some(), "--max-width"),
+            (self.grade.is_some(), "--grade"),
+            (self.in_stock, "--in-stock"),
+            (self.name.is_some(), "--name"),
+            (self.jobs.is_some(), "--jobs"),
+        ]
+        .into_iter()
+        .filter_map(|(set, name)| set.then_some(name))
+        .collect();
+        if idle.is_empty() {
+            return Ok(());
+        }
+        Err(Error::msg(format!(
+            "{} select(s) rows of a catalogue, and a shape was given instead: leave {} out, or give --catalog FILE without the shape",
+            idle.join(", "),
+            if idle.len() == 1 { "it" } else { "them" }
+        )))
+    }
+}
+
+/// A scan that keeps every row the filters let through, with the name
+/// filter set to `name` when one is given (so the exact row is found
+/// whatever its verdict), else the lightest few; with the note of how the
+/// catalogue was read.
+pub fn scan_for_sheet(
+    job: &Job,
+    prep: &Prepared,
+    cat: &CatalogArgs,
+    section: Option<&str>,
+    sys: beamsift::units::System,
+) -> Result<(Selection, String)> {
+    if section.is_some() && cat.name.is_some() {
+        return Err(
+            Error::msg("give either --section NAME or --name PATTERN, not both").in_field("--name"),
+        );
+    }
+    let keep = if section.is_some() { 10_000 } else { 6 };
+    let mut filters = cat.filters_for(job)?;
+    if let Some(n) = section {
+        filters.name = Some(n.to_string());
+    }
+    let opts = ScanOptions {
+        ranks: vec![(search::Rank::Mass, keep)],
+        near: if section.is_some() { keep } else { 1 },
+        unverified: keep,
+        filters,
+        skip_bad_rows: cat.skip_bad_rows,
+        ..ScanOptions::default()
+    };
+    let (sel, _) = run_scan(job, prep, cat, &opts)?;
+    let note = beamsift::report::sheet::scan_note(&sel, &opts.filters, cat.skip_bad_rows, sys);
+    let Some(n) = section else {
+        return Ok((sel, note));
+    };
+    if let Err(e) = sel.named(n) {
+        let f = opts.filters.describe(sys);
+        // The name filter is the section itself.
+        let others: Vec<&String> = f
+            .iter()
+            .filter(|d| !d.starts_with("names matching"))
+            .collect();
+        return Err(if others.is_empty() {
+            e
+        } else {
+            Error::msg(format!(
+                "{e}, among the rows the filters let through ({}): it may have been left out by them",
+                others
+                    .iter()
+                    .map(|s| s.as_str())
+                    .collect::<Vec<_>>()
+                    .join(", ")
+            ))
+        });
+    }
+    Ok((sel, note))
+}

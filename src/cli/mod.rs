@@ -211,6 +211,7 @@ impl Command {
             Command::Section(_) | Command::Completions { .. } => {}
             Command::Check(a) => {
                 inputs.extend(a.job.job.clone());
+                inputs.extend(a.cat.catalog.clone());
                 if let Some(p) = &a.report {
                     pair(p, &mut outputs);
                 }
