@@ -667,3 +667,57 @@ fn check_takes_a_catalogue_row_by_name() {
     assert_eq!(o.status.code(), Some(2));
     assert!(text(&o).1.contains("--section"), "{}", text(&o).1);
 }
+
+/// `optimise ... -c FILE --section NAME` sets the catalogue row beside the
+/// fabrication sizes: the row's utilisation is the one `check --section`
+/// gives it, and the change is (optimum − row) / row of the numbers shown
+/// (a hand calculation on the JSON fields). Half the pair is refused.
+#[test]
+fn optimise_sets_a_catalogue_row_beside_the_optimum() {
+    let job = repo("catalogs/demo-job.toml");
+    let cat = repo("catalogs/demo-steel.csv");
+    let (job, cat) = (job.to_str().unwrap(), cat.to_str().unwrap());
+    let base = ["optimise", "--job", job, "welded-i", "--max-depth", "450mm"];
+    let o = run(&[&base[..], &["-c", cat, "--section", "NB 360 L", "--json"]].concat());
+    assert_eq!(o.status.code(), Some(0), "{}", text(&o).1);
+    let v: serde_json::Value = serde_json::from_slice(&o.stdout).unwrap();
+    let r = &v["reference"];
+    assert_eq!(r["name"], "NB 360 L", "{v}");
+    let checked: serde_json::Value = serde_json::from_slice(
+        &run(&[
+            "check",
+            "--job",
+            job,
+            "-c",
+            cat,
+            "--section",
+            "NB 360 L",
+            "--json",
+        ])
+        .stdout,
+    )
+    .unwrap();
+    assert_eq!(r["utilisation"], checked["utilisation"]);
+    assert_eq!(r["verdict"], checked["verdict"]);
+    let (m, rm) = (
+        v["discrete"]["mass"].as_f64().unwrap(),
+        r["mass"].as_f64().unwrap(),
+    );
+    assert_eq!(rm, 65.5, "the row's printed mass (catalogs/demo-steel.csv)");
+    assert!((r["mass_change"].as_f64().unwrap() - (m - rm) / rm).abs() < 1e-12);
+    let t = text(&run(
+        &[&base[..], &["-c", cat, "--section", "NB 360 L"]].concat()
+    ))
+    .0;
+    assert!(t.contains("Against the catalogue row NB 360 L"), "{t}");
+
+    for (extra, named) in [
+        (&["--section", "NB 360 L"][..], "--section"),
+        (&["-c", cat], "--catalog"),
+        (&["--delimiter", ";"], "--delimiter"),
+    ] {
+        let o = run(&[&base[..], extra].concat());
+        assert_eq!(o.status.code(), Some(2), "{extra:?}");
+        assert!(text(&o).1.contains(named), "{extra:?}: {}", text(&o).1);
+    }
+}

@@ -149,11 +149,13 @@ pub fn run_scan(
 }
 
 impl CatalogArgs {
-    /// Without a catalogue the catalogue options have nothing to act on:
-    /// refused by name rather than ignored (`section`: --section was given).
-    pub fn refuse_idle(&self, section: bool) -> Result<()> {
-        let idle: Vec<&str> = [
+    /// The catalogue options given (`section`: --section was given), by
+    /// name: without a catalogue they have nothing to act on, so they are
+    /// refused rather than ignored.
+    pub fn given(&self, section: bool) -> Vec<&'static str> {
+        [
             (section, "--section"),
+            (!self.catalog.is_empty(), "--catalog"),
             (self.delimiter != ",", "--delimiter"),
             (self.skip_bad_rows, "--skip-bad-rows"),
             (self.max_depth.is_some(), "--max-depth"),
@@ -166,7 +168,31 @@ impl CatalogArgs {
         ]
         .into_iter()
         .filter_map(|(set, name)| set.then_some(name))
-        .collect();
+        .collect()
+    }
+
+    /// The rows of `catalog`, unfiltered, without a progress bar (one row
+    /// looked up by name).
+    pub fn rows_of(catalog: Vec<PathBuf>, delimiter: &str) -> Self {
+        CatalogArgs {
+            catalog,
+            delimiter: delimiter.to_string(),
+            skip_bad_rows: false,
+            max_depth: None,
+            min_depth: None,
+            max_width: None,
+            grade: None,
+            in_stock: false,
+            name: None,
+            jobs: None,
+            quiet: true,
+            inputs: Default::default(),
+        }
+    }
+
+    /// A shape was given: every catalogue option is refused by name.
+    pub fn refuse_idle(&self, section: bool) -> Result<()> {
+        let idle = self.given(section);
         if idle.is_empty() {
             return Ok(());
         }

@@ -233,7 +233,10 @@ impl Command {
                 inputs.push(a.job.clone());
                 inputs.extend(a.cat.catalog.clone());
             }
-            Command::Optimise(a) => inputs.extend(a.job.job.clone()),
+            Command::Optimise(a) => {
+                inputs.extend(a.job.job.clone());
+                inputs.extend(a.catalog.clone());
+            }
             Command::Report(a) => {
                 inputs.extend(a.job.job.clone());
                 inputs.extend(a.cat.catalog.clone());

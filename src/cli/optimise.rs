@@ -2,9 +2,10 @@
 //! mono-symmetric I or hollow section, continuous and on fabrication sizes.
 
 use super::Out;
+use super::catargs::{CatalogArgs, scan_for_sheet};
 use super::jobargs::JobArgs;
 use super::output::emit;
-use beamsift::error::Result;
+use beamsift::error::{Error, Result};
 use beamsift::optimise::{self, Family, Objective};
 use beamsift::report;
 use beamsift::report::optimise::{LimitSource, document};
@@ -12,6 +13,7 @@ use beamsift::report::optimise::{LimitSource, document};
 pub const EXAMPLES: &str = "Examples:
   beamsift optimise --job catalogs/demo-joists.toml rect --aspect 4 --b-sizes 38,47,63,75mm --d-sizes 100,125,150,175,200,225,250,300mm
   beamsift optimise --job catalogs/demo-job.toml welded-i --max-depth 450mm
+  beamsift optimise --job catalogs/demo-job.toml welded-i --max-depth 450mm -c catalogs/demo-steel.csv --section 'NB 360 L'
   beamsift optimise --job job.toml welded-i --bound hw=300mm..900mm --plates 8,10,12,15,20,25mm --objective cost \\
       --plate-prices 1.35,1.30,1.25,1.22,1.20,1.20
 
@@ -22,6 +24,16 @@ tw 5–30 mm; mono-i the same for each flange; rhs b 50–400, h 50–600, t 3�
 pub struct Args {
     #[command(flatten)]
     pub job: JobArgs,
+    /// Catalogue CSV file(s) holding the row named by --section.
+    #[arg(long, short = 'c', value_name = "FILE")]
+    pub catalog: Vec<std::path::PathBuf>,
+    /// Field delimiter of the catalogue: a character, or 'tab'.
+    #[arg(long, default_value = ",")]
+    pub delimiter: String,
+    /// Name of a catalogue row to set beside the optimum (checked against
+    /// the same job, in its own grade).
+    #[arg(long, value_name = "NAME")]
+    pub section: Option<String>,
     /// Section family to proportion.
     #[arg(value_parser = super::values::family())]
     pub family: Family,
@@ -104,7 +116,33 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     let sys = out.units;
     let prep = job.prepare()?;
     let (prob, opts) = options.build(&job.material, sys)?;
-    let result = optimise::study(&job.title, &prob, &prep, &opts)?;
+    let mut result = optimise::study(&job.title, &prob, &prep, &opts)?;
+    match (&a.section, a.catalog.is_empty()) {
+        (Some(name), false) => {
+            let cat = CatalogArgs::rows_of(a.catalog.clone(), &a.delimiter);
+            let (sel, _) = scan_for_sheet(&job, &prep, &cat, Some(name), sys)?;
+            sel.named(name)?.set_beside(&mut result);
+        }
+        (None, true) if a.delimiter != "," => {
+            return Err(Error::msg(
+                "--delimiter is for the catalogue of --section NAME --catalog FILE: give them, or leave it out",
+            )
+            .in_field("--delimiter"));
+        }
+        (None, true) => {}
+        (Some(_), true) => {
+            return Err(Error::msg(
+                "--section names a catalogue row: give the catalogue with --catalog FILE",
+            )
+            .in_field("--section"));
+        }
+        (None, false) => {
+            return Err(Error::msg(
+                "--catalog is read for the row to compare the optimum with: name it with --section NAME",
+            )
+            .in_field("--catalog"));
+        }
+    }
     let source = LimitSource {
         flange_given: a.lambda_f.is_some(),
         web_given: a.lambda_w.is_some(),

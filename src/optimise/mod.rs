@@ -36,7 +36,7 @@ pub use families::{Axis, FamilyKind, Limits};
 pub use options::Options;
 use rayon::prelude::*;
 use serde::{Deserialize, Serialize};
-pub use study::{Sensitivity, Study, StudyOptions, Variant, study};
+pub use study::{Reference, Sensitivity, Study, StudyOptions, Variant, study};
 
 /// Section families that can be optimised.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]

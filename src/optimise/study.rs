@@ -98,7 +98,30 @@ pub struct Study {
     pub excluded: Vec<String>,
     /// Assumptions of the checks.
     pub assumptions: Vec<String>,
+    /// A catalogue row set beside the result (`--section NAME -c FILE`).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub reference: Option<Reference>,
     pub caution: &'static str,
+}
+
+/// A catalogue row checked against the same job, set beside the
+/// fabrication sizes: what the optimum saves (or costs) against it.
+#[derive(Clone, Debug, Serialize)]
+pub struct Reference {
+    pub name: String,
+    /// mm².
+    pub area: f64,
+    /// kg/m.
+    pub mass: f64,
+    /// mm.
+    pub depth: f64,
+    pub utilisation: f64,
+    pub verdict: crate::check::Verdict,
+    /// The governing check, in words.
+    pub governing: Option<String>,
+    /// (fabrication sizes − row) / row, of mass and of area: negative saves.
+    pub mass_change: f64,
+    pub area_change: f64,
 }
 
 impl Objective {
@@ -144,6 +167,7 @@ pub fn study(title: &str, prob: &Problem, prep: &Prepared, opts: &StudyOptions) 
         not_checked: prep.not_checked(&d_props, None),
         excluded: prep.criteria.exclude.list(),
         assumptions: prep.assumptions(),
+        reference: None,
         caution: crate::CAUTION,
     })
 }

@@ -180,6 +180,45 @@ pub fn document(result: &Study, source: &LimitSource, sys: System) -> Document {
         prob.objective.noun(),
         result.discrete.governing.clone().unwrap_or_default()
     ));
+    if let Some(r) = &result.reference {
+        let mut rt = Table::new(
+            format!("Against the catalogue row {}", r.name),
+            &[
+                ("", Align::Left),
+                ("Catalogue row", Align::Right),
+                ("Fabrication sizes", Align::Right),
+                ("Change", Align::Right),
+            ],
+        );
+        rt.row(vec![
+            format!("Area [{}]", Show::Area.label(sys)),
+            Show::Area.num(r.area, sys),
+            Show::Area.num(result.discrete.area, sys),
+            format!("{:+.1} %", 100.0 * r.area_change),
+        ]);
+        rt.row(vec![
+            format!("Mass [{}]", Show::Mass.label(sys)),
+            Show::Mass.fixed(r.mass, sys, 2),
+            Show::Mass.fixed(result.discrete.mass, sys, 2),
+            format!("{:+.1} %", 100.0 * r.mass_change),
+        ]);
+        rt.row(vec![
+            "Utilisation".into(),
+            format!("{:.3}", r.utilisation),
+            format!("{:.3}", result.discrete.utilisation),
+            String::new(),
+        ]);
+        doc.table(rt);
+        doc.para(format!(
+            "The catalogue row ({} deep) was checked against the same job in its own grade: {}{}. A negative change is what the fabrication sizes save against it.",
+            Show::Dimension.fmt(r.depth, sys),
+            r.verdict.word(),
+            r.governing
+                .as_ref()
+                .map(|g| format!(", governed by {g}"))
+                .unwrap_or_default()
+        ));
+    }
     if !result.active.is_empty() {
         doc.list(
             "Active (binding) constraints at the continuous optimum:",

@@ -223,3 +223,22 @@ impl Selection {
         })
     }
 }
+
+impl Candidate {
+    /// Set this row (checked by the scan that found it, in its own grade)
+    /// beside the fabrication sizes of an optimisation study.
+    pub fn set_beside(&self, study: &mut crate::optimise::Study) {
+        let (m, a) = (study.discrete.mass, study.discrete.area);
+        study.reference = Some(crate::optimise::Reference {
+            name: self.name.clone(),
+            area: self.properties.area,
+            mass: self.mass,
+            depth: self.depth,
+            utilisation: self.utilisation,
+            verdict: self.verdict,
+            governing: self.governing.map(|g| g.kind.label().to_string()),
+            mass_change: (m - self.mass) / self.mass,
+            area_change: (a - self.properties.area) / self.properties.area,
+        });
+    }
+}
