@@ -577,6 +577,24 @@ pub fn parse(text: &str, dim: Dim) -> Result<f64> {
     Ok(v)
 }
 
+/// The system a length was typed in (for the words of a message about
+/// it): US for inches, feet and feet-inches, else SI.
+pub fn typed_length_system(text: &str) -> System {
+    let t = text.trim();
+    if t.contains(['\'', '"', '′', '″']) {
+        return System::Us;
+    }
+    let unit = match split_fraction(t) {
+        Some(Ok((_, u))) => u,
+        Some(Err(_)) => return System::Si,
+        None => split_number(t).map_or("", |(_, u)| u),
+    };
+    match unit_factor(unit, Dim::Length) {
+        Ok(f) if f == MM_PER_IN || f == MM_PER_FT => System::Us,
+        _ => System::Si,
+    }
+}
+
 /// Parse a plain number (no unit), rejecting NaN and infinities.
 pub fn parse_number(text: &str) -> Result<f64> {
     let t = text.trim();

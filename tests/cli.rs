@@ -721,3 +721,60 @@ fn optimise_sets_a_catalogue_row_beside_the_optimum() {
         assert!(text(&o).1.contains(named), "{extra:?}: {}", text(&o).1);
     }
 }
+
+/// Problems are told in the units the user typed: a catalogue whose
+/// headers are in inches and lb/ft hears about its rows in inches and
+/// lb/ft, at the column of the dimension at fault; a shape typed in inches
+/// hears in inches. (7 in flanges in a 12 in depth cannot fit: 2 × 7 > 12.
+/// A·ρ of the valid row: A = 2·6·0.5 + 11·0.3 = 9.3 in² (no fillets),
+/// × 490 lb/ft³ (steel, 7850 kg/m³; AISC Manual, from memory) / 144 =
+/// 31.6 lb/ft, so 30 lb/ft is 5.2 % off, beyond the 5 % allowed.)
+#[test]
+fn problems_are_told_in_the_units_typed() {
+    let dir = tempfile::tempdir().unwrap();
+    let f = dir.path().join("us.csv");
+    std::fs::write(
+        &f,
+        "name,shape,d [in],bf [in],tf [in],tw [in],mass [lb/ft]\n\
+         W1,rolled-i,12,6,0.5,0.3,30\n\
+         W2,rolled-i,12,6,7,0.3,30\n",
+    )
+    .unwrap();
+    let job = repo("catalogs/demo-job.toml");
+    let o = run(&[
+        "catalog",
+        "validate",
+        f.to_str().unwrap(),
+        "--job",
+        job.to_str().unwrap(),
+    ]);
+    let out = text(&o).0;
+    let flat = out.split_whitespace().collect::<Vec<_>>().join(" ");
+    assert!(
+        flat.contains(
+            "us.csv:3:5: tf [in]: two flanges of tf = 7 in do not fit in the depth d = 12 in"
+        ),
+        "{out}"
+    );
+    assert!(
+        flat.contains("us.csv:2:7: mass [lb/ft]: mass 30 lb/ft differs by 5.2 % from A·ρ = 31.6"),
+        "{out}"
+    );
+    assert!(!flat.contains(" mm ") && !flat.contains("kg/m"), "{out}");
+    let o = run(&[
+        "section", "rolled-i", "d=12in", "bf=6in", "tf=7in", "tw=0.3in",
+    ]);
+    let err = text(&o).1;
+    assert!(
+        err.contains("tf = 7 in do not fit in the depth d = 12 in"),
+        "{err}"
+    );
+    let o = run(&[
+        "section", "rolled-i", "d=300mm", "bf=150mm", "tf=160mm", "tw=7mm",
+    ]);
+    let err = text(&o).1;
+    assert!(
+        err.contains("tf = 160 mm do not fit in the depth d = 300 mm"),
+        "{err}"
+    );
+}

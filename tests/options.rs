@@ -268,6 +268,24 @@ fn table() -> BTreeMap<&'static str, (Expect, Vec<&'static str>)> {
     add("optimise --starts", Changes, &["--starts", "2"]);
     // report.
     add("report --section", Changes, &["--section", "NB 400 L"]);
+    // check and optimise take a catalogue row only by name: with the base
+    // run's shape (check) or without --section (optimise), each catalogue
+    // option is refused by name.
+    add("check --section", Refused, &["--section", "NB 400 L"]);
+    add("check --catalog", Refused, &["-c", "CATALOG2"]);
+    for opt in [
+        &["--skip-bad-rows"][..],
+        &["--max-depth", "300mm"],
+        &["--min-depth", "400mm"],
+        &["--max-width", "60mm"],
+        &["--in-stock"],
+        &["--name", "NB 3*"],
+        &["--jobs", "1"],
+    ] {
+        add(format!("check {}", opt[0]).leak(), Refused, opt);
+    }
+    add("optimise --section", Refused, &["--section", "NB 400 L"]);
+    add("optimise --catalog", Refused, &["-c", "CATALOG2"]);
     add("report --to", Changes, &[]);
     // sweeps.
     add("sweep lightest --spans", Changes, &[]);

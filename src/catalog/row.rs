@@ -175,14 +175,15 @@ fn mass(
             if density > 0.0 {
                 let from_area = props.mass_per_length(density);
                 if rel_diff(m, from_area) > 0.05 {
+                    let sys = schema.typed_system(units::Show::Mass);
                     return Err(cell_err(
                         mass_col.unwrap_or(name_col),
                         schema,
                         format!(
-                            "mass {} kg/m differs by {:.1} % from A·ρ = {} kg/m: expected agreement within 5 % (check the area, the unit or the density)",
-                            units::fmt_num(m),
+                            "mass {} differs by {:.1} % from A·ρ = {}: expected agreement within 5 % (check the area, the unit or the density)",
+                            units::Show::Mass.fmt(m, sys),
                             100.0 * rel_diff(m, from_area),
-                            units::fmt_num(from_area)
+                            units::Show::Mass.fmt(from_area, sys)
                         ),
                     ));
                 }

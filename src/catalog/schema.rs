@@ -356,6 +356,27 @@ fn prop_label(p: Prop) -> &'static str {
     }
 }
 
+impl Schema {
+    /// The unit system a row's values of `show` were typed in, for the
+    /// words of its problems: US when every such column is in a US unit
+    /// (lengths in inches or feet; mass in lb/ft), else SI.
+    pub(super) fn typed_system(&self, show: units::Show) -> units::System {
+        let us = |f: f64| match show {
+            units::Show::Dimension => f == units::MM_PER_IN || f == units::MM_PER_FT,
+            s => (f - s.unit(units::System::Us).1).abs() <= 1e-9 * f,
+        };
+        let mut factors = self.cols.iter().filter_map(|c| match (c, show) {
+            (Col::Dim(_, f), units::Show::Dimension) => Some(*f),
+            (Col::Prop(Prop::Mass, f), units::Show::Mass) => Some(*f),
+            _ => None,
+        });
+        match factors.next() {
+            Some(f) if us(f) && factors.all(us) => units::System::Us,
+            _ => units::System::Si,
+        }
+    }
+}
+
 /// The column that gives the quantity `label` (an S column gives both
 /// S_top and S_bot; tw and tf are dimension columns).
 pub(super) fn column_of(schema: &Schema, label: &str) -> Option<usize> {

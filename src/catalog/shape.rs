@@ -24,7 +24,12 @@ pub(super) fn shape_and_properties(
     let shape = if family.is_empty() {
         None
     } else {
-        Some(shape_direct(family, &dim).map_err(|m| cell_err(shape_col, schema, m))?)
+        let s = shape_direct(family, &dim).map_err(|m| cell_err(shape_col, schema, m))?;
+        // A dimension that cannot be is reported at its own column, in the
+        // units the row's header gives.
+        s.validate_in(schema.typed_system(crate::units::Show::Dimension))
+            .map_err(|e| located(schema, e, shape_col))?;
+        Some(s)
     };
     // Properties: computed, given, or both (cross-checked).
     let props = match &shape {
@@ -47,18 +52,26 @@ pub(super) fn shape_and_properties(
             given.tw = dim(TW);
             given.bf = dim(BF);
             given.tf = dim(TF);
-            given.properties().map_err(|e| match e {
-                crate::error::Error::Input { location, message } => {
-                    match location.field.as_deref().and_then(|f| column_of(schema, f)) {
-                        Some(col) => cell_err(col, schema, message),
-                        None => cell_err(name_col, schema, message),
-                    }
-                }
-                other => cell_err(name_col, schema, other.to_string()),
-            })?
+            given
+                .properties()
+                .map_err(|e| located(schema, e, name_col))?
         }
     };
     Ok((shape, props))
+}
+
+/// An error of the section module at the column of the field it names
+/// (else at `fallback`).
+fn located(schema: &Schema, e: crate::error::Error, fallback: usize) -> CellError {
+    match e {
+        crate::error::Error::Input { location, message } => {
+            match location.field.as_deref().and_then(|f| column_of(schema, f)) {
+                Some(col) => cell_err(col, schema, message),
+                None => cell_err(fallback, schema, message),
+            }
+        }
+        other => cell_err(fallback, schema, other.to_string()),
+    }
 }
 
 /// Given values must agree with those computed from the dimensions.
@@ -223,6 +236,5 @@ fn shape_direct(
             ));
         }
     };
-    shape.validate().map_err(|e| e.to_string())?;
     Ok(shape)
 }

@@ -13,44 +13,45 @@
 //! Table A.1); circles do not warp (C_w = 0).
 
 use super::composite::{Composite, Part, add, sub};
-use super::{Properties, from_composite, mm, non_negative, positive};
+use super::{Properties, from_composite, len, non_negative, positive};
 use crate::error::{Error, Result};
+use crate::units::System;
 use std::f64::consts::PI;
 
-pub(crate) fn validate_rhs(b: f64, h: f64, t: f64, r_out: f64) -> Result<()> {
-    positive("b", b)?;
-    positive("h", h)?;
-    positive("t", t)?;
-    non_negative("r_out", r_out)?;
+pub(crate) fn validate_rhs(b: f64, h: f64, t: f64, r_out: f64, sys: System) -> Result<()> {
+    positive("b", b, sys)?;
+    positive("h", h, sys)?;
+    positive("t", t, sys)?;
+    non_negative("r_out", r_out, sys)?;
     let half = b.min(h) / 2.0;
     if t >= half {
         return Err(Error::msg(format!(
             "wall t = {} is not less than half the smaller side ({}): expected a hollow section (use `rect` for a solid one)",
-            mm(t),
-            mm(half)
+            len(t, sys),
+            len(half, sys)
         ))
         .in_field("t"));
     }
     if r_out > half {
         return Err(Error::msg(format!(
             "corner radius r_out = {} exceeds half the smaller side ({}): expected r_out ≤ {}",
-            mm(r_out),
-            mm(half),
-            mm(half)
+            len(r_out, sys),
+            len(half, sys),
+            len(half, sys)
         ))
         .in_field("r_out"));
     }
     Ok(())
 }
 
-pub(crate) fn validate_chs(d: f64, t: f64) -> Result<()> {
-    positive("d", d)?;
-    positive("t", t)?;
+pub(crate) fn validate_chs(d: f64, t: f64, sys: System) -> Result<()> {
+    positive("d", d, sys)?;
+    positive("t", t, sys)?;
     if t >= d / 2.0 {
         return Err(Error::msg(format!(
             "wall t = {} is not less than the radius {}: expected a hollow tube (use `round` for a solid bar)",
-            mm(t),
-            mm(d / 2.0)
+            len(t, sys),
+            len(d / 2.0, sys)
         ))
         .in_field("t"));
     }

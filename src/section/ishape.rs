@@ -15,17 +15,18 @@
 //!   about the web axis.
 
 use super::composite::{Composite, Part, add};
-use super::{IGeometry, Properties, from_composite, mm, non_negative, positive};
+use super::{IGeometry, Properties, from_composite, len, non_negative, positive};
 use crate::error::{Error, Result};
+use crate::units::System;
 
-fn check_web(hw: f64, tw: f64) -> Result<()> {
-    positive("hw", hw)?;
-    positive("tw", tw)?;
+fn check_web(hw: f64, tw: f64, sys: System) -> Result<()> {
+    positive("hw", hw, sys)?;
+    positive("tw", tw, sys)?;
     if tw >= hw {
         return Err(Error::msg(format!(
             "web thickness tw = {} is not less than the web height hw = {}: expected a web taller than it is thick",
-            mm(tw),
-            mm(hw)
+            len(tw, sys),
+            len(hw, sys)
         ))
         .in_field("tw"));
     }
@@ -33,24 +34,24 @@ fn check_web(hw: f64, tw: f64) -> Result<()> {
 }
 
 /// `names` = (flange width name, flange thickness name), e.g. ("bf_top", "tf_top").
-fn check_flange(names: (&str, &str), bf: f64, tf: f64, tw: f64) -> Result<()> {
-    positive(names.0, bf)?;
-    positive(names.1, tf)?;
+fn check_flange(names: (&str, &str), bf: f64, tf: f64, tw: f64, sys: System) -> Result<()> {
+    positive(names.0, bf, sys)?;
+    positive(names.1, tf, sys)?;
     if bf < tw {
         return Err(Error::msg(format!(
             "flange width {} = {} is narrower than the web thickness tw = {}: expected bf ≥ tw",
             names.0,
-            mm(bf),
-            mm(tw)
+            len(bf, sys),
+            len(tw, sys)
         ))
         .in_field(names.0));
     }
     Ok(())
 }
 
-pub(crate) fn validate_welded(bf: f64, tf: f64, hw: f64, tw: f64) -> Result<()> {
-    check_web(hw, tw)?;
-    check_flange(("bf", "tf"), bf, tf, tw)
+pub(crate) fn validate_welded(bf: f64, tf: f64, hw: f64, tw: f64, sys: System) -> Result<()> {
+    check_web(hw, tw, sys)?;
+    check_flange(("bf", "tf"), bf, tf, tw, sys)
 }
 
 pub(crate) fn validate_mono(
@@ -60,41 +61,49 @@ pub(crate) fn validate_mono(
     tf_bot: f64,
     hw: f64,
     tw: f64,
+    sys: System,
 ) -> Result<()> {
-    check_web(hw, tw)?;
-    check_flange(("bf_top", "tf_top"), bf_top, tf_top, tw)?;
-    check_flange(("bf_bot", "tf_bot"), bf_bot, tf_bot, tw)
+    check_web(hw, tw, sys)?;
+    check_flange(("bf_top", "tf_top"), bf_top, tf_top, tw, sys)?;
+    check_flange(("bf_bot", "tf_bot"), bf_bot, tf_bot, tw, sys)
 }
 
-pub(crate) fn validate_rolled(d: f64, bf: f64, tf: f64, tw: f64, r: f64) -> Result<()> {
-    positive("d", d)?;
-    positive("tf", tf)?;
-    non_negative("r", r)?;
+pub(crate) fn validate_rolled(
+    d: f64,
+    bf: f64,
+    tf: f64,
+    tw: f64,
+    r: f64,
+    sys: System,
+) -> Result<()> {
+    positive("d", d, sys)?;
+    positive("tf", tf, sys)?;
+    non_negative("r", r, sys)?;
     if 2.0 * tf >= d {
         return Err(Error::msg(format!(
             "two flanges of tf = {} do not fit in the depth d = {}: expected d > 2·tf",
-            mm(tf),
-            mm(d)
+            len(tf, sys),
+            len(d, sys)
         ))
         .in_field("tf"));
     }
     let hw = d - 2.0 * tf;
-    check_web(hw, tw)?;
-    check_flange(("bf", "tf"), bf, tf, tw)?;
+    check_web(hw, tw, sys)?;
+    check_flange(("bf", "tf"), bf, tf, tw, sys)?;
     if tw + 2.0 * r > bf {
         return Err(Error::msg(format!(
             "root fillets r = {} do not fit on the flange: expected tw + 2·r ≤ bf (here {} > {})",
-            mm(r),
-            mm(tw + 2.0 * r),
-            mm(bf)
+            len(r, sys),
+            len(tw + 2.0 * r, sys),
+            len(bf, sys)
         ))
         .in_field("r"));
     }
     if 2.0 * r > hw {
         return Err(Error::msg(format!(
             "root fillets r = {} do not fit in the web height d − 2·tf = {}: expected 2·r ≤ d − 2·tf",
-            mm(r),
-            mm(hw)
+            len(r, sys),
+            len(hw, sys)
         ))
         .in_field("r"));
     }

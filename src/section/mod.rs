@@ -219,18 +219,18 @@ pub enum Shape {
 /// Supported range of a section dimension: 1 µm to 100 m.
 const DIM_RANGE: (f64, f64) = (1e-3, 1e5);
 
-pub(crate) fn positive(name: &str, v: f64) -> Result<()> {
+pub(crate) fn positive(name: &str, v: f64, sys: System) -> Result<()> {
     if v.is_finite() && v > 0.0 && !(DIM_RANGE.0..=DIM_RANGE.1).contains(&v) {
         return Err(Error::msg(format!(
-            "{name} = {} mm is outside the supported range of section dimensions (0.001 mm to 100 m)",
-            crate::units::fmt_num(v)
+            "{name} = {} is outside the supported range of section dimensions (0.001 mm to 100 m)",
+            len(v, sys)
         ))
         .in_field(name));
     }
     if !v.is_finite() || v <= 0.0 {
         return Err(Error::msg(format!(
             "{name} = {} is not valid: expected a finite dimension greater than zero",
-            crate::units::fmt_num(v)
+            shown(v, sys)
         ))
         .in_field(name));
     }
@@ -249,19 +249,29 @@ pub(crate) fn positive_value(name: &str, v: f64) -> Result<()> {
     Ok(())
 }
 
-pub(crate) fn non_negative(name: &str, v: f64) -> Result<()> {
+pub(crate) fn non_negative(name: &str, v: f64, sys: System) -> Result<()> {
     if !v.is_finite() || v < 0.0 {
         return Err(Error::msg(format!(
             "{name} = {} is not valid: expected a finite dimension of zero or more",
-            crate::units::fmt_num(v)
+            shown(v, sys)
         ))
         .in_field(name));
     }
     Ok(())
 }
 
-pub(crate) fn mm(v: f64) -> String {
-    format!("{} mm", crate::units::fmt_num(v))
+/// A value that may not be a length (NaN, infinite) in words.
+fn shown(v: f64, sys: System) -> String {
+    if v.is_finite() {
+        len(v, sys)
+    } else {
+        crate::units::fmt_num(v)
+    }
+}
+
+/// A length (mm) in words, in the units of `sys`.
+pub(crate) fn len(v: f64, sys: System) -> String {
+    crate::units::Show::Dimension.fmt(v, sys)
 }
 
 impl Shape {
@@ -280,10 +290,16 @@ impl Shape {
 
     /// Check the dimensions are physically possible.
     pub fn validate(&self) -> Result<()> {
+        self.validate_in(System::Si)
+    }
+
+    /// [`Shape::validate`], with the lengths of its messages in the units
+    /// of `sys` (those the user typed).
+    pub fn validate_in(&self, sys: System) -> Result<()> {
         match *self {
-            Shape::Rect { b, d } => rect::validate(b, d),
-            Shape::WeldedI { bf, tf, hw, tw } => ishape::validate_welded(bf, tf, hw, tw),
-            Shape::RolledI { d, bf, tf, tw, r } => ishape::validate_rolled(d, bf, tf, tw, r),
+            Shape::Rect { b, d } => rect::validate(b, d, sys),
+            Shape::WeldedI { bf, tf, hw, tw } => ishape::validate_welded(bf, tf, hw, tw, sys),
+            Shape::RolledI { d, bf, tf, tw, r } => ishape::validate_rolled(d, bf, tf, tw, r, sys),
             Shape::MonoI {
                 bf_top,
                 tf_top,
@@ -291,10 +307,10 @@ impl Shape {
                 tf_bot,
                 hw,
                 tw,
-            } => ishape::validate_mono(bf_top, tf_top, bf_bot, tf_bot, hw, tw),
-            Shape::Rhs { b, h, t, r_out } => hollow::validate_rhs(b, h, t, r_out),
-            Shape::Chs { d, t } => hollow::validate_chs(d, t),
-            Shape::Round { d } => positive("d", d),
+            } => ishape::validate_mono(bf_top, tf_top, bf_bot, tf_bot, hw, tw, sys),
+            Shape::Rhs { b, h, t, r_out } => hollow::validate_rhs(b, h, t, r_out, sys),
+            Shape::Chs { d, t } => hollow::validate_chs(d, t, sys),
+            Shape::Round { d } => positive("d", d, sys),
         }
     }
 

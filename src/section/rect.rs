@@ -11,9 +11,9 @@ use super::composite::{Composite, Part, add};
 use super::{Properties, from_composite, positive};
 use crate::error::Result;
 
-pub(crate) fn validate(b: f64, d: f64) -> Result<()> {
-    positive("b", b)?;
-    positive("d", d)
+pub(crate) fn validate(b: f64, d: f64, sys: crate::units::System) -> Result<()> {
+    positive("b", b, sys)?;
+    positive("d", d, sys)
 }
 
 pub(crate) fn composite(b: f64, d: f64) -> Composite {

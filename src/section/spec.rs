@@ -154,7 +154,18 @@ pub fn shape_from_pairs(family: &str, pairs: &[(String, String)]) -> Result<Shap
         _ => return Err(Error::Internal(format!("family {fam_static} not handled"))),
     };
     p.finish()?;
-    shape.validate()?;
+    // The problems of a shape are told in the units its dimensions were
+    // typed in.
+    let sys = if !pairs.is_empty()
+        && pairs
+            .iter()
+            .all(|(_, v)| units::typed_length_system(v) == units::System::Us)
+    {
+        units::System::Us
+    } else {
+        units::System::Si
+    };
+    shape.validate_in(sys)?;
     Ok(shape)
 }
 
