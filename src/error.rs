@@ -15,6 +15,41 @@ pub struct Location {
     pub line: Option<u64>,
     pub column: Option<u64>,
     pub field: Option<String>,
+    /// A spreadsheet's sheet: then `line` is the sheet's row and `column`
+    /// counts from the sheet's first used column, shown as `Sheet1!C7`.
+    pub sheet: Option<Box<Sheet>>,
+}
+
+/// The sheet of a workbook a location is in.
+#[derive(Clone, Debug, Default, PartialEq, Eq)]
+pub struct Sheet {
+    pub name: String,
+    /// The sheet column (1 = A) of record column 1.
+    pub first_column: u64,
+}
+
+impl Sheet {
+    /// The sheet's name as a cell reference writes it: quoted when it is
+    /// not plain letters, digits and underscores.
+    pub fn quoted(&self) -> String {
+        if !self.name.is_empty() && self.name.chars().all(|c| c.is_alphanumeric() || c == '_') {
+            self.name.clone()
+        } else {
+            format!("'{}'", self.name.replace('\'', "''"))
+        }
+    }
+}
+
+/// A sheet column's letters: 1 is A, 26 is Z, 27 is AA.
+pub fn column_letters(mut column: u64) -> String {
+    let mut s = Vec::new();
+    while column > 0 {
+        let r = ((column - 1) % 26) as u8;
+        s.push(b'A' + r);
+        column = (column - 1) / 26;
+    }
+    s.reverse();
+    String::from_utf8(s).unwrap_or_default()
 }
 
 impl Location {
@@ -43,14 +78,65 @@ impl Location {
         self.field = Some(field.into());
         self
     }
+    /// In a workbook's sheet (see [`Sheet`]).
+    pub fn in_sheet(mut self, sheet: Option<Sheet>) -> Self {
+        self.sheet = sheet.map(Box::new);
+        self
+    }
     pub fn is_empty(&self) -> bool {
-        self.file.is_none() && self.line.is_none() && self.column.is_none() && self.field.is_none()
+        self.file.is_none()
+            && self.line.is_none()
+            && self.column.is_none()
+            && self.field.is_none()
+            && self.sheet.is_none()
+    }
+    /// A line of this input as a message names it: "line 12", or "row 12"
+    /// in a sheet.
+    pub fn line_text(&self, line: u64) -> String {
+        match self.sheet {
+            Some(_) => format!("row {line}"),
+            None => format!("line {line}"),
+        }
+    }
+    /// The place without file or field: "line 12, column 3", or "Sheet1!C12"
+    /// in a sheet.
+    pub fn cell_text(&self) -> String {
+        match &self.sheet {
+            Some(sheet) => {
+                let name = sheet.quoted();
+                match (self.line, self.column) {
+                    (Some(l), Some(c)) => format!(
+                        "{name}!{}{l}",
+                        column_letters(c + sheet.first_column.max(1) - 1)
+                    ),
+                    (Some(l), None) => format!("{name} row {l}"),
+                    (None, Some(c)) => format!(
+                        "{name} column {}",
+                        column_letters(c + sheet.first_column.max(1) - 1)
+                    ),
+                    (None, None) => format!("sheet {name}"),
+                }
+            }
+            None => match (self.line, self.column) {
+                (Some(l), Some(c)) => format!("line {l}, column {c}"),
+                (Some(l), None) => format!("line {l}"),
+                (None, Some(c)) => format!("column {c}"),
+                (None, None) => String::new(),
+            },
+        }
     }
 }
 
 impl fmt::Display for Location {
     /// `file:line:column: field` with absent parts left out.
+    /// In a sheet: `file: Sheet1!C7: field`.
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        if self.sheet.is_some() {
+            let mut parts: Vec<String> = self.file.iter().cloned().collect();
+            parts.push(self.cell_text());
+            parts.extend(self.field.iter().filter(|f| !f.is_empty()).cloned());
+            return write!(f, "{}", parts.join(": "));
+        }
         let mut parts: Vec<String> = Vec::new();
         if let Some(file) = &self.file {
             parts.push(file.clone());
@@ -164,6 +250,9 @@ impl Error {
                 }
                 if location.column.is_none() {
                     location.column = outer.column;
+                }
+                if location.sheet.is_none() {
+                    location.sheet = outer.sheet.clone();
                 }
                 match (&outer.field, &location.field) {
                     (Some(o), _) if o.is_empty() => {}

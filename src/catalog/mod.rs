@@ -15,7 +15,8 @@
 //! One file per concern: the header (`schema.rs`), number cells
 //! (`number.rs`), the row and its cells (`row.rs`), the shape and its
 //! properties (`shape.rs`), the row's material (`material.rs`).
-//! Naming and holding inputs (streams read once) is in `input.rs`.
+//! Naming and holding inputs (streams read once) is in `input.rs`; a
+//! workbook's sheet is read as the same delimited text (`workbook.rs`).
 
 pub mod generate;
 pub mod input;
@@ -26,6 +27,7 @@ pub mod records;
 mod row;
 mod schema;
 mod shape;
+pub mod workbook;
 
 pub use number::number;
 pub use row::{CellError, Materials, Row, RowMaterial, parse_row};

@@ -43,6 +43,8 @@ impl Default for ReadOptions {
 /// header.
 pub struct Catalog<R: Read> {
     pub file: String,
+    /// Where its problems are: the file, and the sheet of a workbook.
+    pub at: Location,
     pub schema: Schema,
     /// Line of the header row.
     pub header_line: u64,
@@ -61,9 +63,16 @@ pub struct Chunk {
 
 /// Open a catalogue from any reader (`file` names it in messages).
 pub fn open<R: Read>(input: R, file: &str, opts: &ReadOptions) -> Result<Catalog<R>> {
+    open_at(input, &Location::in_file(file), opts)
+}
+
+/// Open a catalogue whose problems are at `at` (a file, or a workbook's
+/// sheet: see `input::Input::open`).
+pub fn open_at<R: Read>(input: R, at: &Location, opts: &ReadOptions) -> Result<Catalog<R>> {
+    let file = at.file.as_deref().unwrap_or("");
     if matches!(opts.delimiter, b'"' | b'#' | b'\n' | b'\r') {
         return Err(Error::input(
-            Location::in_file(file),
+            at.clone(),
             "the delimiter cannot be a quote, '#' or a line break",
         ));
     }
@@ -71,10 +80,10 @@ pub fn open<R: Read>(input: R, file: &str, opts: &ReadOptions) -> Result<Catalog
     let mut head = Records::default();
     blocks
         .take_records(1, &mut head)
-        .map_err(|e| read_error(file, e))?;
+        .map_err(|e| read_error(at, e))?;
     if head.is_empty() {
         return Err(Error::input(
-            Location::in_file(file),
+            at.clone(),
             "the file is empty: expected a header row naming the columns",
         ));
     }
@@ -84,9 +93,7 @@ pub fn open<R: Read>(input: R, file: &str, opts: &ReadOptions) -> Result<Catalog
     for (i, h) in header.iter().enumerate() {
         let s = std::str::from_utf8(h).map_err(|_| {
             Error::input(
-                Location::in_file(file)
-                    .with_line(line)
-                    .with_column(i as u64 + 1),
+                at.clone().with_line(line).with_column(i as u64 + 1),
                 "the header is not valid UTF-8 text",
             )
         })?;
@@ -94,7 +101,7 @@ pub fn open<R: Read>(input: R, file: &str, opts: &ReadOptions) -> Result<Catalog
     }
     if header.fault().is_some() {
         return Err(Error::input(
-            Location::in_file(file).with_line(line),
+            at.clone().with_line(line),
             "the header has a quoted field that is never closed",
         ));
     }
@@ -103,13 +110,13 @@ pub fn open<R: Read>(input: R, file: &str, opts: &ReadOptions) -> Result<Catalog
         && (names[0].contains(';') || names[0].contains('\t'))
     {
         return Err(Error::input(
-            Location::in_file(file).with_line(line),
+            at.clone().with_line(line),
             "the header has a single column but contains ';' or tabs: use --delimiter ';' (or 'tab') for this file",
         ));
     }
     if names.len() == 1 && opts.delimiter != b',' && names[0].contains(',') {
         return Err(Error::input(
-            Location::in_file(file).with_line(line),
+            at.clone().with_line(line),
             format!(
                 "the header has a single column when split at '{}' (--delimiter) but contains commas: leave --delimiter out for a comma-separated file",
                 if opts.delimiter == b'\t' {
@@ -120,9 +127,10 @@ pub fn open<R: Read>(input: R, file: &str, opts: &ReadOptions) -> Result<Catalog
             ),
         ));
     }
-    let schema = Schema::parse(&names, &Location::in_file(file).with_line(line))?;
+    let schema = Schema::parse(&names, &at.clone().with_line(line))?;
     Ok(Catalog {
         file: file.to_string(),
+        at: at.clone(),
         schema,
         header_line: line,
         delimiter: opts.delimiter,
@@ -132,11 +140,11 @@ pub fn open<R: Read>(input: R, file: &str, opts: &ReadOptions) -> Result<Catalog
 }
 
 /// Turn a reading error into ours, with its position.
-pub fn read_error(file: &str, e: ReadError) -> Error {
+pub fn read_error(at: &Location, e: ReadError) -> Error {
     match e {
-        ReadError::Io(err) => Error::io(file, err),
+        ReadError::Io(err) => Error::io(at.file.as_deref().unwrap_or(""), err),
         ReadError::TooLong { line } => Error::input(
-            Location::in_file(file).with_line(line),
+            at.clone().with_line(line),
             format!(
                 "a record runs on for more than {} MB from here: is a quote never closed?",
                 super::records::MAX_RECORD >> 20
@@ -151,14 +159,14 @@ impl<R: Read> Catalog<R> {
     pub fn next_block(&mut self, block: &mut Block) -> Result<bool> {
         self.blocks
             .next_block(block)
-            .map_err(|e| read_error(&self.file, e))
+            .map_err(|e| read_error(&self.at, e))
     }
 
     /// The next records, in order, into `chunk.records`; 0 at the end.
     pub fn next_chunk(&mut self, chunk: &mut Chunk) -> Result<usize> {
         self.blocks
             .next_records(&mut chunk.block, &mut chunk.records)
-            .map_err(|e| read_error(&self.file, e))
+            .map_err(|e| read_error(&self.at, e))
     }
 
     /// Bytes per parallel segment (results never depend on it).
@@ -205,11 +213,9 @@ impl Validation {
 }
 
 /// The problem of a row that does not read, at its line and column.
-fn row_error(file: &str, line: u64, e: CellError) -> Error {
+fn row_error(at: &Location, line: u64, e: CellError) -> Error {
     Error::input(
-        Location::in_file(file)
-            .with_line(line)
-            .with_column(e.column as u64),
+        at.clone().with_line(line).with_column(e.column as u64),
         e.message,
     )
 }
@@ -267,25 +273,27 @@ pub fn validate<R: Read>(
                 Ok(row) => {
                     if let Some(first) = seen.insert(row.name.to_string(), line) {
                         v.push(Error::input(
-                            Location::in_file(&cat.file)
+                            cat.at
+                                .clone()
                                 .with_line(line)
                                 .with_column(name_col as u64 + 1),
                             format!(
-                                "duplicate section name '{}' (first on line {first})",
-                                row.name
+                                "duplicate section name '{}' (first on {})",
+                                row.name,
+                                cat.at.line_text(first)
                             ),
                         ));
                     } else {
                         v.good += 1;
                     }
                 }
-                Err(e) => v.push(row_error(&cat.file, line, e)),
+                Err(e) => v.push(row_error(&cat.at, line, e)),
             }
         }
     }
     if v.rows == 0 && v.errors.is_empty() {
         v.errors.push(Error::input(
-            Location::in_file(&cat.file),
+            cat.at.clone(),
             "the catalogue has a header but no rows",
         ));
     }
@@ -339,7 +347,7 @@ pub fn list<R: Read>(mut cat: Catalog<R>, mats: &Materials<'_>) -> Result<Listin
                 }),
                 Err(e) => out
                     .problems
-                    .push(row_error(&cat.file, rec.line(), e).to_string()),
+                    .push(row_error(&cat.at, rec.line(), e).to_string()),
             }
         }
     }

@@ -25,7 +25,7 @@ presets apply to every member; its beam and loads are not used.";
 
 #[derive(clap::Args, Debug)]
 pub struct Args {
-    /// Member schedule (CSV): mark, count, spans [m], supports, dead/live/snow [kN/m], ...
+    /// Member schedule, CSV or a workbook (.xlsx, .ods, ...; first sheet, or FILE#SHEET): mark, count, spans [m], supports, dead/live/snow [kN/m], ...
     #[arg(long, value_name = "FILE")]
     pub schedule: PathBuf,
     /// Template job file: material, grades, bracing, presets.
@@ -108,15 +108,10 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
             a.kerf.as_deref().unwrap_or("")
         )));
     }
-    let sched_shown = a.schedule.display().to_string();
-    let f = std::fs::File::open(&a.schedule).map_err(|e| Error::io(&sched_shown, e))?;
-    let members = batch::read_schedule(
-        std::io::BufReader::new(f),
-        &sched_shown,
-        &template,
-        n_live,
-        n_total,
-    )?;
+    // A workbook's sheet is read as the same text (see Input).
+    let sched = beamsift::catalog::input::Input::new(&a.schedule)?;
+    let members =
+        batch::read_schedule_at(sched.reader()?, &sched.at(), &template, n_live, n_total)?;
     a.cat.setup_threads()?;
     let (cats, _) = a.cat.open()?;
     let currencies: Vec<String> = cats
@@ -139,7 +134,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     }
     let view = BatchView {
         sys,
-        schedule: &sched_shown,
+        schedule: &sched.shown,
         template: &shown,
         material: &template.material.name,
         rows: rows.len(),

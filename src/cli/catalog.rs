@@ -118,13 +118,14 @@ impl GenerateArgs {
 
 #[derive(clap::Args, Debug)]
 pub struct FileArgs {
-    /// Catalogue CSV file ('-' for standard input).
+    /// Catalogue file: CSV ('-' for standard input), or a workbook (.xlsx,
+    /// .xlsm, .xlsb, .xls, .ods: its first sheet, or FILE#SHEET).
     pub file: PathBuf,
     /// Job file whose material and grades the rows refer to (for grades and
     /// masses from density).
     #[arg(long, short = 'j', value_name = "FILE")]
     pub job: Option<PathBuf>,
-    /// Field delimiter: a character, or 'tab'.
+    /// Field delimiter of CSV: a character, or 'tab' (refused for a workbook).
     #[arg(long, default_value = ",")]
     pub delimiter: String,
 }
@@ -160,11 +161,7 @@ fn open(a: &FileArgs) -> Result<read::Catalog<Box<dyn std::io::Read + Send>>> {
     } else {
         *a.delimiter.as_bytes().first().unwrap_or(&b',')
     };
-    read::open(
-        input.reader()?,
-        &input.shown,
-        &ReadOptions { delimiter: delim },
-    )
+    input.open(&ReadOptions { delimiter: delim })
 }
 
 pub fn run(cmd: Cmd, out: &Out) -> Result<i32> {

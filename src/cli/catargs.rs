@@ -1,7 +1,7 @@
 //! Catalogue options shared by select, shortlist and batch.
 
 use super::progress;
-use beamsift::catalog::read::{self, Catalog, ReadOptions};
+use beamsift::catalog::read::{Catalog, ReadOptions};
 use beamsift::check::Prepared;
 use beamsift::error::{Error, Result};
 use beamsift::job::Job;
@@ -11,10 +11,11 @@ use std::path::PathBuf;
 
 #[derive(clap::Args, Debug, Clone)]
 pub struct CatalogArgs {
-    /// Catalogue CSV file(s); repeat for several.
+    /// Catalogue file(s): CSV, or a workbook (.xlsx, .xlsm, .xlsb, .xls,
+    /// .ods: its first sheet, or FILE#SHEET); repeat for several.
     #[arg(long, short = 'c', value_name = "FILE", required = true)]
     pub catalog: Vec<PathBuf>,
-    /// Field delimiter of the catalogue: a character, or 'tab'.
+    /// Field delimiter of a CSV catalogue: a character, or 'tab' (refused for a workbook).
     #[arg(long, default_value = ",")]
     pub delimiter: String,
     /// Leave out bad rows (and report how many) instead of refusing the catalogue.
@@ -96,9 +97,7 @@ impl CatalogArgs {
         let mut bytes = 0;
         for i in self.inputs()? {
             bytes += i.len;
-            let mut cat = read::open(i.reader()?, &i.shown, &opts)?;
-            cat.size_hint = Some(i.len);
-            out.push(cat);
+            out.push(i.open(&opts)?);
         }
         Ok((out, bytes))
     }

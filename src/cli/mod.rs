@@ -258,6 +258,11 @@ impl Command {
             }
             Command::Catalog(catalog::Cmd::Generate(_)) => {}
         }
+        // A workbook's sheet (FILE#SHEET) is read from FILE.
+        let inputs = inputs
+            .iter()
+            .map(|p| beamsift::catalog::workbook::split_sheet(p).0)
+            .collect();
         (inputs, outputs)
     }
 }

@@ -4,7 +4,7 @@
 
 use super::cutting::{CutPlan, cut};
 use super::rationalise::{Plan, rationalise};
-pub use super::schedule::{Member, read_schedule};
+pub use super::schedule::{Member, read_schedule, read_schedule_at};
 use super::{Candidate, Filters};
 use crate::catalog::Materials;
 use crate::check::{Prepared, SectionInput};

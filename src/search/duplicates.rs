@@ -3,7 +3,7 @@
 
 use super::scan::Outcome;
 use crate::catalog::read::{Catalog, Chunk};
-use crate::error::{Error, Location, Result};
+use crate::error::{Error, Result};
 use serde::Serialize;
 use std::collections::HashSet;
 use std::io::Read;
@@ -157,7 +157,7 @@ pub(crate) fn find_repeats<R: Read>(
         if names.is_empty() && !all {
             continue;
         }
-        let file = cat.file.clone();
+        let at = cat.at.clone();
         let name_col = cat.schema.name_column();
         confirm_duplicates(cat, (!all).then_some(&names), keep, |name, line, first| {
             if want_lines {
@@ -166,10 +166,11 @@ pub(crate) fn find_repeats<R: Read>(
             rep.total += 1;
             if rep.errors.len() < 1000 {
                 rep.errors.push(Error::input(
-                    Location::in_file(&file)
-                        .with_line(line)
-                        .with_column(name_col as u64 + 1),
-                    format!("duplicate section name '{name}' (first on line {first})"),
+                    at.clone().with_line(line).with_column(name_col as u64 + 1),
+                    format!(
+                        "duplicate section name '{name}' (first on {})",
+                        at.line_text(first)
+                    ),
                 ));
             }
         })?;

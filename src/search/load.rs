@@ -4,7 +4,7 @@
 use super::{Candidate, Counts, Filters, Rank, compare, to_candidate_unchecked};
 use crate::catalog::read::{Catalog, Chunk};
 use crate::catalog::{Materials, parse_row};
-use crate::error::{Error, Location, Result};
+use crate::error::{Error, Result};
 use std::collections::HashSet;
 use std::io::Read;
 
@@ -43,7 +43,7 @@ pub fn load_rows<R: Read>(
                         if !names.insert(row.name.to_string()) {
                             counts.bad += 1;
                             let e = Error::input(
-                                Location::in_file(&cat.file).with_line(line),
+                                cat.at.clone().with_line(line),
                                 format!("duplicate section name '{}'", row.name),
                             );
                             skipped.push(e.to_string());
@@ -57,9 +57,7 @@ pub fn load_rows<R: Read>(
                     Err(e) => {
                         counts.bad += 1;
                         let e = Error::input(
-                            Location::in_file(&cat.file)
-                                .with_line(line)
-                                .with_column(e.column as u64),
+                            cat.at.clone().with_line(line).with_column(e.column as u64),
                             e.message,
                         );
                         skipped.push(e.to_string());

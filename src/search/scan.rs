@@ -96,13 +96,13 @@ fn scan_file<R: Read + Send>(
     kept.files.push(cat.file.clone());
     let bloom = Bloom::for_input(cat.size_hint);
     let schema = cat.schema.clone();
-    let file = cat.file.clone();
+    let at = cat.at.clone();
     let header_line = cat.header_line;
     let rows_before = kept.counts.rows;
     let delim = cat.delimiter;
     let mut place = FilePlace {
         fi,
-        file: &file,
+        at: &at,
         schema: &schema,
         suspects: 0,
     };
@@ -144,7 +144,7 @@ fn scan_file<R: Read + Send>(
     })?;
     if kept.counts.rows == rows_before {
         return Err(Error::input(
-            Location::in_file(&file).with_line(header_line + 1),
+            at.clone().with_line(header_line + 1),
             "the catalogue has a header but no rows: expected one section per row after the header",
         ));
     }
@@ -207,7 +207,7 @@ fn check_record<'r>(job: &ScanJob<'_>, fi: usize, schema: &Schema, rec: Record<'
 /// its names the duplicate filter flagged so far.
 struct FilePlace<'a> {
     fi: usize,
-    file: &'a str,
+    at: &'a Location,
     schema: &'a Schema,
     suspects: usize,
 }
@@ -260,7 +260,7 @@ impl Kept {
         self.counts.rows += 1;
         let line = rec.line();
         match out {
-            Outcome::Bad(line, col, msg) => self.bad_row(place.file, line, col, msg),
+            Outcome::Bad(line, col, msg) => self.bad_row(place.at, line, col, msg),
             Outcome::Excluded => self.counts.bad += 1,
             Outcome::Filtered => self.counts.filtered += 1,
             Outcome::Checked {
@@ -296,14 +296,9 @@ impl Kept {
     }
 
     /// A row that could not be read: counted, and listed (up to a limit).
-    fn bad_row(&mut self, file: &str, line: u64, col: usize, msg: String) {
+    fn bad_row(&mut self, at: &Location, line: u64, col: usize, msg: String) {
         self.counts.bad += 1;
-        let e = Error::input(
-            Location::in_file(file)
-                .with_line(line)
-                .with_column(col as u64),
-            msg,
-        );
+        let e = Error::input(at.clone().with_line(line).with_column(col as u64), msg);
         if self.skipped.len() < 100 {
             self.skipped.push(e.to_string());
         }

@@ -55,13 +55,23 @@ pub fn read_schedule<R: Read>(
     n_live: f64,
     n_total: f64,
 ) -> Result<Vec<Member>> {
+    read_schedule_at(input, &Location::in_file(file), template, n_live, n_total)
+}
+
+/// [`read_schedule`] with its problems at `at` (a file, or a workbook's
+/// sheet: see `catalog::input::Input`).
+pub fn read_schedule_at<R: Read>(
+    input: R,
+    at: &Location,
+    template: &Job,
+    n_live: f64,
+    n_total: f64,
+) -> Result<Vec<Member>> {
     use crate::catalog::records::{Block, Blocks, Records};
     let text = |f: &[u8], line: u64, col: usize| -> Result<String> {
         std::str::from_utf8(f).map(str::to_string).map_err(|_| {
             Error::input(
-                Location::in_file(file)
-                    .with_line(line)
-                    .with_column(col as u64 + 1),
+                at.clone().with_line(line).with_column(col as u64 + 1),
                 "not valid UTF-8 text",
             )
         })
@@ -69,10 +79,10 @@ pub fn read_schedule<R: Read>(
     let mut rdr = Blocks::new(input, b',');
     let mut head = Records::default();
     rdr.take_records(1, &mut head)
-        .map_err(|e| crate::catalog::read::read_error(file, e))?;
+        .map_err(|e| crate::catalog::read::read_error(at, e))?;
     if head.is_empty() {
         return Err(Error::input(
-            Location::in_file(file),
+            at.clone(),
             "the schedule is empty: expected a header row naming the columns",
         ));
     }
@@ -93,7 +103,8 @@ pub fn read_schedule<R: Read>(
             }
             _ => (h.to_ascii_lowercase(), None),
         };
-        let at = Location::in_file(file)
+        let at = at
+            .clone()
             .with_line(header_line)
             .with_column(i as u64 + 1)
             .with_field(h.to_string());
@@ -135,7 +146,7 @@ pub fn read_schedule<R: Read>(
     }
     if !cols.contains(&SCol::Mark) || !cols.iter().any(|c| matches!(c, SCol::Spans(_))) {
         errors.push(Error::input(
-            Location::in_file(file).with_line(header_line),
+            at.clone().with_line(header_line),
             "a schedule needs 'mark' and 'spans [unit]' columns",
         ));
     }
@@ -149,19 +160,19 @@ pub fn read_schedule<R: Read>(
     let mut rows: Vec<(u64, std::result::Result<Vec<String>, Error>)> = Vec::new();
     while rdr
         .next_records(&mut block, &mut recs)
-        .map_err(|e| crate::catalog::read::read_error(file, e))?
+        .map_err(|e| crate::catalog::read::read_error(at, e))?
         > 0
     {
         for r in recs.iter() {
             let line = r.line();
             let fields = if r.fault().is_some() {
                 Err(Error::input(
-                    Location::in_file(file).with_line(line),
+                    at.clone().with_line(line),
                     "a quoted field is never closed (the row runs to the end of the file)",
                 ))
             } else if r.len() != headers.len() {
                 Err(Error::input(
-                    Location::in_file(file).with_line(line),
+                    at.clone().with_line(line),
                     format!(
                         "this row has {} field(s) but the header has {}: check the delimiter and quoting",
                         r.len(),
@@ -190,24 +201,23 @@ pub fn read_schedule<R: Read>(
                 m.line = line;
                 if let Some(first) = marks.insert(m.mark.clone(), line) {
                     errors.push(Error::input(
-                        Location::in_file(file).with_line(line),
-                        format!("mark '{}' appears twice (first on line {first})", m.mark),
+                        at.clone().with_line(line),
+                        format!(
+                            "mark '{}' appears twice (first on {})",
+                            m.mark,
+                            at.line_text(first)
+                        ),
                     ));
                 }
                 members.push(m);
             }
-            Err((col, e)) => errors.push(
-                e.at(&Location::in_file(file)
-                    .with_line(line)
-                    .with_column(col as u64 + 1)),
-            ),
+            Err((col, e)) => {
+                errors.push(e.at(&at.clone().with_line(line).with_column(col as u64 + 1)))
+            }
         }
     }
     if members.is_empty() && errors.is_empty() {
-        errors.push(Error::input(
-            Location::in_file(file),
-            "the schedule has no members",
-        ));
+        errors.push(Error::input(at.clone(), "the schedule has no members"));
     }
     if !errors.is_empty() {
         return Err(Error::Many(errors));

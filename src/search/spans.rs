@@ -15,7 +15,7 @@ use crate::catalog::read::Catalog;
 use crate::catalog::records::{Block, Records};
 use crate::catalog::{Materials, parse_row};
 use crate::check::{CheckKind, Prepared, SectionInput, Summary, Verdict};
-use crate::error::{Error, Location, Result};
+use crate::error::{Error, Result};
 use std::cmp::Ordering;
 use std::collections::HashSet;
 use std::io::Read;
@@ -132,7 +132,7 @@ fn pass<R: Read + Send>(
     let mut samples: Vec<(Kind, super::Candidate)> = Vec::new();
     for (fi, mut cat) in catalogs.into_iter().enumerate() {
         let bloom = Bloom::for_input(cat.size_hint);
-        let file = cat.file.clone();
+        let at = cat.at.clone();
         let schema = cat.schema.clone();
         let delim = cat.delimiter;
         let rows_before = counts.rows;
@@ -207,9 +207,7 @@ fn pass<R: Read + Send>(
                         counts.bad += 1;
                         if errors.len() < 1000 {
                             errors.push(Error::input(
-                                Location::in_file(&file)
-                                    .with_line(line)
-                                    .with_column(col as u64),
+                                at.clone().with_line(line).with_column(col as u64),
                                 msg,
                             ));
                         }
@@ -285,7 +283,7 @@ fn pass<R: Read + Send>(
         }
         if counts.rows == rows_before {
             return Err(Error::input(
-                Location::in_file(&file).with_line(cat.header_line + 1),
+                at.clone().with_line(cat.header_line + 1),
                 "the catalogue has a header but no rows: expected one section per row after the header",
             ));
         }
