@@ -642,6 +642,25 @@ pub enum System {
     Si,
     /// US customary: in, ft, kip, kip·ft, ksi.
     Us,
+    /// US customary, with spans and lengths along the member in feet and
+    /// inches to the nearest 1/16 in (16'-1 1/4").
+    #[serde(rename = "us-ft-in")]
+    UsFeetInches,
+}
+
+impl System {
+    /// US customary units (in either writing of lengths).
+    pub fn is_us(self) -> bool {
+        matches!(self, System::Us | System::UsFeetInches)
+    }
+
+    /// The units, with lengths as decimals (what numeric outputs use).
+    pub fn decimal(self) -> System {
+        match self {
+            System::UsFeetInches => System::Us,
+            s => s,
+        }
+    }
 }
 
 impl System {
@@ -650,6 +669,11 @@ impl System {
     pub const CHOICES: &[(Self, &str, &str)] = &[
         (Self::Si, "si", "SI: mm, m, kN, kN·m, MPa"),
         (Self::Us, "us", "US customary: in, ft, kip, kip·ft, ksi"),
+        (
+            Self::UsFeetInches,
+            "us-ft-in",
+            "US customary, spans and lengths in feet-inches (16'-1 1/4\")",
+        ),
     ];
 }
 
@@ -686,7 +710,8 @@ impl Show {
     /// (unit label, internal units per display unit).
     pub fn unit(self, sys: System) -> (&'static str, f64) {
         use Show::*;
-        match (self, sys) {
+        match (self, sys.decimal()) {
+            (_, System::UsFeetInches) => unreachable!("decimal() has no feet-inches"),
             (Span, System::Si) => ("m", 1000.0),
             (Span, System::Us) => ("ft", MM_PER_FT),
             (Dimension | Deflection, System::Si) => ("mm", 1.0),
@@ -724,16 +749,31 @@ impl Show {
     }
 
     pub fn label(self, sys: System) -> &'static str {
+        if self.feet_inches(sys) {
+            return "ft-in";
+        }
         self.unit(sys).0
+    }
+
+    /// Written in feet and inches: a span or length under
+    /// [`System::UsFeetInches`].
+    fn feet_inches(self, sys: System) -> bool {
+        self == Show::Span && sys == System::UsFeetInches
     }
 
     /// Number only, in display units, with engineering formatting.
     pub fn num(self, internal: f64, sys: System) -> String {
+        if self.feet_inches(sys) {
+            return feet_inches(internal, false);
+        }
         fmt_num(self.value(internal, sys))
     }
 
     /// Number with a fixed count of decimals (for table columns).
     pub fn fixed(self, internal: f64, sys: System, decimals: usize) -> String {
+        if self.feet_inches(sys) {
+            return feet_inches(internal, false);
+        }
         let v = self.value(internal, sys);
         if v.abs() >= 1000.0 {
             return fmt_num(v);
@@ -746,6 +786,9 @@ impl Show {
     /// value never exceeds the computed one. (A value that is a whole
     /// multiple of the last decimal to within 1e-9 of it stays itself.)
     pub fn fixed_down(self, internal: f64, sys: System, decimals: usize) -> String {
+        if self.feet_inches(sys) {
+            return feet_inches(internal, true);
+        }
         let v = self.value(internal, sys);
         let scale = 10f64.powi(decimals as i32);
         let t = (v * scale + 1e-9 * v.signum()).trunc() / scale;
@@ -758,11 +801,40 @@ impl Show {
     /// Number and unit, e.g. `"12.5 kN·m"`.
     pub fn fmt(self, internal: f64, sys: System) -> String {
         let l = self.label(sys);
-        if l.is_empty() {
+        if l.is_empty() || self.feet_inches(sys) {
             self.num(internal, sys)
         } else {
             format!("{} {l}", self.num(internal, sys))
         }
+    }
+}
+
+/// A length (mm) in feet and inches to the nearest 1/16 in, fractions
+/// reduced (`16'-1 1/4"`, `0'-0 3/8"`, `-2'-0"`); `down` rounds towards
+/// zero instead (for capacities: never more than computed).
+pub fn feet_inches(mm: f64, down: bool) -> String {
+    if !mm.is_finite() {
+        return fmt_num(mm);
+    }
+    let sixteenths = mm.abs() / MM_PER_IN * 16.0;
+    // A value within 1e-9 of a whole sixteenth stays itself.
+    let n = if down {
+        (sixteenths + 1e-9).floor()
+    } else {
+        sixteenths.round()
+    } as u64;
+    let (feet, rest) = (n / 192, n % 192);
+    let (inches, mut num) = (rest / 16, rest % 16);
+    let mut den = 16;
+    while num > 0 && num % 2 == 0 {
+        num /= 2;
+        den /= 2;
+    }
+    let sign = if mm < 0.0 && n > 0 { "-" } else { "" };
+    let feet = group_thousands(feet as f64);
+    match (inches, num) {
+        (i, 0) => format!("{sign}{feet}'-{i}\""),
+        (i, f) => format!("{sign}{feet}'-{i} {f}/{den}\""),
     }
 }
 

@@ -20,7 +20,7 @@ fn listed<T: Copy + PartialEq>(table: &[Choice<T>], all: &[T]) {
 #[test]
 fn every_variant_is_listed() {
     let all_systems = |s: System| match s {
-        System::Si | System::Us => (),
+        System::Si | System::Us | System::UsFeetInches => (),
     };
     let all_formats = |f: Format| match f {
         Format::Table | Format::Json | Format::Csv | Format::Markdown => (),
@@ -41,7 +41,10 @@ fn every_variant_is_listed() {
         all_families,
         all_objectives,
     );
-    listed(System::CHOICES, &[System::Si, System::Us]);
+    listed(
+        System::CHOICES,
+        &[System::Si, System::Us, System::UsFeetInches],
+    );
     listed(
         Format::CHOICES,
         &[Format::Table, Format::Json, Format::Csv, Format::Markdown],

@@ -778,3 +778,24 @@ fn problems_are_told_in_the_units_typed() {
         "{err}"
     );
 }
+
+/// `--units us-ft-in` writes spans and positions in feet-inches: the demo's
+/// 6 m + 1.2 m is 19'-8 1/4" + 3'-11 1/4" (6000/25.4 = 236.22 in; 1200/25.4
+/// = 47.24 in = 3 ft 11.24 in, nearest 1/16 in), forces still in kip.
+#[test]
+fn feet_inches_on_the_member_table() {
+    let job = repo("catalogs/demo-job.toml");
+    let o = run(&[
+        "check",
+        "--job",
+        job.to_str().unwrap(),
+        "--units",
+        "us-ft-in",
+        "rect",
+        "b=200mm",
+        "d=600mm",
+    ]);
+    let out = text(&o).0;
+    assert!(out.contains("19'-8 1/4\" + 3'-11 1/4\""), "{out}");
+    assert!(out.contains("kip"), "{out}");
+}

@@ -216,3 +216,29 @@ proptest::proptest! {
         proptest::prop_assert!((got - v).abs() <= 1e-12 * (1.0 + v), "{cell}: {got}");
     }
 }
+
+/// Feet-inches output (`--units us-ft-in`): spans and lengths to the
+/// nearest 1/16 in, fractions reduced, as the trade writes them on drawings
+/// (common practice). 1 ft = 304.8 mm and 1 in = 25.4 mm exactly (NIST SP
+/// 811 (2008), B.8, from memory): 16 ft 1 in = 4,902.2 mm; 6 m = 236.22 in
+/// = 19 ft 8.22 in, nearest 1/16 is 8 4/16 = 8 1/4 in.
+#[test]
+fn feet_inches_output() {
+    let sys = System::UsFeetInches;
+    assert_eq!(Show::Span.fmt(16.0 * 304.8 + 25.4, sys), "16'-1\"");
+    assert_eq!(Show::Span.fmt(6000.0, sys), "19'-8 1/4\"");
+    assert_eq!(Show::Span.fmt(25.4 * 3.0 / 8.0, sys), "0'-0 3/8\"");
+    assert_eq!(Show::Span.fmt(-2.0 * 304.8, sys), "-2'-0\"");
+    assert_eq!(Show::Span.fmt(0.0, sys), "0'-0\"");
+    // 11 15/16 in and a little more rounds up to the next foot.
+    assert_eq!(Show::Span.fmt(304.8 - 0.5, sys), "1'-0\"");
+    // Capacities round down: 14 ft 11.999 in shows 14'-11 15/16".
+    assert_eq!(
+        Show::Span.fixed_down(304.8 * 15.0 - 0.025, sys, 2),
+        "14'-11 15/16\""
+    );
+    assert_eq!(Show::Span.label(sys), "ft-in");
+    // Other quantities read as in plain US units.
+    assert_eq!(Show::Dimension.fmt(25.4 * 1.5, sys), "1.5 in");
+    assert_eq!(Show::Force.fmt(4448.2216152605, sys), "1 kip");
+}

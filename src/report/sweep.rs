@@ -140,7 +140,7 @@ impl LightestResult {
 /// 3 ft (joists at 16 in) and feet from 3 ft when the spacing is a whole
 /// number of feet (beams at 6 ft), inches otherwise.
 fn spacing(w: f64, sys: System) -> String {
-    if sys == System::Us {
+    if sys.is_us() {
         let inches = w / 25.4;
         let feet = inches / 12.0;
         if inches >= 36.0 - 1e-9 && (feet - feet.round()).abs() < 1e-6 {
