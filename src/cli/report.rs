@@ -89,6 +89,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
             mass: p.mass_per_length(job.material.density),
             source: "properties computed from the dimensions (section module)".to_string(),
             alternatives: None,
+            near_misses: None,
             material: None,
         };
         sheet::for_section(&job, &prep, subject, sys)
@@ -113,7 +114,9 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         }
         let opts = ScanOptions {
             ranks: vec![(Rank::Mass, keep)],
-            near: if a.section.is_some() { keep } else { 1 },
+            // The near misses the sheet lists are the failing rows lighter
+            // than the section (at most five): keep enough to find them.
+            near: if a.section.is_some() { keep } else { 20 },
             unverified: keep,
             filters,
             skip_bad_rows: a.cat.skip_bad_rows,

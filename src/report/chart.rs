@@ -191,7 +191,10 @@ pub fn span_chart(
 }
 
 /// A diagram along the beam: one or two curves (an envelope), filled to
-/// the axis, with marked extremes. Values in display units.
+/// the axis, with marked extremes. Values in display units, as plotted
+/// (upward on the page positive); with `flipped` the quantity is plotted
+/// negated (a downward-positive deflection drawn downward) and the scale
+/// is labelled with the quantity itself, so it reads positive downward.
 pub fn beam_diagram(
     title: &str,
     x_label: &str,
@@ -199,6 +202,7 @@ pub fn beam_diagram(
     curves: &[Vec<(f64, f64)>],
     marks: &[(f64, f64, String)],
     supports: &[f64],
+    flipped: bool,
 ) -> String {
     let mut svg = String::new();
     {
@@ -230,6 +234,16 @@ pub fn beam_diagram(
             .axis_desc_style(("sans-serif", 14))
             .label_style(("sans-serif", 12))
             .light_line_style(RGBColor(238, 238, 238))
+            .y_label_formatter(&|y: &f64| {
+                let v = if flipped { -*y } else { *y };
+                // Rounding noise at the axis reads 0, not "-1e-16".
+                let v = if v.abs() <= 1e-9 * (y1 - y0).abs() {
+                    0.0
+                } else {
+                    v
+                };
+                crate::units::fmt_num(v)
+            })
             .draw();
         let _ = chart.draw_series(LineSeries::new(
             vec![(x0, 0.0), (x1, 0.0)],

@@ -84,6 +84,13 @@ pub fn render(doc: &Document) -> String {
             }
             Block::Caution(p) => o.push_str(&format!("<p class=\"caution\">{}</p>\n", esc(p))),
             Block::Table(t) => o.push_str(&table(t)),
+            Block::TitleBlock(ts) => {
+                o.push_str("<div class=\"titleblock\">\n");
+                for t in ts {
+                    o.push_str(&table(t));
+                }
+                o.push_str("</div>\n");
+            }
             Block::List(lead, items) => {
                 if !lead.is_empty() {
                     o.push_str(&format!("<p>{}</p>\n", esc(lead)));
@@ -104,6 +111,7 @@ pub fn render(doc: &Document) -> String {
                     "<div class=\"check\">\n<h3>{}</h3>\n<div class=\"calc\">",
                     esc(heading)
                 ));
+                o.push_str(&format!("governing: {}\n", esc(&c.governs)));
                 o.push_str(&esc(&c.formula));
                 for line in &c.substitution {
                     o.push_str(&format!("\n  {}", esc(line)));
