@@ -57,7 +57,13 @@ caption{text-align:left;font-weight:bold;padding:.3em 0}th,td{border:1px solid #
 th{background:#eee}td.num,th.num{text-align:right}.calc{font-family:monospace;white-space:pre-wrap;background:#f7f7f7;\
 border-left:3px solid #666;padding:.4em .8em;margin:.3em 0}.fail{color:#b00;font-weight:bold}.unverified{color:#840;font-weight:bold}.pass{color:#060}\
 .caution{border:2px solid #b60;background:#fff6e8;padding:.6em 1em}figure{margin:1em 0}svg{max-width:100%;height:auto}\
-@media print{h2{page-break-after:avoid}.check{page-break-inside:avoid}}";
+.titleblock{border:2px solid #333;padding:.3em .8em;margin:1em 0}.titleblock table{width:100%;margin:.4em 0}.titleblock td{height:1.8em}\
+@page{size:auto;margin:15mm 12mm}\
+@media print{body{max-width:none;margin:0;padding:0;font-size:10pt}th{background:none}.calc{background:none}.caution{background:none}\
+h2{break-before:page;page-break-before:always;break-after:avoid;page-break-after:avoid}\
+h3,caption{break-after:avoid;page-break-after:avoid}\
+table,figure,.check,.titleblock{break-inside:avoid;page-break-inside:avoid}\
+*{-webkit-print-color-adjust:economy;print-color-adjust:economy}}";
 
 pub fn render(doc: &Document) -> String {
     let mut o = String::new();
