@@ -104,7 +104,7 @@ fn readable(md: &str) -> String {
         charts += 1;
     }
     out.push_str(rest);
-    assert_eq!(charts, 3, "V, M and deflection diagrams");
+    assert_eq!(charts, 4, "load, V, M and deflection diagrams");
     out
 }
 
@@ -258,7 +258,7 @@ fn html_is_well_formed_and_self_contained() {
         .descendants()
         .filter(|n| n.tag_name().name() == "svg")
         .count();
-    assert_eq!(svgs, 3, "V, M and deflection diagrams");
+    assert_eq!(svgs, 4, "load, V, M and deflection diagrams");
     for n in doc.descendants() {
         for a in n.attributes() {
             if a.name() == "href" || a.name() == "src" {

@@ -409,3 +409,101 @@ pub fn title_block(p: &crate::job::Project) -> Vec<Table> {
     ]);
     vec![t, s]
 }
+
+/// The load diagram of the job: supports at the nodes, one lane per load
+/// case with its loads (and the section's self-weight in its case), in
+/// display units.
+pub fn load_figure(job: &crate::job::Job, r: &MemberCheck, sys: System) -> Figure {
+    use super::chart::Glyph;
+    use crate::beam::LoadKind;
+    let b = &job.beam;
+    let span = |v: f64| Show::Span.value(v, sys);
+    let mut x = 0.0;
+    let mut nodes = vec![0.0];
+    for s in &b.spans {
+        x += s;
+        nodes.push(x);
+    }
+    let supports: Vec<(f64, String)> = b
+        .supports
+        .iter()
+        .zip(&nodes)
+        .filter(|(s, _)| s.restrains_vertical())
+        .map(|(s, &x)| (span(x), s.name()))
+        .collect();
+    let sw = b.self_weight_case.filter(|_| job.criteria.self_weight);
+    let cases: Vec<(String, Vec<(Glyph, String)>)> = b
+        .cases
+        .iter()
+        .enumerate()
+        .map(|(i, c)| {
+            let mut g: Vec<(Glyph, String)> = b
+                .loads
+                .iter()
+                .filter(|l| l.case == i)
+                .map(|l| match l.kind {
+                    LoadKind::Distributed { x1, x2, w1, w2 } => (
+                        Glyph::Line {
+                            x1: span(x1),
+                            x2: span(x2),
+                            w1: Show::LineLoad.value(w1, sys),
+                            w2: Show::LineLoad.value(w2, sys),
+                        },
+                        if w1 == w2 {
+                            Show::LineLoad.fmt(w1, sys)
+                        } else {
+                            format!(
+                                "{} to {}",
+                                Show::LineLoad.fmt(w1, sys),
+                                Show::LineLoad.fmt(w2, sys)
+                            )
+                        },
+                    ),
+                    LoadKind::Point { x, p } => (
+                        Glyph::Force {
+                            x: span(x),
+                            p: Show::Force.value(p, sys),
+                        },
+                        Show::Force.fmt(p, sys),
+                    ),
+                    LoadKind::Moment { x, m } => (
+                        Glyph::Couple { x: span(x) },
+                        format!(
+                            "{} {}",
+                            Show::Moment.fmt(m.abs(), sys),
+                            if m >= 0.0 {
+                                "clockwise"
+                            } else {
+                                "anticlockwise"
+                            }
+                        ),
+                    ),
+                })
+                .collect();
+            if sw == Some(i) && r.self_weight > 0.0 {
+                g.push((
+                    Glyph::Line {
+                        x1: 0.0,
+                        x2: span(b.length()),
+                        w1: Show::LineLoad.value(r.self_weight, sys),
+                        w2: Show::LineLoad.value(r.self_weight, sys),
+                    },
+                    format!("self-weight {}", Show::LineLoad.fmt(r.self_weight, sys)),
+                ));
+            }
+            (c.name.clone(), g)
+        })
+        .collect();
+    let title =
+        "Loads by case (unfactored; line loads drawn to scale within each lane)".to_string();
+    Figure {
+        svg: chart::load_diagram(
+            &title,
+            &format!("x [{}]", Show::Span.label(sys)),
+            span(b.length()),
+            &supports,
+            &cases,
+        ),
+        caption: title,
+    }
+}

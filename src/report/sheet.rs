@@ -218,7 +218,9 @@ pub fn build(
         section_source: source.to_string(),
         verdict,
         tables,
-        figures: calc::figures(r, sys),
+        figures: std::iter::once(calc::load_figure(job, r, sys))
+            .chain(calc::figures(r, sys))
+            .collect(),
         checks: calc::written_checks(r, sys),
         alternatives,
         near_misses: None,
