@@ -514,3 +514,24 @@ self_weight = false
     assert!(fig.svg.contains("3.75 mm at 3 m"), "chart label");
     assert!(!fig.svg.contains("-3.75 mm"), "no other sign in the chart");
 }
+
+/// The printed sheet: the print rules a browser needs for A4 and Letter
+/// (CSS Paged Media: `@page { size: auto }` takes the printer's paper),
+/// a page break before each top-level section, tables, figures and checks
+/// kept whole, no dark backgrounds; and the load diagram names the job's
+/// loads by case (JOB: 3 kN/m dead, 5 kN/m and 6 kN live).
+#[test]
+fn print_rules_and_load_diagram() {
+    let (_, html, _) = build();
+    let style = &html[html.find("<style>").unwrap()..html.find("</style>").unwrap()];
+    let print = &style[style.find("@media print").expect("print rules")..];
+    assert!(style.contains("@page{size:auto;margin:"));
+    assert!(print.contains("h2{break-before:page"));
+    assert!(print.contains("table,figure,.check,.titleblock{break-inside:avoid"));
+    assert!(print.contains("th{background:none}"));
+    let fig = &html[html.find("Loads by case").expect("load diagram")..];
+    let fig = &fig[..fig.find("</figure>").unwrap()];
+    for label in ["3 kN/m", "5 kN/m", "6 kN", "pinned"] {
+        assert!(fig.contains(label), "{label} in the load diagram");
+    }
+}
