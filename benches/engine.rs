@@ -318,6 +318,7 @@ fn drivers(c: &mut Criterion) {
     }
     let tmpl = beamsift::job::Job {
         title: "bench".into(),
+        project: beamsift::job::Project::default(),
         beam: simple_job(),
         material: m.clone(),
         criteria: Criteria::default(),

@@ -21,6 +21,10 @@ pub struct Line {
     pub check: CheckKind,
     pub label: String,
     pub combination: String,
+    /// The load pattern of the combination that gives this line's demand
+    /// ("live on span 1 loaded; live on right overhang not loaded"), None
+    /// where the combination has no patterned loads.
+    pub pattern: Option<String>,
     /// Span or overhang label ("span 2"), or the buckling segment (its
     /// ends in m).
     pub part: String,
@@ -185,6 +189,7 @@ pub fn line(prep: &Prepared, sec: SectionInput<'_>, it: &Item) -> Line {
         check: it.kind,
         label: it.kind.label().to_string(),
         combination: d.combos[it.combo].name.clone(),
+        pattern: governing_pattern(prep, sec, it),
         part,
         x: it.x,
         action: it.action,
@@ -195,6 +200,58 @@ pub fn line(prep: &Prepared, sec: SectionInput<'_>, it: &Item) -> Line {
         passes: it.utilisation <= 1.0,
         working: prep.working(sec, it),
     }
+}
+
+/// The load pattern that gives a check line its demand: the parts of the
+/// combination's patterned loads that the envelope takes at the line's
+/// position, for the sign of its action (read from the demand, see
+/// [`crate::beam::demand::Demand::loaded_parts`]). None without patterns.
+pub fn governing_pattern(prep: &Prepared, sec: SectionInput<'_>, it: &Item) -> Option<String> {
+    let d = &prep.demand;
+    let combo = &d.combos[it.combo];
+    if combo.patterns.is_empty() {
+        return None;
+    }
+    let m = sec.material.unwrap_or(&prep.material);
+    let ei = m.e_eff() * sec.props.ix;
+    let sl = d.section(prep.self_weight(sec.mass), ei);
+    let a = d.apply(it.combo, &sl);
+    let (q, target) = match it.kind {
+        CheckKind::Shear | CheckKind::WebShear => (Quantity::Shear, it.action),
+        // The deflection polynomials are for E·I = 1.
+        CheckKind::Deflection => (Quantity::Deflection, it.action * ei),
+        _ => (Quantity::Moment, it.action),
+    };
+    let upper = match it.sense {
+        crate::check::Sense::Sagging => true,
+        crate::check::Sense::Hogging => false,
+        crate::check::Sense::None => target >= 0.0,
+    };
+    let parts = d.loaded_parts(&a, q, it.x, upper, target);
+    let words = |pick: &dyn Fn(bool, bool) -> bool| -> Vec<String> {
+        parts
+            .iter()
+            .filter(|&&(_, on, none)| pick(on, none))
+            .map(|&(j, _, _)| combo.pattern_labels[j].clone())
+            .collect()
+    };
+    let loaded = words(&|on, _| on);
+    let off = words(&|on, none| !on && !none);
+    let idle = words(&|_, none| none);
+    let mut s = match (loaded.is_empty(), off.is_empty()) {
+        (true, true) => "no patterned load acts here".to_string(),
+        (true, false) => format!("no patterned load on ({} not loaded)", off.join(", ")),
+        (false, true) => format!("{} loaded", loaded.join(", ")),
+        (false, false) => format!(
+            "{} loaded; {} not loaded",
+            loaded.join(", "),
+            off.join(", ")
+        ),
+    };
+    if !idle.is_empty() {
+        s.push_str(&format!("; {} without effect here", idle.join(", ")));
+    }
+    Some(s)
 }
 
 /// Check a section and collect the result.
@@ -347,7 +404,7 @@ fn diagrams(prep: &Prepared, lines: &[Line], sl: &crate::beam::SectionLoad) -> V
         out.push(sample(
             ci,
             Quantity::Deflection,
-            "Deflection δ (downward plotted down)",
+            "Deflection δ (positive downward, plotted downward)",
             Show::Deflection,
             1.0 / sl.ei,
             -1.0,

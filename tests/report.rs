@@ -104,7 +104,7 @@ fn readable(md: &str) -> String {
         charts += 1;
     }
     out.push_str(rest);
-    assert_eq!(charts, 3, "V, M and deflection diagrams");
+    assert_eq!(charts, 4, "load, V, M and deflection diagrams");
     out
 }
 
@@ -258,7 +258,7 @@ fn html_is_well_formed_and_self_contained() {
         .descendants()
         .filter(|n| n.tag_name().name() == "svg")
         .count();
-    assert_eq!(svgs, 3, "V, M and deflection diagrams");
+    assert_eq!(svgs, 4, "load, V, M and deflection diagrams");
     for n in doc.descendants() {
         for a in n.attributes() {
             if a.name() == "href" || a.name() == "src" {
@@ -324,5 +324,214 @@ fn names_from_the_job_are_escaped_in_both_formats() {
         for l in lines {
             assert_eq!(cols(l), n, "row with another column count: {l}");
         }
+    }
+}
+
+/// The `[project]` table reaches the sheet as its title block (HTML and
+/// Markdown), a name not given leaves its field blank to sign by hand,
+/// and an unknown key in it is refused at its line and column.
+#[test]
+fn title_block_from_the_project_table() {
+    let text = JOB.replace(
+        "[beam]",
+        "[project]\nproject = \"Test shed (invented)\"\njob_number = \"T-17\"\nengineer = \"E. Xample\"\nrevision = \"B\"\n[beam]",
+    );
+    let job = from_toml(&text, "tb.toml").unwrap();
+    assert_eq!(job.project.project.as_deref(), Some("Test shed (invented)"));
+    assert_eq!(job.project.checker, None);
+    let prep = Prepared::new(&job.beam, job.material.clone(), job.criteria.clone()).unwrap();
+    let shape = Shape::Rect { b: 100.0, d: 300.0 };
+    let p = shape.properties().unwrap();
+    let r = member::member_check(&job, &prep, "rect", &p, 0.0, None);
+    let s = sheet::build(&job, &prep, &r, "given", None, System::Si);
+    let (md, html) = (sheet::markdown(&s), sheet::html(&s));
+    assert!(
+        md.contains("| Test shed (invented) | T-17 |  |  | B |"),
+        "{md}"
+    );
+    assert!(md.contains("| Prepared by (engineer) | E. Xample |  |  |"));
+    assert!(
+        md.contains("| Checked by (checker) |  |  |  |"),
+        "blank checker"
+    );
+    assert!(html.contains("<div class=\"titleblock\">"));
+    assert!(html.contains("<td>T-17</td>"));
+    // The title block comes before the first section.
+    assert!(html.find("titleblock").unwrap() < html.find("<h2>").unwrap());
+    // Unknown key: refused at file:line:column (JOB opens with a blank
+    // line and the title, so the key is on line 4, column 1).
+    let bad = JOB.replace("[beam]", "[project]\nsheet = \"1\"\n[beam]");
+    let e = from_toml(&bad, "tb.toml").unwrap_err().to_string();
+    assert!(e.contains("tb.toml:4:1"), "{e}");
+    assert!(e.contains("sheet"), "{e}");
+}
+
+/// Every top-level heading of the sheet is numbered 1, 2, 3 … without a
+/// gap, and each check's number starts with that of the checks section;
+/// with and without the catalogue alternatives and near misses.
+#[test]
+fn section_numbers_have_no_gaps() {
+    let (md, html, _) = build();
+    let with = {
+        let job = from_toml(JOB, "snap.toml").unwrap();
+        let prep = Prepared::new(&job.beam, job.material.clone(), job.criteria.clone()).unwrap();
+        let p = Shape::Rect { b: 100.0, d: 300.0 }.properties().unwrap();
+        let r = member::member_check(&job, &prep, "rect", &p, 0.0, None);
+        let alt = beamsift::report::Table::new("Next lightest passing sections", &[]);
+        sheet::markdown(
+            &sheet::build(&job, &prep, &r, "given", Some(alt), System::Si)
+                .with_near_misses(Some(beamsift::report::Table::new("Near misses", &[]))),
+        )
+    };
+    for text in [&md, &with] {
+        let nums: Vec<u32> = text
+            .lines()
+            .filter_map(|l| l.strip_prefix("## "))
+            .map(|h| {
+                h.split('.')
+                    .next()
+                    .unwrap()
+                    .parse()
+                    .unwrap_or_else(|_| panic!("unnumbered heading {h}"))
+            })
+            .collect();
+        assert_eq!(
+            nums,
+            (1..=nums.len() as u32).collect::<Vec<_>>(),
+            "{nums:?}"
+        );
+        let checks = text
+            .lines()
+            .find_map(|l| l.strip_prefix("## ").filter(|h| h.ends_with("Checks")))
+            .unwrap();
+        let k = checks.split('.').next().unwrap();
+        let subs: Vec<&str> = text
+            .lines()
+            .filter_map(|l| l.strip_prefix("### "))
+            .collect();
+        assert!(!subs.is_empty());
+        for (i, h) in subs.iter().enumerate() {
+            assert!(h.starts_with(&format!("{k}.{} ", i + 1)), "{h}");
+        }
+    }
+    assert!(with.contains("Alternatives from the catalogue"));
+    // The HTML has the same headings.
+    assert_eq!(
+        html.matches("<h2>").count(),
+        md.lines().filter(|l| l.starts_with("## ")).count()
+    );
+}
+
+/// Every check line names the combination and load pattern that govern
+/// it (a patterned combination names its parts).
+#[test]
+fn every_check_line_names_its_governing_pattern() {
+    let (md, html, r) = build();
+    let blocks: Vec<&str> = md.split("\n### ").skip(1).collect();
+    assert_eq!(blocks.len(), r.lines.len());
+    for b in &blocks {
+        let g = b
+            .lines()
+            .find(|l| l.starts_with("Governing: combination "))
+            .unwrap_or_else(|| panic!("no governing line in {b}"));
+        assert!(
+            g.contains("load pattern: live on span") || g.contains("no patterned loads"),
+            "{g}"
+        );
+    }
+    // D+L patterns the live load span by span (the job's live case).
+    assert!(md.contains("Governing: combination D+L, load pattern: live on span 1"));
+    assert_eq!(
+        html.matches("governing: combination ").count(),
+        r.lines.len()
+    );
+}
+
+/// One sign convention for deflection: positive downward in the extremes
+/// table, the check line and the chart label. Simply supported span
+/// L = 6 m, uniform w = 10 kN/m, rectangle 100 × 300 mm (I = b·d³/12 =
+/// 225 × 10⁶ mm⁴), E = 200 GPa, no self-weight: midspan deflection
+/// 5·w·L⁴/(384·E·I) = 5 × 10 × 6000⁴ / (384 × 200,000 × 225 × 10⁶) =
+/// 3.750 mm downward (Roark's Formulas for Stress and Strain, Table 8.1
+/// case 2e; any structural analysis text), at x = 3 m.
+#[test]
+fn deflection_is_positive_downward_everywhere() {
+    let text = r#"
+title = "Simply supported UDL (invented test data)"
+[beam]
+spans = ["6 m"]
+supports = ["pinned", "pinned"]
+[material]
+name = "test"
+E = "200 GPa"
+Fb = "165 MPa"
+Fv = "100 MPa"
+density = "7850 kg/m3"
+[[case]]
+name = "live"
+category = "live"
+[[load]]
+case = "live"
+uniform = "10 kN/m"
+[[combination]]
+name = "L"
+factors = { live = 1.0 }
+[[combination]]
+name = "L service"
+kind = "service"
+factors = { live = 1.0 }
+limit = "L/360"
+[checks]
+self_weight = false
+"#;
+    let job = from_toml(text, "udl.toml").unwrap();
+    let prep = Prepared::new(&job.beam, job.material.clone(), job.criteria.clone()).unwrap();
+    let p = Shape::Rect { b: 100.0, d: 300.0 }.properties().unwrap();
+    common::close("I", p.ix, 225e6, 1e-12);
+    let r = member::member_check(&job, &prep, "rect", &p, 0.0, None);
+    let s = sheet::build(&job, &prep, &r, "given", None, System::Si);
+    let md = sheet::markdown(&s);
+    assert!(
+        md.contains("deflection δ positive downward"),
+        "the convention stated"
+    );
+    // Extremes table: 3.75 mm down at 3 m (4 significant figures).
+    assert!(md.contains("| L service | span 1 |"), "{md}");
+    let row = md
+        .lines()
+        .find(|l| l.starts_with("| L service | span 1 |"))
+        .unwrap();
+    assert!(row.contains("| 3.75 at 3 |"), "{row}");
+    // The check line keeps the sign and says which way.
+    assert!(md.contains("δ = 3.75 mm (downward), |δ| = 3.75 mm"), "{md}");
+    // The chart's label of the extreme shows the same signed value.
+    let fig = s
+        .figures
+        .iter()
+        .find(|f| f.caption.starts_with("Deflection"))
+        .expect("a deflection diagram");
+    assert!(fig.caption.contains("positive downward"));
+    assert!(fig.svg.contains("3.75 mm at 3 m"), "chart label");
+    assert!(!fig.svg.contains("-3.75 mm"), "no other sign in the chart");
+}
+
+/// The printed sheet: the print rules a browser needs for A4 and Letter
+/// (CSS Paged Media: `@page { size: auto }` takes the printer's paper),
+/// a page break before each top-level section, tables, figures and checks
+/// kept whole, no dark backgrounds; and the load diagram names the job's
+/// loads by case (JOB: 3 kN/m dead, 5 kN/m and 6 kN live).
+#[test]
+fn print_rules_and_load_diagram() {
+    let (_, html, _) = build();
+    let style = &html[html.find("<style>").unwrap()..html.find("</style>").unwrap()];
+    let print = &style[style.find("@media print").expect("print rules")..];
+    assert!(style.contains("@page{size:auto;margin:"));
+    assert!(print.contains("h2{break-before:page"));
+    assert!(print.contains("table,figure,.check,.titleblock{break-inside:avoid"));
+    assert!(print.contains("th{background:none}"));
+    let fig = &html[html.find("Loads by case").expect("load diagram")..];
+    let fig = &fig[..fig.find("</figure>").unwrap()];
+    for label in ["3 kN/m", "5 kN/m", "6 kN", "pinned"] {
+        assert!(fig.contains(label), "{label} in the load diagram");
     }
 }

@@ -226,7 +226,9 @@ pub fn scan_for_sheet(
     }
     let opts = ScanOptions {
         ranks: vec![(search::Rank::Mass, keep)],
-        near: if section.is_some() { keep } else { 1 },
+        // The near misses a sheet lists are the failing rows lighter than
+        // the section (at most five): keep enough to find them.
+        near: if section.is_some() { keep } else { 20 },
         unverified: keep,
         filters,
         skip_bad_rows: cat.skip_bad_rows,

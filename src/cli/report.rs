@@ -64,6 +64,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
             mass: p.mass_per_length(job.material.density),
             source: "properties computed from the dimensions (section module)".to_string(),
             alternatives: None,
+            near_misses: None,
             material: None,
         };
         sheet::for_section(&job, &prep, subject, sys)

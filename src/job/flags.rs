@@ -433,6 +433,7 @@ impl JobFlags {
         beam.validate()?;
         Ok(Job {
             title: "beam from flags".into(),
+            project: super::Project::default(),
             beam,
             material,
             criteria,

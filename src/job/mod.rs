@@ -39,10 +39,33 @@ use crate::units;
 use raw::RawJob;
 use source::Source;
 
+/// The title block of a job (its `[project]` table): who and what a
+/// calculation sheet is for. Every entry is optional; a sheet leaves a
+/// blank to fill in by hand where one is not given.
+#[derive(Clone, Debug, Default, PartialEq, Eq, serde::Serialize)]
+pub struct Project {
+    pub project: Option<String>,
+    pub job_number: Option<String>,
+    pub member: Option<String>,
+    pub engineer: Option<String>,
+    pub checker: Option<String>,
+    pub date: Option<String>,
+    pub revision: Option<String>,
+}
+
+impl Project {
+    /// Whether the job gave no entry at all.
+    pub fn is_empty(&self) -> bool {
+        *self == Project::default()
+    }
+}
+
 /// A job ready to analyse.
 #[derive(Clone, Debug)]
 pub struct Job {
     pub title: String,
+    /// The title block (`[project]`), for calculation sheets.
+    pub project: Project,
     pub beam: Beam,
     pub material: Material,
     pub criteria: Criteria,
@@ -141,8 +164,22 @@ pub fn from_toml(text: &str, file: &str) -> Result<Job> {
         notes.push("no dead load case: the section's self-weight is not included".into());
     }
     loads::validate(&src, &beam, &loads)?;
+    let project = raw
+        .project
+        .as_ref()
+        .map(|p| Project {
+            project: p.project.clone(),
+            job_number: p.job_number.clone(),
+            member: p.member.clone(),
+            engineer: p.engineer.clone(),
+            checker: p.checker.clone(),
+            date: p.date.clone(),
+            revision: p.revision.clone(),
+        })
+        .unwrap_or_default();
     Ok(Job {
         title: raw.title.unwrap_or_else(|| "beam".into()),
+        project,
         beam,
         material,
         criteria,

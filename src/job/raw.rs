@@ -9,6 +9,7 @@ use toml::Spanned;
 #[serde(deny_unknown_fields)]
 pub struct RawJob {
     pub title: Option<String>,
+    pub project: Option<RawProject>,
     pub beam: RawBeam,
     pub material: RawMaterial,
     #[serde(default)]
@@ -142,4 +143,18 @@ pub struct RawChecks {
     pub exclude: Option<Spanned<Vec<Spanned<String>>>>,
     pub creep_factor: Option<Spanned<f64>>,
     pub sustained_live: Option<Spanned<f64>>,
+}
+
+/// The `[project]` table: the title block of a calculation sheet, every
+/// entry an optional string.
+#[derive(Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RawProject {
+    pub project: Option<String>,
+    pub job_number: Option<String>,
+    pub member: Option<String>,
+    pub engineer: Option<String>,
+    pub checker: Option<String>,
+    pub date: Option<String>,
+    pub revision: Option<String>,
 }

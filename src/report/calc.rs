@@ -17,6 +17,9 @@ use serde::Serialize;
 pub struct WrittenCheck {
     pub check: String,
     pub combination: String,
+    /// The combination and load pattern that give this line's demand,
+    /// in words.
+    pub governs: String,
     pub location: String,
     pub formula: String,
     pub substitution: Vec<String>,
@@ -37,6 +40,8 @@ pub struct Figure {
 #[derive(Clone, Debug, Serialize)]
 pub struct Sheet {
     pub title: String,
+    /// The title block (the job's `[project]` table).
+    pub project: crate::job::Project,
     pub member: String,
     pub section: String,
     pub section_source: String,
@@ -45,6 +50,9 @@ pub struct Sheet {
     pub figures: Vec<Figure>,
     pub checks: Vec<WrittenCheck>,
     pub alternatives: Option<Table>,
+    /// Failing sections lighter than this one (a scan's near misses);
+    /// None where the section did not come from a scan.
+    pub near_misses: Option<Table>,
     pub methods: Vec<String>,
     pub assumptions: Vec<String>,
     pub not_verified: Vec<String>,
@@ -54,6 +62,21 @@ pub struct Sheet {
     pub caution: &'static str,
     pub generator: String,
 }
+
+impl Sheet {
+    /// The sheet with the near misses of the scan that found its section.
+    pub fn with_near_misses(mut self, t: Option<Table>) -> Sheet {
+        self.near_misses = t;
+        self
+    }
+}
+
+/// The one sign convention of the sheet, stated at its start: every table,
+/// check line and diagram follows it.
+pub const SIGNS: &str = "Sign convention (the whole sheet): x from the left end of the beam; loads downward positive, applied moments clockwise positive; \
+reactions upward positive; bending moment M sagging positive (hogging negative); shear V = dM/dx; \
+deflection δ positive downward, an upward movement negative — in the tables, the check lines and the diagrams alike \
+(the deflection diagram draws downward values below its axis and its scale reads positive downward).";
 
 /// The three verdicts and their exit codes, in words (for every sheet).
 pub const VERDICTS: &str = "Verdicts: PASSES — every limit state that applies was evaluated by the method stated and is within its capacity (exit code 0); \
@@ -78,6 +101,13 @@ pub fn written_checks(r: &MemberCheck, sys: System) -> Vec<WrittenCheck> {
             WrittenCheck {
                 check: l.label.clone(),
                 combination: l.combination.clone(),
+                governs: match &l.pattern {
+                    Some(p) => format!("combination {}, load pattern: {p}", l.combination),
+                    None => format!(
+                        "combination {} (no patterned loads: every load as given)",
+                        l.combination
+                    ),
+                },
                 location,
                 formula: if w.formula.is_empty() {
                     w.method.clone()
@@ -85,7 +115,18 @@ pub fn written_checks(r: &MemberCheck, sys: System) -> Vec<WrittenCheck> {
                     format!("{} — {}", w.method, w.formula)
                 },
                 substitution,
-                result: format!("= {}", l.show.fmt(l.demand, sys)),
+                // A deflection keeps its sign (downward positive) beside
+                // the size the limit is compared with.
+                result: if l.check == CheckKind::Deflection {
+                    format!(
+                        "δ = {} ({}), |δ| = {}",
+                        Show::Deflection.fmt(l.action, sys),
+                        if l.action < 0.0 { "upward" } else { "downward" },
+                        l.show.fmt(l.demand, sys)
+                    )
+                } else {
+                    format!("= {}", l.show.fmt(l.demand, sys))
+                },
                 allowable: format!("{} = {}", w.capacity, l.show.fmt(l.capacity, sys)),
                 utilisation: format!(
                     "{} / {} = {:.3}",
@@ -146,6 +187,7 @@ pub fn figures(r: &MemberCheck, sys: System) -> Vec<Figure> {
                 &curves,
                 &marks,
                 &supports,
+                g.sign < 0.0,
             );
             Figure {
                 caption: title,
@@ -230,8 +272,8 @@ pub fn extremes_table(r: &MemberCheck, sys: System) -> Table {
         format!("M+ [{ml}]"),
         format!("M− [{ml}]"),
         format!("|V| [{fl}]"),
-        format!("δ down [{dl}] at x [{sl}]"),
-        format!("δ up [{dl}] at x [{sl}]"),
+        format!("δ largest down [{dl}] at x [{sl}]"),
+        format!("δ largest up [{dl}] at x [{sl}]"),
     ];
     let refs: Vec<(&str, Align)> = heads
         .iter()
@@ -239,13 +281,15 @@ pub fn extremes_table(r: &MemberCheck, sys: System) -> Table {
         .map(|(i, h)| (h.as_str(), if i < 2 { Align::Left } else { Align::Right }))
         .collect();
     let mut t = Table::new(
-        "Extremes per combination and span (envelope over load patterns; deflection from the chord of the span's supports)",
+        "Extremes per combination and span (envelope over load patterns; deflection from the chord of the span's supports, positive downward: an upward movement is negative)",
         &refs,
     );
-    let at = |v: Option<At>, show: Show, neg: bool| match v {
+    // Both deflections as the analysis gives them, downward positive (the
+    // upward one negative).
+    let at = |v: Option<At>, show: Show| match v {
         Some(a) => format!(
             "{} at {}",
-            show.num(if neg { -a.value } else { a.value }, sys),
+            show.num(a.value, sys),
             Show::Span.num(a.x_mm, sys)
         ),
         None => "—".into(),
@@ -261,8 +305,8 @@ pub fn extremes_table(r: &MemberCheck, sys: System) -> Table {
                 .map(|x| Show::Moment.num(x.value, sys))
                 .unwrap_or_else(|| "—".into()),
             Show::Force.num(e.shear_n.value.abs(), sys),
-            at(e.deflection_down_mm, Show::Deflection, false),
-            at(e.deflection_up_mm, Show::Deflection, true),
+            at(e.deflection_down_mm, Show::Deflection),
+            at(e.deflection_up_mm, Show::Deflection),
         ]);
     }
     t
@@ -317,4 +361,149 @@ pub fn methods(prep: &Prepared, r: &MemberCheck) -> (Vec<String>, Vec<String>) {
     ];
     a.extend(prep.assumptions());
     (m, a)
+}
+
+/// The title block of the sheet from the job's `[project]` table: the
+/// project, job number, member, date and revision, then who prepared and
+/// who checked it, with the signature and date left blank to sign by hand
+/// (and a name left blank where the job gives none).
+pub fn title_block(p: &crate::job::Project) -> Vec<Table> {
+    let or_blank = |v: &Option<String>| v.clone().unwrap_or_default();
+    let mut t = Table::new(
+        "Title block",
+        &[
+            ("Project", Align::Left),
+            ("Job number", Align::Left),
+            ("Member", Align::Left),
+            ("Date", Align::Left),
+            ("Revision", Align::Left),
+        ],
+    );
+    t.row(vec![
+        or_blank(&p.project),
+        or_blank(&p.job_number),
+        or_blank(&p.member),
+        or_blank(&p.date),
+        or_blank(&p.revision),
+    ]);
+    let mut s = Table::new(
+        "Sign-off",
+        &[
+            ("Role", Align::Left),
+            ("Name", Align::Left),
+            ("Signature", Align::Left),
+            ("Date", Align::Left),
+        ],
+    );
+    s.row(vec![
+        "Prepared by (engineer)".into(),
+        or_blank(&p.engineer),
+        String::new(),
+        String::new(),
+    ]);
+    s.row(vec![
+        "Checked by (checker)".into(),
+        or_blank(&p.checker),
+        String::new(),
+        String::new(),
+    ]);
+    vec![t, s]
+}
+
+/// The load diagram of the job: supports at the nodes, one lane per load
+/// case with its loads (and the section's self-weight in its case), in
+/// display units.
+pub fn load_figure(job: &crate::job::Job, r: &MemberCheck, sys: System) -> Figure {
+    use super::chart::Glyph;
+    use crate::beam::LoadKind;
+    let b = &job.beam;
+    let span = |v: f64| Show::Span.value(v, sys);
+    let mut x = 0.0;
+    let mut nodes = vec![0.0];
+    for s in &b.spans {
+        x += s;
+        nodes.push(x);
+    }
+    let supports: Vec<(f64, String)> = b
+        .supports
+        .iter()
+        .zip(&nodes)
+        .filter(|(s, _)| s.restrains_vertical())
+        .map(|(s, &x)| (span(x), s.name()))
+        .collect();
+    let sw = b.self_weight_case.filter(|_| job.criteria.self_weight);
+    let cases: Vec<(String, Vec<(Glyph, String)>)> = b
+        .cases
+        .iter()
+        .enumerate()
+        .map(|(i, c)| {
+            let mut g: Vec<(Glyph, String)> = b
+                .loads
+                .iter()
+                .filter(|l| l.case == i)
+                .map(|l| match l.kind {
+                    LoadKind::Distributed { x1, x2, w1, w2 } => (
+                        Glyph::Line {
+                            x1: span(x1),
+                            x2: span(x2),
+                            w1: Show::LineLoad.value(w1, sys),
+                            w2: Show::LineLoad.value(w2, sys),
+                        },
+                        if w1 == w2 {
+                            Show::LineLoad.fmt(w1, sys)
+                        } else {
+                            format!(
+                                "{} to {}",
+                                Show::LineLoad.fmt(w1, sys),
+                                Show::LineLoad.fmt(w2, sys)
+                            )
+                        },
+                    ),
+                    LoadKind::Point { x, p } => (
+                        Glyph::Force {
+                            x: span(x),
+                            p: Show::Force.value(p, sys),
+                        },
+                        Show::Force.fmt(p, sys),
+                    ),
+                    LoadKind::Moment { x, m } => (
+                        Glyph::Couple { x: span(x) },
+                        format!(
+                            "{} {}",
+                            Show::Moment.fmt(m.abs(), sys),
+                            if m >= 0.0 {
+                                "clockwise"
+                            } else {
+                                "anticlockwise"
+                            }
+                        ),
+                    ),
+                })
+                .collect();
+            if sw == Some(i) && r.self_weight > 0.0 {
+                g.push((
+                    Glyph::Line {
+                        x1: 0.0,
+                        x2: span(b.length()),
+                        w1: Show::LineLoad.value(r.self_weight, sys),
+                        w2: Show::LineLoad.value(r.self_weight, sys),
+                    },
+                    format!("self-weight {}", Show::LineLoad.fmt(r.self_weight, sys)),
+                ));
+            }
+            (c.name.clone(), g)
+        })
+        .collect();
+    let title =
+        "Loads by case (unfactored; line loads drawn to scale within each lane)".to_string();
+    Figure {
+        svg: chart::load_diagram(
+            &title,
+            &format!("x [{}]", Show::Span.label(sys)),
+            span(b.length()),
+            &supports,
+            &cases,
+        ),
+        caption: title,
+    }
 }

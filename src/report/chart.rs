@@ -191,7 +191,10 @@ pub fn span_chart(
 }
 
 /// A diagram along the beam: one or two curves (an envelope), filled to
-/// the axis, with marked extremes. Values in display units.
+/// the axis, with marked extremes. Values in display units, as plotted
+/// (upward on the page positive); with `flipped` the quantity is plotted
+/// negated (a downward-positive deflection drawn downward) and the scale
+/// is labelled with the quantity itself, so it reads positive downward.
 pub fn beam_diagram(
     title: &str,
     x_label: &str,
@@ -199,6 +202,7 @@ pub fn beam_diagram(
     curves: &[Vec<(f64, f64)>],
     marks: &[(f64, f64, String)],
     supports: &[f64],
+    flipped: bool,
 ) -> String {
     let mut svg = String::new();
     {
@@ -230,6 +234,16 @@ pub fn beam_diagram(
             .axis_desc_style(("sans-serif", 14))
             .label_style(("sans-serif", 12))
             .light_line_style(RGBColor(238, 238, 238))
+            .y_label_formatter(&|y: &f64| {
+                let v = if flipped { -*y } else { *y };
+                // Rounding noise at the axis reads 0, not "-1e-16".
+                let v = if v.abs() <= 1e-9 * (y1 - y0).abs() {
+                    0.0
+                } else {
+                    v
+                };
+                crate::units::fmt_num(v)
+            })
             .draw();
         let _ = chart.draw_series(LineSeries::new(
             vec![(x0, 0.0), (x1, 0.0)],
@@ -275,4 +289,146 @@ fn svg_fallback(title: &str) -> String {
         "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"600\" height=\"80\"><text x=\"10\" y=\"40\">{}: nothing to plot</text></svg>",
         super::html::esc(title)
     )
+}
+
+/// One load on the load diagram, in display units, with its label.
+pub enum Glyph {
+    /// A line load from x1 to x2, intensities w1 to w2.
+    Line { x1: f64, x2: f64, w1: f64, w2: f64 },
+    /// A point force at x (downward positive).
+    Force { x: f64, p: f64 },
+    /// A point moment at x (clockwise positive).
+    Couple { x: f64 },
+}
+
+/// The load diagram: the beam with its supports (node positions and the
+/// support's name), and above it one lane per load case with its line
+/// loads (drawn to scale within the lane, the largest intensity filling
+/// it), point forces (arrows) and moments (a ring), each labelled.
+/// Positions and values in display units.
+pub fn load_diagram(
+    title: &str,
+    x_label: &str,
+    length: f64,
+    supports: &[(f64, String)],
+    cases: &[(String, Vec<(Glyph, String)>)],
+) -> String {
+    let mut svg = String::new();
+    {
+        let lanes = cases.len().max(1);
+        let h = 110 + 90 * lanes as u32;
+        let root = SVGBackend::with_string(&mut svg, (820, h)).into_drawing_area();
+        let _ = root.fill(&WHITE);
+        let pad = 0.04 * length.max(1e-9);
+        let Ok(mut chart) = ChartBuilder::on(&root)
+            .caption(title, ("sans-serif", 18))
+            .margin(14)
+            .x_label_area_size(40)
+            .y_label_area_size(70)
+            .build_cartesian_2d(-pad..(length + pad), -0.6..(lanes as f64 + 0.1))
+        else {
+            return svg_fallback(title);
+        };
+        let names: Vec<String> = cases.iter().map(|c| c.0.clone()).collect();
+        let _ = chart
+            .configure_mesh()
+            .disable_y_mesh()
+            .x_desc(x_label)
+            .axis_desc_style(("sans-serif", 14))
+            .label_style(("sans-serif", 12))
+            .y_labels(2 * lanes + 2)
+            .y_label_formatter(&|y: &f64| {
+                // A case's name at the middle of its lane.
+                let k = (*y - 0.5).round();
+                if (*y - 0.5 - k).abs() < 1e-6 && k >= 0.0 && (k as usize) < names.len() {
+                    names[k as usize].clone()
+                } else {
+                    String::new()
+                }
+            })
+            .light_line_style(RGBColor(238, 238, 238))
+            .draw();
+        // The beam and its supports.
+        let _ = chart.draw_series(LineSeries::new(
+            vec![(0.0, 0.0), (length, 0.0)],
+            BLACK.stroke_width(4),
+        ));
+        for (x, kind) in supports {
+            let _ = chart.draw_series(std::iter::once(
+                EmptyElement::at((*x, 0.0))
+                    + TriangleMarker::new((0, 9), 9, BLACK.filled())
+                    + Text::new(kind.clone(), (-14, 20), ("sans-serif", 12).into_font()),
+            ));
+        }
+        let font = ("sans-serif", 12).into_font();
+        for (k, (_, glyphs)) in cases.iter().enumerate() {
+            let base = k as f64 + 0.08;
+            let color = PALETTE[k % PALETTE.len()];
+            let wmax = glyphs
+                .iter()
+                .filter_map(|g| match g.0 {
+                    Glyph::Line { w1, w2, .. } => Some(w1.abs().max(w2.abs())),
+                    _ => None,
+                })
+                .fold(0.0, f64::max);
+            let _ = chart.draw_series(LineSeries::new(
+                vec![(0.0, base), (length, base)],
+                RGBColor(200, 200, 200).stroke_width(1),
+            ));
+            let mut label_row = 0;
+            for (g, text) in glyphs {
+                match *g {
+                    Glyph::Line { x1, x2, w1, w2 } => {
+                        let top = |w: f64| base + 0.6 * w.abs() / wmax.max(1e-12);
+                        let _ = chart.draw_series(std::iter::once(Polygon::new(
+                            vec![(x1, base), (x1, top(w1)), (x2, top(w2)), (x2, base)],
+                            color.mix(0.25).filled(),
+                        )));
+                        let _ = chart.draw_series(LineSeries::new(
+                            vec![(x1, base), (x1, top(w1)), (x2, top(w2)), (x2, base)],
+                            color.stroke_width(1),
+                        ));
+                        let _ = chart.draw_series(std::iter::once(
+                            EmptyElement::at((x1, top(w1).max(top(w2))))
+                                + Text::new(text.clone(), (4, -14), font.clone()),
+                        ));
+                    }
+                    Glyph::Force { x, p } => {
+                        let (from, to) = if p >= 0.0 {
+                            (base + 0.75, base)
+                        } else {
+                            (base, base + 0.75)
+                        };
+                        let _ = chart.draw_series(LineSeries::new(
+                            vec![(x, from), (x, to)],
+                            BLACK.stroke_width(2),
+                        ));
+                        let (tip, dir) = if p >= 0.0 { (to, 7) } else { (to, -7) };
+                        let _ = chart.draw_series(std::iter::once(
+                            EmptyElement::at((x, tip))
+                                + Polygon::new(vec![(0, 0), (-5, -dir), (5, -dir)], BLACK.filled()),
+                        ));
+                        label_row += 1;
+                        let _ = chart.draw_series(std::iter::once(
+                            EmptyElement::at((x, base + 0.75))
+                                + Text::new(
+                                    text.clone(),
+                                    (5, -4 + 12 * (label_row % 2)),
+                                    font.clone(),
+                                ),
+                        ));
+                    }
+                    Glyph::Couple { x } => {
+                        let _ = chart.draw_series(std::iter::once(
+                            EmptyElement::at((x, base + 0.3))
+                                + Circle::new((0, 0), 9, BLACK.stroke_width(2))
+                                + Text::new(text.clone(), (12, -6), font.clone()),
+                        ));
+                    }
+                }
+            }
+        }
+        let _ = root.present();
+    }
+    svg
 }

@@ -57,7 +57,13 @@ caption{text-align:left;font-weight:bold;padding:.3em 0}th,td{border:1px solid #
 th{background:#eee}td.num,th.num{text-align:right}.calc{font-family:monospace;white-space:pre-wrap;background:#f7f7f7;\
 border-left:3px solid #666;padding:.4em .8em;margin:.3em 0}.fail{color:#b00;font-weight:bold}.unverified{color:#840;font-weight:bold}.pass{color:#060}\
 .caution{border:2px solid #b60;background:#fff6e8;padding:.6em 1em}figure{margin:1em 0}svg{max-width:100%;height:auto}\
-@media print{h2{page-break-after:avoid}.check{page-break-inside:avoid}}";
+.titleblock{border:2px solid #333;padding:.3em .8em;margin:1em 0}.titleblock table{width:100%;margin:.4em 0}.titleblock td{height:1.8em}\
+@page{size:auto;margin:15mm 12mm}\
+@media print{body{max-width:none;margin:0;padding:0;font-size:10pt}th{background:none}.calc{background:none}.caution{background:none}\
+h2{break-before:page;page-break-before:always;break-after:avoid;page-break-after:avoid}\
+h3,caption{break-after:avoid;page-break-after:avoid}\
+table,figure,.check,.titleblock{break-inside:avoid;page-break-inside:avoid}\
+*{-webkit-print-color-adjust:economy;print-color-adjust:economy}}";
 
 pub fn render(doc: &Document) -> String {
     let mut o = String::new();
@@ -84,6 +90,13 @@ pub fn render(doc: &Document) -> String {
             }
             Block::Caution(p) => o.push_str(&format!("<p class=\"caution\">{}</p>\n", esc(p))),
             Block::Table(t) => o.push_str(&table(t)),
+            Block::TitleBlock(ts) => {
+                o.push_str("<div class=\"titleblock\">\n");
+                for t in ts {
+                    o.push_str(&table(t));
+                }
+                o.push_str("</div>\n");
+            }
             Block::List(lead, items) => {
                 if !lead.is_empty() {
                     o.push_str(&format!("<p>{}</p>\n", esc(lead)));
@@ -104,6 +117,7 @@ pub fn render(doc: &Document) -> String {
                     "<div class=\"check\">\n<h3>{}</h3>\n<div class=\"calc\">",
                     esc(heading)
                 ));
+                o.push_str(&format!("governing: {}\n", esc(&c.governs)));
                 o.push_str(&esc(&c.formula));
                 for line in &c.substitution {
                     o.push_str(&format!("\n  {}", esc(line)));

@@ -108,6 +108,12 @@ pub fn render(doc: &Document) -> String {
                 out.push_str(&table(t));
                 out.push('\n');
             }
+            Block::TitleBlock(ts) => {
+                for t in ts {
+                    out.push_str(&table(t));
+                    out.push('\n');
+                }
+            }
             Block::List(lead, items) => {
                 if !lead.is_empty() {
                     out.push_str(&format!("{}\n\n", text(lead)));
@@ -124,6 +130,8 @@ pub fn render(doc: &Document) -> String {
             )),
             Block::Check(heading, c) => {
                 out.push_str(&format!("### {}\n\n", text(heading)));
+                // Names from the job: text (escaped), not code.
+                out.push_str(&format!("Governing: {}.\n\n", text(&c.governs)));
                 out.push_str(&format!("    {}\n", code(&c.formula)));
                 for line in &c.substitution {
                     out.push_str(&format!("      {}\n", code(line)));

@@ -81,6 +81,9 @@ pub enum Block {
     Figure(calc::Figure),
     /// A check written out: its heading and its working.
     Check(String, calc::WrittenCheck),
+    /// The title block of a sheet (project, job, member, date, revision;
+    /// who prepared and who checked it, with fields to sign): its tables.
+    TitleBlock(Vec<Table>),
     /// A closing line after a rule ("Prepared with …").
     Footer(String),
 }

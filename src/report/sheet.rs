@@ -26,6 +26,9 @@ pub struct Subject<'a> {
     pub mass: f64,
     pub source: String,
     pub alternatives: Option<Table>,
+    /// The sections that nearly passed (failing rows lighter than this
+    /// one), where the section came from a scan.
+    pub near_misses: Option<Table>,
     /// The row's own material, where a catalogue row names a grade.
     pub material: Option<&'a Material>,
 }
@@ -34,7 +37,7 @@ pub struct Subject<'a> {
 pub fn for_section(job: &Job, prep: &Prepared, s: Subject<'_>, sys: System) -> Written {
     let r = member::member_check(job, prep, s.name, s.properties, s.mass, s.material);
     Written {
-        sheet: build(job, prep, &r, &s.source, s.alternatives, sys),
+        sheet: build(job, prep, &r, &s.source, s.alternatives, sys).with_near_misses(s.near_misses),
         verdict: r.verdict,
     }
 }
@@ -63,6 +66,7 @@ pub fn for_candidate(
             } else {
                 None
             },
+            near_misses: Some(near_misses(prep, &sel.near_misses.items, c, sys)),
             material: Some(&m),
         },
         sys,
@@ -93,6 +97,46 @@ pub fn alternatives(list: &[Candidate], skip: &str, sys: System) -> Option<Table
         ]);
     }
     (!t.rows.is_empty()).then_some(t)
+}
+
+/// The near misses of a scan: the failing rows lighter than the section
+/// reported, least utilised first (the scan keeps them in that order), at
+/// most five.
+pub fn near_misses(prep: &Prepared, list: &[Candidate], chosen: &Candidate, sys: System) -> Table {
+    let mut t = Table::new(
+        format!(
+            "Near misses: sections lighter than {} that fail, least utilised first",
+            chosen.name
+        ),
+        &[
+            ("Section", Align::Left),
+            ("Mass", Align::Right),
+            ("Depth", Align::Right),
+            ("Utilisation", Align::Right),
+            ("Governed by", Align::Left),
+            ("Combination", Align::Left),
+        ],
+    );
+    for c in list
+        .iter()
+        .filter(|c| c.name != chosen.name && c.mass < chosen.mass)
+        .take(5)
+    {
+        t.row(vec![
+            c.name.clone(),
+            Show::Mass.fmt(c.mass, sys),
+            Show::Dimension.fmt(c.depth, sys),
+            format!("{:.3}", c.utilisation),
+            c.governing
+                .map(|g| g.kind.label().to_string())
+                .unwrap_or_default(),
+            c.governing
+                .and_then(|g| prep.demand.combos.get(g.combo))
+                .map(|k| k.name.clone())
+                .unwrap_or_default(),
+        ]);
+    }
+    t
 }
 
 /// How the scan that found a sheet's section read its catalogue: rows
@@ -158,7 +202,7 @@ pub fn build(
             g.combination,
             g.part_shown(sys),
             if r.verdict == Verdict::NotVerified {
-                " Some limit states that apply could not be evaluated (section 7): this is not a pass."
+                " Some limit states that apply could not be evaluated (see \"Not verified\"): this is not a pass."
             } else {
                 ""
             }
@@ -168,14 +212,18 @@ pub fn build(
     let (methods, assumptions) = calc::methods(prep, r);
     Sheet {
         title: format!("Calculation: {}", job.title),
+        project: job.project.clone(),
         member: job.title.clone(),
         section: r.section.clone(),
         section_source: source.to_string(),
         verdict,
         tables,
-        figures: calc::figures(r, sys),
+        figures: std::iter::once(calc::load_figure(job, r, sys))
+            .chain(calc::figures(r, sys))
+            .collect(),
         checks: calc::written_checks(r, sys),
         alternatives,
+        near_misses: None,
         methods,
         assumptions,
         not_verified: r.not_verified.clone(),
@@ -209,9 +257,13 @@ pub fn base64(data: &[u8]) -> String {
     out
 }
 
-/// The sheet as a document, in the order a checker reads it.
+/// The sheet as a document, in the order a checker reads it. The
+/// top-level sections are numbered in the order they appear, so a section
+/// left out (no alternatives, no notes) leaves no gap.
 pub fn document(s: &Sheet) -> Document {
     let mut d = Document::new(s.title.clone());
+    d.blocks
+        .push(Block::TitleBlock(calc::title_block(&s.project)));
     d.blocks.push(Block::Caution(s.caution.to_string()));
     d.blocks.push(Block::Labelled(
         "Section:".into(),
@@ -228,19 +280,26 @@ pub fn document(s: &Sheet) -> Document {
     d.blocks
         .push(Block::Labelled("Result:".into(), s.verdict.clone(), tone));
     d.para(calc::VERDICTS);
-    d.heading("1. Member, loads and combinations");
+    let mut n = 0;
+    let mut heading = |d: &mut Document, title: &str| -> usize {
+        n += 1;
+        d.heading(format!("{n}. {title}"));
+        n
+    };
+    heading(&mut d, "Member, loads and combinations");
+    d.para(calc::SIGNS);
     for t in &s.tables {
         d.table(t.clone());
     }
-    d.heading("2. Diagrams");
+    heading(&mut d, "Diagrams");
     for f in &s.figures {
         d.blocks.push(Block::Figure(f.clone()));
     }
-    d.heading("3. Checks");
+    let k = heading(&mut d, "Checks");
     for (i, c) in s.checks.iter().enumerate() {
         d.blocks.push(Block::Check(
             format!(
-                "3.{} {} — {}, {}",
+                "{k}.{} {} — {}, {}",
                 i + 1,
                 c.check,
                 c.combination,
@@ -249,9 +308,19 @@ pub fn document(s: &Sheet) -> Document {
             c.clone(),
         ));
     }
-    if let Some(t) = &s.alternatives {
-        d.heading("4. Alternatives from the catalogue");
-        d.table(t.clone());
+    if s.alternatives.is_some() || s.near_misses.is_some() {
+        heading(&mut d, "Alternatives from the catalogue");
+        if let Some(t) = &s.alternatives {
+            d.table(t.clone());
+        }
+        match &s.near_misses {
+            Some(t) if !t.rows.is_empty() => d.table(t.clone()),
+            Some(_) => d.para(format!(
+                "Near misses: no section lighter than {} that fails was among the rows the scan kept.",
+                s.section
+            )),
+            None => {}
+        }
     }
     let or_none = |v: &[String], none: &str| -> Vec<String> {
         if v.is_empty() && !none.is_empty() {
@@ -261,25 +330,21 @@ pub fn document(s: &Sheet) -> Document {
         }
     };
     for (title, items, none) in [
-        ("5. Methods and sources", &s.methods, ""),
-        ("6. Assumptions", &s.assumptions, ""),
+        ("Methods and sources", &s.methods, ""),
+        ("Assumptions", &s.assumptions, ""),
         (
-            "7. Not verified",
+            "Not verified",
             &s.not_verified,
             "Every limit state that applies was evaluated.",
         ),
-        (
-            "8. Excluded by the user",
-            &s.excluded,
-            "Nothing was excluded.",
-        ),
-        ("9. Not checked (outside beamsift)", &s.not_checked, ""),
+        ("Excluded by the user", &s.excluded, "Nothing was excluded."),
+        ("Not checked (outside beamsift)", &s.not_checked, ""),
     ] {
-        d.heading(title);
+        heading(&mut d, title);
         d.list("", or_none(items, none));
     }
     if !s.notes.is_empty() {
-        d.heading("Notes");
+        heading(&mut d, "Notes");
         d.list("", s.notes.clone());
     }
     d.blocks.push(Block::Caution(s.caution.to_string()));

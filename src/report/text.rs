@@ -98,6 +98,12 @@ pub fn render(doc: &Document) -> String {
                 out.push_str(&table(t));
                 out.push('\n');
             }
+            Block::TitleBlock(ts) => {
+                for t in ts {
+                    out.push_str(&table(t));
+                    out.push('\n');
+                }
+            }
             Block::Labelled(label, p, _) => {
                 out.push_str(&wrap(&format!("{label} {p}"), ""));
                 out.push('\n');
@@ -113,6 +119,7 @@ pub fn render(doc: &Document) -> String {
             Block::Check(heading, c) => {
                 out.push_str(heading);
                 out.push('\n');
+                out.push_str(&format!("  governing: {}\n", c.governs));
                 out.push_str(&format!("  {}\n", c.formula));
                 for line in &c.substitution {
                     out.push_str(&format!("    {line}\n"));

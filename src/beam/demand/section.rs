@@ -323,4 +323,53 @@ impl Demand {
         }
         (lo, hi)
     }
+
+    /// Which pattern parts are loaded in the pattern that gives the upper
+    /// (`upper`) or lower bound of the envelope of quantity `q` at `x` (mm
+    /// from the left end): the bound at a station is the base plus every
+    /// part of that sign, so the governing pattern loads exactly those
+    /// parts. Where `x` is a node the element whose bound is nearer to
+    /// `target` (the governing value, E·I = 1) is taken, since shear jumps
+    /// there. One entry per part: (index, loaded, no effect here); empty
+    /// without patterns.
+    pub fn loaded_parts(
+        &self,
+        a: &Applied<'_>,
+        q: Quantity,
+        x: f64,
+        upper: bool,
+        target: f64,
+    ) -> Vec<(usize, bool, bool)> {
+        if a.combo.patterns.is_empty() {
+            return Vec::new();
+        }
+        let tol = 1e-6 * self.mesh.x.last().copied().unwrap_or(1.0).abs().max(1.0);
+        let mut best: Option<(f64, usize, f64)> = None;
+        for e in 0..self.len.len() {
+            let x0 = self.mesh.x[e];
+            if x < x0 - tol || x > x0 + self.len[e] + tol {
+                continue;
+            }
+            let s = (x - x0).clamp(0.0, self.len[e]);
+            let (lo, hi) = self.envelope_at(a, q, e, s);
+            let miss = ((if upper { hi } else { lo }) - target).abs();
+            if best.is_none_or(|b| miss < b.0) {
+                best = Some((miss, e, s));
+            }
+        }
+        let Some((_, e, s)) = best else {
+            return Vec::new();
+        };
+        let v: Vec<f64> = (0..a.combo.patterns.len())
+            .map(|j| eval(q, &self.part_coef(a, j, e), s))
+            .collect();
+        // A part whose value here is rounding noise has no effect on it.
+        let tol = 1e-9 * (target.abs() + v.iter().map(|x| x.abs()).sum::<f64>());
+        (0..v.len())
+            .map(|j| {
+                let on = if upper { v[j] > tol } else { v[j] < -tol };
+                (j, on, v[j].abs() <= tol)
+            })
+            .collect()
+    }
 }
