@@ -392,3 +392,101 @@ fn stiffness_takes_its_own_incising_and_temperature_factors() {
     assert!((both.fb_factor() - 0.80 * 0.8).abs() < 1e-15);
     assert!((both.e_factor() - 0.95 * 0.9).abs() < 1e-15);
 }
+
+/// `catalog generate rect --nominal us-lumber`: rows named by nominal size,
+/// written at the dressed size, whose properties match the NDS Supplement
+/// (2018) Table 1B, "Section Properties of Standard Dressed (S4S) Sawn
+/// Lumber" (from memory): 2x10 is 1.5 x 9.25 in, A = 13.88 in², Sxx =
+/// 21.39 in³, Ixx = 98.93 in⁴; 4x12 is 3.5 x 11.25 in, Sxx = 73.83 in³;
+/// 6x10 (a timber) is 5.5 x 9.5 in, Sxx = 82.73 in³. A size outside the
+/// table and the option on another family are refused.
+#[test]
+fn nominal_lumber_sizes_are_generated_dressed() {
+    let dir = tempfile::tempdir().unwrap();
+    let f = dir.path().join("lumber.csv");
+    let bin = env!("CARGO_BIN_EXE_beamsift");
+    let run = |args: &[&str]| std::process::Command::new(bin).args(args).output().unwrap();
+    let o = run(&[
+        "catalog",
+        "generate",
+        "rect",
+        "--nominal",
+        "us-lumber",
+        "--b",
+        "2,4,6in",
+        "--d",
+        "10,12in",
+        "-o",
+        f.to_str().unwrap(),
+    ]);
+    assert!(o.status.success(), "{}", String::from_utf8_lossy(&o.stderr));
+    let csv = std::fs::read_to_string(&f).unwrap();
+    assert!(csv.contains("2x10,rect,,1.5,9.25"), "{csv}");
+    assert!(csv.contains("6x10,rect,,5.5,9.5"), "{csv}");
+    let o = run(&[
+        "catalog",
+        "show",
+        f.to_str().unwrap(),
+        "--units",
+        "us",
+        "--json",
+    ]);
+    let v: serde_json::Value = serde_json::from_slice(&o.stdout)
+        .unwrap_or_else(|e| panic!("{e}: {}", String::from_utf8_lossy(&o.stderr)));
+    let rows = v["rows"].as_array().unwrap_or_else(|| panic!("{v}"));
+    let get = |name: &str| {
+        rows.iter()
+            .find(|r| r["name"] == name)
+            .unwrap_or_else(|| panic!("{name} in {v}"))
+    };
+    let in3 = 25.4f64.powi(3);
+    let in4 = 25.4f64.powi(4);
+    let s = |r: &serde_json::Value| r["properties"]["s_top"].as_f64().unwrap() / in3;
+    let r = get("2x10");
+    common::close(
+        "2x10 A",
+        r["properties"]["area"].as_f64().unwrap() / 645.16,
+        13.88,
+        5e-4,
+    );
+    common::close("2x10 S", s(r), 21.39, 5e-4);
+    common::close(
+        "2x10 I",
+        r["properties"]["ix"].as_f64().unwrap() / in4,
+        98.93,
+        5e-4,
+    );
+    common::close("4x12 S", s(get("4x12")), 73.83, 5e-4);
+    common::close("6x10 S", s(get("6x10")), 82.73, 5e-4);
+
+    let o = run(&[
+        "catalog",
+        "generate",
+        "rect",
+        "--nominal",
+        "us-lumber",
+        "--b",
+        "2.5in",
+        "--d",
+        "4in",
+    ]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&o.stderr).contains("--b"));
+    let o = run(&[
+        "catalog",
+        "generate",
+        "welded-i",
+        "--nominal",
+        "us-lumber",
+        "--bf",
+        "100mm",
+        "--tf",
+        "10mm",
+        "--hw",
+        "300mm",
+        "--tw",
+        "6mm",
+    ]);
+    assert_eq!(o.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&o.stderr).contains("--nominal"));
+}

@@ -34,6 +34,7 @@ pub const GENERATE_EXAMPLES: &str = "Examples:
   beamsift catalog generate welded-i --bf 150..400:10mm --tf 8,10,12,15,20,25mm --hw 300..900:10mm \\
       --tw 6,8,10,12mm --Fy 345MPa --price-per-kg 1.25 -o plates.csv
   beamsift catalog generate rect --b 38,47,63,75mm --d 100..300:25mm --grades T1=650,T2=780 --max-aspect 5 -o timber.csv
+  beamsift catalog generate rect --nominal us-lumber --b 2,3,4in --d 6,8,10,12in --grades No2 -o lumber.csv
 
 Ranges are START..END:STEP with a unit; lists are comma-separated with a unit at the end.
 Rules for welded I: tw <= tf and bf <= hw (common practice), plus the slenderness limits
@@ -68,6 +69,10 @@ pub struct GenerateArgs {
     /// Largest depth/width d/b kept (rect).
     #[arg(long = "max-aspect")]
     pub max_aspect: Option<f64>,
+    /// --b and --d are nominal timber sizes in inches (rect): rows are named
+    /// by them (2x10) and written at their dressed sizes (1.5 x 9.25 in).
+    #[arg(long, value_parser = super::values::nominal())]
+    pub nominal: Option<generate::Nominal>,
     /// Largest flange outstand ratio bf/(2tf) kept (welded-i; default from
     /// --Fy, else no limit).
     #[arg(long = "lambda-f")]
@@ -106,6 +111,7 @@ impl GenerateArgs {
             d: self.d.clone(),
             grades: self.grades.clone(),
             max_aspect: self.max_aspect,
+            nominal: self.nominal,
             lambda_f: self.lambda_f,
             lambda_w: self.lambda_w,
             fy: self.fy.clone(),

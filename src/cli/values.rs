@@ -43,3 +43,6 @@ pub fn family() -> impl TypedValueParser<Value = Family> {
 pub fn objective() -> impl TypedValueParser<Value = Objective> {
     parser(Objective::CHOICES)
 }
+pub fn nominal() -> impl TypedValueParser<Value = beamsift::catalog::generate::Nominal> {
+    parser(beamsift::catalog::generate::Nominal::CHOICES)
+}
