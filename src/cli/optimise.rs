@@ -24,7 +24,8 @@ tw 5–30 mm; mono-i the same for each flange; rhs b 50–400, h 50–600, t 3�
 pub struct Args {
     #[command(flatten)]
     pub job: JobArgs,
-    /// Catalogue CSV file(s) holding the row named by --section.
+    /// Catalogue file(s) holding the row named by --section: CSV, or a
+    /// workbook (FILE#SHEET names a sheet).
     #[arg(long, short = 'c', value_name = "FILE")]
     pub catalog: Vec<std::path::PathBuf>,
     /// Field delimiter of the catalogue: a character, or 'tab'.
