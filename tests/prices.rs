@@ -16,8 +16,8 @@ fn write(dir: &Path, name: &str, body: &str) -> String {
     p.to_str().unwrap().to_string()
 }
 
-/// `select --rank cost --json` with `job` over `cat`: the JSON.
-fn select_json(job: &str, cat: &str) -> Value {
+/// `select --rank RANK --json` with `job` over `cat`: the JSON.
+fn select_json(job: &str, cat: &str, rank: &str) -> Value {
     let o = run(&[
         "select",
         "--job",
@@ -25,7 +25,7 @@ fn select_json(job: &str, cat: &str) -> Value {
         "-c",
         cat,
         "--rank",
-        "cost",
+        rank,
         "--json",
     ]);
     let (out, err) = text(&o);
@@ -61,7 +61,7 @@ fn a_price_per_tonne_becomes_a_cost_per_metre_from_the_mass() {
          name,shape,d [mm],bf [mm],tf [mm],tw [mm],r [mm],mass [kg/m],price [EUR/t]\n\
          X 180,rolled-i,180,120,11.2,6.8,11,30.7,1000\n",
     );
-    let v = select_json("catalogs/demo-job.toml", &cat);
+    let v = select_json("catalogs/demo-job.toml", &cat, "cost");
     let per_m = cost_of(&v, "X 180") * 1000.0;
     assert!((per_m - 30.70).abs() < 1e-9, "{per_m}");
     assert_eq!(v["prices"], "given");
@@ -81,7 +81,7 @@ fn a_price_per_cubic_metre_becomes_a_cost_per_metre_from_the_area() {
          name,grade,shape,b [mm],d [mm],price [EUR/m3]\n\
          G100x300,G1,rect,100,300,2000\n",
     );
-    let v = select_json("catalogs/demo-joists.toml", &cat);
+    let v = select_json("catalogs/demo-joists.toml", &cat, "cost");
     let per_m = cost_of(&v, "G100x300") * 1000.0;
     assert!((per_m - 60.0).abs() < 1e-9, "{per_m}");
     assert_eq!(v["price_basis"], serde_json::json!(["per_volume"]));
@@ -124,10 +124,24 @@ fn no_price_column_says_no_prices() {
          name,grade,shape,b [mm],d [mm]\n\
          G100x300,G1,rect,100,300\n",
     );
-    let v = select_json("catalogs/demo-joists.toml", &cat);
+    let v = select_json("catalogs/demo-joists.toml", &cat, "mass");
     assert_eq!(v["prices"], "none");
     assert!(v["currency"].is_null(), "{}", v["currency"]);
     assert_eq!(cost_of_opt(&v, "G100x300"), None);
+    let o = run(&[
+        "select",
+        "--job",
+        repo("catalogs/demo-joists.toml").to_str().unwrap(),
+        "-c",
+        &cat,
+    ]);
+    let (out, err) = text(&o);
+    assert!(matches!(o.status.code(), Some(0 | 1)), "{err}");
+    assert!(out.contains("no prices"), "{out}");
+    assert!(!out.contains("EUR/m"), "{out}");
+    assert!(!out.contains("cost/m"), "{out}");
+    // Ranking by a cost no row has is refused (exit 2), not done by
+    // something else under a "cheapest first" title.
     let o = run(&[
         "select",
         "--job",
@@ -138,10 +152,9 @@ fn no_price_column_says_no_prices() {
         "cost",
     ]);
     let (out, err) = text(&o);
-    assert!(matches!(o.status.code(), Some(0 | 1)), "{err}");
-    assert!(out.contains("no prices"), "{out}");
-    assert!(!out.contains("EUR/m"), "{out}");
-    assert!(!out.contains("cost/m"), "{out}");
+    assert_eq!(o.status.code(), Some(2), "{out}{err}");
+    assert!(err.contains("--rank cost"), "{err}");
+    assert!(err.contains("no prices"), "{err}");
 }
 
 fn cost_of_opt(v: &Value, name: &str) -> Option<f64> {
