@@ -247,6 +247,10 @@ fn table() -> BTreeMap<&'static str, (Expect, Vec<&'static str>)> {
         &["--stock-lengths", "6m,12m"],
     );
     add("batch --kerf", Refused, &["--kerf", "3mm"]);
+    // The demo steel catalogue has prices: wastage and allowances change
+    // the line costs.
+    add("batch --wastage", Changes, &["--wastage", "5%"]);
+    add("batch --allowance", Changes, &["--allowance", "paint=3%"]);
     // optimise.
     add("optimise --bound", Changes, &["--bound", "tw=8mm..20mm"]);
     add("optimise --max-depth", Changes, &["--max-depth", "450mm"]);

@@ -22,6 +22,7 @@ pub mod generate;
 pub mod input;
 mod material;
 mod number;
+mod prices;
 pub mod read;
 pub mod records;
 mod row;
@@ -30,5 +31,6 @@ mod shape;
 pub mod workbook;
 
 pub use number::number;
-pub use row::{CellError, Materials, Row, RowMaterial, parse_row};
-pub use schema::{Col, Factor, KNOWN, Prop, Schema};
+pub use prices::Prices;
+pub use row::{CellError, Materials, Row, RowMaterial, cost_per_mm, parse_row};
+pub use schema::{Col, Factor, KNOWN, PriceBasis, Prop, Schema};

@@ -4,7 +4,7 @@
 
 use super::number::number;
 use super::records::{self, Record};
-use super::schema::{Col, Factor, Prop, R, R_OUT, Schema};
+use super::schema::{Col, Factor, PriceBasis, Prop, R, R_OUT, Schema};
 use super::{material, shape};
 use crate::check::{Material, TimberFactors};
 use crate::section::{Given, Properties, Shape};
@@ -32,9 +32,27 @@ pub struct Row<'r> {
     /// kg/m.
     pub mass: f64,
     pub material: RowMaterial,
-    /// Cost per mm, in the catalogue's currency.
+    /// Cost per mm, in the catalogue's currency: the price cell turned
+    /// into a cost per length (see [`cost_per_mm`]).
     pub cost: Option<f64>,
     pub stock: Option<bool>,
+}
+
+/// A row's cost per mm from its price cell (already in currency per mm,
+/// per kg or per mm³ by the header's unit): per mass × mass per length
+/// (kg/m ÷ 1000 = kg/mm), per volume × area (mm² × 1 mm = mm³ per mm).
+pub fn cost_per_mm(
+    basis: Option<PriceBasis>,
+    price: Option<f64>,
+    mass: f64,
+    area: f64,
+) -> Option<f64> {
+    let p = price?;
+    Some(match basis.unwrap_or(PriceBasis::PerLength) {
+        PriceBasis::PerLength => p,
+        PriceBasis::PerMass => p * mass / 1000.0,
+        PriceBasis::PerVolume => p * area,
+    })
 }
 
 /// Materials available to rows.
@@ -144,7 +162,9 @@ pub fn parse_row<'r>(
         cells.mass,
         name_col,
     )?;
+    let cost = cost_per_mm(schema.price_basis, cells.cost, mass, props.area);
     Ok(Row {
+        cost,
         name: cells.name,
         series: cells.series,
         grade: cells.grade,
@@ -152,7 +172,6 @@ pub fn parse_row<'r>(
         props,
         mass,
         material,
-        cost: cells.cost,
         stock: cells.stock,
     })
 }
@@ -242,7 +261,7 @@ impl<'r> Cells<'r> {
             factors: TimberFactors::default(),
         };
         for (i, col) in schema.cols.iter().enumerate() {
-            if let Col::Dim(..) | Col::Prop(..) | Col::Cost(_) | Col::Factor(_) = col {
+            if let Col::Dim(..) | Col::Prop(..) | Col::Cost(..) | Col::Factor(_) = col {
                 let bytes = rec.get(i).unwrap_or(b"");
                 if bytes.iter().all(u8::is_ascii_whitespace) {
                     continue;
@@ -299,7 +318,7 @@ impl<'r> Cells<'r> {
                         });
                     }
                 }
-                Col::Dim(..) | Col::Prop(..) | Col::Cost(_) => {}
+                Col::Dim(..) | Col::Prop(..) | Col::Cost(..) => {}
             }
         }
         Ok(cells)
@@ -314,7 +333,7 @@ impl<'r> Cells<'r> {
         v: f64,
         schema: &Schema,
     ) -> std::result::Result<(), CellError> {
-        let zero_ok = matches!(col, Col::Dim(R | R_OUT, _) | Col::Cost(_));
+        let zero_ok = matches!(col, Col::Dim(R | R_OUT, _) | Col::Cost(..));
         if v < 0.0 || (v == 0.0 && !zero_ok) {
             return Err(cell_err(
                 i,
@@ -328,7 +347,7 @@ impl<'r> Cells<'r> {
         let (given, own) = (&mut self.given, &mut self.own);
         match *col {
             Col::Dim(idx, f) => self.dims[idx] = (v * f, true),
-            Col::Cost(f) => self.cost = Some(v * f),
+            Col::Cost(_, f) => self.cost = Some(v * f),
             Col::Prop(p, f) => {
                 let v = v * f;
                 match p {

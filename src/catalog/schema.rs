@@ -18,10 +18,38 @@ pub enum Col {
     Dim(usize, f64),
     /// A property (key, internal units per unit).
     Prop(Prop, f64),
-    /// Cost per length (currency per mm, per unit).
-    Cost(f64),
+    /// A price (currency per internal unit of its basis, per unit of the
+    /// cell): per length (per mm), per mass (per kg) or per volume (per
+    /// mm³). The row turns it into a cost per mm.
+    Cost(PriceBasis, f64),
     /// A dimensionless timber adjustment factor of the row (C_F, C_r, ...).
     Factor(Factor),
+}
+
+/// What a catalogue's price is per: length, mass or volume of the member.
+/// A price per mass is turned into a cost per length with the row's mass
+/// per length (kg/m), a price per volume with its area (A).
+#[derive(Clone, Copy, Debug, PartialEq, Eq, serde::Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum PriceBasis {
+    PerLength,
+    PerMass,
+    PerVolume,
+}
+
+impl PriceBasis {
+    /// As a phrase: "per length", "per mass", "per volume".
+    pub fn phrase(self) -> &'static str {
+        match self {
+            PriceBasis::PerLength => "per length",
+            PriceBasis::PerMass => {
+                "per mass (converted to cost per length with each row's mass per length)"
+            }
+            PriceBasis::PerVolume => {
+                "per volume (converted to cost per length with each row's area A)"
+            }
+        }
+    }
 }
 
 /// Timber adjustment factors a row may give (no unit).
@@ -104,7 +132,7 @@ pub(super) const BF_BOT: usize = 12;
 pub(super) const TF_BOT: usize = 13;
 
 /// Known column names, for error messages.
-pub const KNOWN: &str = "name, shape, series, grade, stock, cost [CUR/m], dimensions (d, b, h, bf, tf, tw, hw, r, t, r_out, bf_top, tf_top, bf_bot, tf_bot), \
+pub const KNOWN: &str = "name, shape, series, grade, stock, one price column (cost or price [CUR/m], [CUR/t] or [CUR/m3]), dimensions (d, b, h, bf, tf, tw, hw, r, t, r_out, bf_top, tf_top, bf_bot, tf_bot), \
 A, Ix, Iy, J, Cw, S (or S_top, S_bot), Zx, c_top, c_bot, Q, mass, E, Fb, Fbt, Fbc, Fv, Fy, density, Emin, \
 timber adjustment factors without unit (CD, CM_Fb, CM_Fv, CM_E, Ct, Ci, Ct_E, Ci_E, CF, Cr, Cfu); columns named note... are ignored";
 
@@ -115,6 +143,8 @@ pub struct Schema {
     pub headers: Vec<String>,
     /// Currency named in a cost header (`cost [EUR/m]`).
     pub currency: Option<String>,
+    /// What the price column's prices are per (none without one).
+    pub price_basis: Option<PriceBasis>,
     pub(super) name: Option<usize>,
     pub(super) shape: Option<usize>,
 }
@@ -157,10 +187,14 @@ fn prop_of(key: &str) -> Option<(Prop, Dim)> {
     })
 }
 
-/// Parse a cost unit: `EUR/m`, `$/ft`, `per m`, `/m`.
-fn cost_unit(unit: &str) -> Result<(Option<String>, f64)> {
+/// Parse a price unit, `CURRENCY/UNIT` (or `per UNIT`, `/UNIT`): the
+/// unit is a length (`EUR/m`, `USD/ft`), a mass (`EUR/t`, `EUR/kg`,
+/// `USD/lb`) or a volume (`EUR/m3`, `USD/ft3`). Returns the currency, the
+/// basis and the factor from the cell's figure to currency per mm, per kg
+/// or per mm³.
+fn cost_unit(unit: &str) -> Result<(Option<String>, PriceBasis, f64)> {
     let u = unit.trim();
-    let (cur, len) = if let Some(rest) = u.strip_prefix("per ") {
+    let (cur, per) = if let Some(rest) = u.strip_prefix("per ") {
         (None, rest)
     } else if let Some((c, l)) = u.rsplit_once('/') {
         let c = c.trim();
@@ -174,11 +208,35 @@ fn cost_unit(unit: &str) -> Result<(Option<String>, f64)> {
         )
     } else {
         return Err(Error::msg(format!(
-            "cost unit '{u}' is not of the form CURRENCY/LENGTH, e.g. cost [EUR/m] or cost [USD/ft]"
+            "price unit '{u}' is not of the form CURRENCY/UNIT, e.g. cost [EUR/m], price [EUR/t] or price [EUR/m3]"
         )));
     };
-    let mm = units::unit_factor(len, Dim::Length)?;
-    Ok((cur, 1.0 / mm))
+    let key = per.trim().to_ascii_lowercase().replace('³', "3");
+    // Per mass: currency per kg of the cell's figure.
+    let per_kg = match key.as_str() {
+        "t" | "tonne" | "tonnes" => Some(1.0 / 1000.0),
+        "kg" => Some(1.0),
+        "lb" | "lbs" => Some(1.0 / units::KG_PER_LB),
+        _ => None,
+    };
+    if let Some(f) = per_kg {
+        return Ok((cur, PriceBasis::PerMass, f));
+    }
+    // Per volume: currency per mm³.
+    let per_mm3 = match key.as_str() {
+        "m3" => Some(1e-9),
+        "ft3" => Some(1.0 / (units::MM_PER_FT * units::MM_PER_FT * units::MM_PER_FT)),
+        _ => None,
+    };
+    if let Some(f) = per_mm3 {
+        return Ok((cur, PriceBasis::PerVolume, f));
+    }
+    match units::unit_factor(per, Dim::Length) {
+        Ok(mm) => Ok((cur, PriceBasis::PerLength, 1.0 / mm)),
+        Err(_) => Err(Error::msg(format!(
+            "price unit '{u}': expected a price per length (m, ft, ...), per mass (t, kg, lb) or per volume (m3, ft3) after the '/'"
+        ))),
+    }
 }
 
 impl Schema {
@@ -192,10 +250,11 @@ impl Schema {
         let mut cols = Vec::new();
         let mut errors = Vec::new();
         let mut currency = None;
+        let mut price_basis = None;
         let mut seen: HashSet<String> = HashSet::new();
         for (i, h) in headers.iter().enumerate() {
             let at = loc.clone().with_column(i as u64 + 1).with_field(h.clone());
-            match column(h, &at, &mut seen, &mut currency) {
+            match column(h, &at, &mut seen, &mut currency, &mut price_basis) {
                 Ok(c) => cols.push(c),
                 Err(e) => {
                     errors.push(e);
@@ -226,6 +285,7 @@ impl Schema {
             cols,
             headers: headers.to_vec(),
             currency,
+            price_basis,
             name,
             shape,
         })
@@ -233,13 +293,14 @@ impl Schema {
 }
 
 /// What one header names (`at` is its place), or the problem with it. A
-/// column seen before is refused (notes excepted); a cost header sets the
-/// catalogue's currency.
+/// column seen before is refused (notes excepted); a price header sets the
+/// catalogue's currency and price basis, and a second one is refused.
 fn column(
     h: &str,
     at: &Location,
     seen: &mut HashSet<String>,
     currency: &mut Option<String>,
+    price_basis: &mut Option<PriceBasis>,
 ) -> Result<Col> {
     let (name, unit) = split_header(h);
     let key = name.to_ascii_lowercase().replace([' ', '-'], "_");
@@ -263,14 +324,18 @@ fn column(
         "grade" => Ok(Col::Grade),
         "stock" | "in_stock" => Ok(Col::Stock),
         k if k.starts_with("note") => Ok(Col::Note),
+        "cost" | "price" if price_basis.is_some() => Err(Error::msg(format!(
+            "column '{name}' is a second price column: a catalogue has one price column (per length, per mass or per volume); keep one"
+        ))),
         "cost" | "price" => match &unit {
-            Some(u) => cost_unit(u).map(|(c, f)| {
+            Some(u) => cost_unit(u).map(|(c, b, f)| {
                 *currency = c;
-                Col::Cost(f)
+                *price_basis = Some(b);
+                Col::Cost(b, f)
             }),
-            None => Err(Error::msg(
-                "column 'cost' needs its unit in brackets, e.g. cost [EUR/m]",
-            )),
+            None => Err(Error::msg(format!(
+                "column '{name}' needs its unit in brackets, e.g. {name} [EUR/m], {name} [EUR/t] or {name} [EUR/m3]"
+            ))),
         },
         k if factor_of(k).is_some() => match unit.as_deref() {
             None | Some("-") | Some("") => Ok(Col::Factor(factor_of(k).unwrap_or(Factor::Cd))),

@@ -4,7 +4,7 @@
 use super::catargs::CatalogArgs;
 use super::output::emit;
 use super::{EXIT_FAILS, Out};
-use beamsift::catalog::Materials;
+use beamsift::catalog::{Materials, Prices, Schema};
 use beamsift::error::{Error, Result};
 use beamsift::job;
 use beamsift::report::{
@@ -12,7 +12,6 @@ use beamsift::report::{
     batch::{BatchView, document},
 };
 use beamsift::search::{self, batch};
-use beamsift::units::{self, Dim};
 use serde::Serialize;
 use std::path::PathBuf;
 
@@ -46,6 +45,14 @@ pub struct Args {
     /// Saw kerf per piece when cutting from stock bars [default: 0 mm].
     #[arg(long, value_name = "LENGTH", requires = "stock_lengths")]
     pub kerf: Option<String>,
+    /// Wastage on the cost of every mark, e.g. `5%` (needs prices).
+    #[arg(long, value_name = "PERCENT")]
+    pub wastage: Option<String>,
+    /// An allowance on the cost, NAME=PERCENT, e.g. `connections=8%`;
+    /// repeat for more (needs prices). Line cost = count × length × cost
+    /// per length × (1 + wastage) × (1 + sum of allowances).
+    #[arg(long, value_name = "NAME=PERCENT")]
+    pub allowance: Vec<String>,
     /// Deflection limit under variable load, for members without a service
     /// preset (refused when the template has one) [default: L/360].
     #[arg(long = "limit-live")]
@@ -59,7 +66,8 @@ pub struct Args {
 struct BatchResult {
     #[serde(flatten)]
     schedule: batch::Schedule,
-    currency: String,
+    #[serde(flatten)]
+    prices: Prices,
     caution: &'static str,
 }
 
@@ -88,50 +96,29 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         .map_err(|e| e.in_field("--limit-live"))?;
     let n_total = job::parse_ratio(a.limit_total.as_deref().unwrap_or("L/240"))
         .map_err(|e| e.in_field("--limit-total"))?;
-    let stock = a
-        .stock_lengths
-        .as_deref()
-        .map(|t| {
-            let v = units::parse_list(t, Dim::Length, "--stock-lengths")?;
-            if v.iter().any(|&x| !(x > 0.0 && x.is_finite())) {
-                return Err(Error::msg(format!(
-                    "--stock-lengths: every stock length must be positive (got {t})"
-                )));
-            }
-            Ok(v)
-        })
-        .transpose()?;
-    let kerf = units::parse_field(a.kerf.as_deref(), Dim::Length, "--kerf")?.unwrap_or(0.0);
-    if !(0.0..=50.0).contains(&kerf) {
-        return Err(Error::msg(format!(
-            "--kerf: expected a saw kerf from 0 to 50 mm, got {}",
-            a.kerf.as_deref().unwrap_or("")
-        )));
-    }
+    let opts = batch::Options::parse(&batch::Typed {
+        by_cost: a.objective == "cost",
+        max_sizes: a.max_sizes,
+        stock_lengths: a.stock_lengths.as_deref(),
+        kerf: a.kerf.as_deref(),
+        wastage: a.wastage.as_deref(),
+        allowances: &a.allowance,
+    })?;
     // A workbook's sheet is read as the same text (see Input).
     let sched = beamsift::catalog::input::Input::new(&a.schedule)?;
     let members =
         batch::read_schedule_at(sched.reader()?, &sched.at(), &template, n_live, n_total)?;
     a.cat.setup_threads()?;
     let (cats, _) = a.cat.open()?;
-    let currencies: Vec<String> = cats
-        .iter()
-        .filter_map(|c| c.schema.currency.clone())
-        .collect();
-    let cur = template.currency_or(&currencies);
+    let schemas: Vec<&Schema> = cats.iter().map(|c| &c.schema).collect();
+    let header_prices = Prices::of(template.currency.as_deref(), &schemas, None);
+    drop(schemas);
     let mats = Materials::of(&template);
     let filters = a.cat.filters_for(&template)?;
     let (rows, counts, _skipped) = search::load_rows(cats, &mats, a.cat.skip_bad_rows, &filters)?;
-    let by_cost = a.objective == "cost";
-    if by_cost && rows.iter().all(|r| r.cost.is_none()) {
-        return Err(Error::msg(
-            "--objective cost: the catalogue has no prices (no cost column, or every cost cell empty): add a cost column, or use --objective mass",
-        ));
-    }
-    let mut schedule = batch::schedule(&members, &rows, &mats, &filters, by_cost, a.max_sizes)?;
-    if let Some(stock) = &stock {
-        schedule.cutting = Some(batch::cut_schedule(&schedule, stock, kerf));
-    }
+    let prices = batch::prices(header_prices, &rows);
+    opts.check_prices(&prices)?;
+    let schedule = batch::schedule(&members, &rows, &mats, &filters, &opts)?;
     let view = BatchView {
         sys,
         schedule: &sched.shown,
@@ -140,9 +127,9 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         rows: rows.len(),
         counts: &counts,
         skip_bad_rows: a.cat.skip_bad_rows,
-        by_cost,
+        by_cost: opts.by_cost,
         rationalising: a.max_sizes.is_some(),
-        currency: &cur,
+        prices: &prices,
         excluded: template.criteria.exclude.list(),
     };
     let doc = document(&schedule, &view);
@@ -157,7 +144,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     };
     let result = BatchResult {
         schedule,
-        currency: cur,
+        prices,
         caution: report::CAUTION,
     };
     emit(out, &report::render(out.format, &result, &doc))?;

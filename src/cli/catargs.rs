@@ -1,6 +1,7 @@
 //! Catalogue options shared by select, shortlist and batch.
 
 use super::progress;
+use beamsift::catalog::Prices;
 use beamsift::catalog::read::{Catalog, ReadOptions};
 use beamsift::check::Prepared;
 use beamsift::error::{Error, Result};
@@ -130,13 +131,12 @@ pub fn run_scan(
     prep: &Prepared,
     cat: &CatalogArgs,
     opts: &ScanOptions,
-) -> Result<(Selection, String)> {
+) -> Result<(Selection, Prices)> {
     cat.setup_threads()?;
     let (cats, bytes) = cat.open()?;
-    let currencies: Vec<String> = cats
-        .iter()
-        .filter_map(|c| c.schema.currency.clone())
-        .collect();
+    let schemas: Vec<&beamsift::catalog::Schema> = cats.iter().map(|c| &c.schema).collect();
+    let prices = Prices::of(job.currency.as_deref(), &schemas, None);
+    drop(schemas);
     let mats = beamsift::catalog::Materials::of(job);
     drop(cats);
     let pb = progress::bytes_bar(bytes, cat.quiet);
@@ -144,7 +144,7 @@ pub fn run_scan(
     let open = || cat.open().map(|(c, _)| c);
     let sel = search::scan_checked(prep, &open, &mats, opts, &|_, b| pb.set_position(b))?;
     pb.finish_and_clear();
-    Ok((sel, job.currency_or(&currencies)))
+    Ok((sel, prices))
 }
 
 impl CatalogArgs {

@@ -79,6 +79,9 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         ..ScanOptions::default()
     };
     let (sel, cur) = run_scan(&job, &prep, &a.cat, &opts)?;
+    if a.rank == Rank::Cost {
+        cur.require("--rank cost", "rank by mass, depth or utilisation")?;
+    }
     let sys = out.units;
     let result = SelectResult::new(&job, &prep, &sel, a.rank, cur, sys);
     let sheet_line = match &a.report {

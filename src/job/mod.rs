@@ -86,15 +86,6 @@ impl Job {
     pub fn prepare(&self) -> Result<crate::check::Prepared> {
         crate::check::Prepared::new(&self.beam, self.material.clone(), self.criteria.clone())
     }
-
-    /// The currency to print: the job's, else the first catalogue's
-    /// (`cats`), else "cost".
-    pub fn currency_or(&self, cats: &[String]) -> String {
-        self.currency
-            .clone()
-            .or_else(|| cats.first().cloned())
-            .unwrap_or_else(|| "cost".into())
-    }
 }
 
 /// Read a text file (a job file), reporting invalid UTF-8 as bad input at

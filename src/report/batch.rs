@@ -3,8 +3,9 @@
 
 use super::select::{Legend, finish_doc};
 use super::{Align, Document, Table};
+use crate::catalog::Prices;
 use crate::search::Counts;
-use crate::search::batch::{BoqLine, Cutting, Schedule};
+use crate::search::batch::{BoqLine, Costs, Cutting, Schedule};
 use crate::units::{self, Show, System};
 
 /// How a schedule is shown.
@@ -18,11 +19,11 @@ pub struct BatchView<'a> {
     pub skip_bad_rows: bool,
     pub by_cost: bool,
     pub rationalising: bool,
-    pub currency: &'a str,
+    pub prices: &'a Prices,
     pub excluded: Vec<String>,
 }
 
-pub fn bill_table(title: &str, bill: &[BoqLine], sys: System, cur: &str) -> Table {
+pub fn bill_table(title: &str, bill: &[BoqLine], sys: System, cur: &Prices) -> Table {
     let w = if sys == System::Si { "kg" } else { "lb" };
     let wf = if sys == System::Si {
         1.0
@@ -39,7 +40,7 @@ pub fn bill_table(title: &str, bill: &[BoqLine], sys: System, cur: &str) -> Tabl
                 Align::Right,
             ),
             (&format!("Total mass [{w}]"), Align::Right),
-            (&format!("Total cost [{cur}]"), Align::Right),
+            (&format!("Net cost [{}]", cur.label()), Align::Right),
             ("Marks", Align::Left),
         ],
     );
@@ -51,7 +52,7 @@ pub fn bill_table(title: &str, bill: &[BoqLine], sys: System, cur: &str) -> Tabl
             format!("{:.0}", l.total_mass * wf),
             l.total_cost
                 .map(|c| format!("{c:.2}"))
-                .unwrap_or_else(|| "—".into()),
+                .unwrap_or_else(|| cur.missing().into()),
             l.marks.join(", "),
         ]);
     }
@@ -61,7 +62,8 @@ pub fn bill_table(title: &str, bill: &[BoqLine], sys: System, cur: &str) -> Tabl
         bill.iter().map(|l| l.pieces).sum::<u32>().to_string(),
         Show::Span.num(bill.iter().map(|l| l.total_length).sum(), sys),
         format!("{:.0}", m * wf),
-        c.map(|c| format!("{c:.2}")).unwrap_or_else(|| "—".into()),
+        c.map(|c| format!("{c:.2}"))
+            .unwrap_or_else(|| cur.missing().into()),
         String::new(),
     ]);
     t
@@ -138,7 +140,7 @@ pub fn document(s: &Schedule, v: &BatchView<'_>) -> Document {
             m.result.not_verified_reasons.clone(),
         );
     }
-    doc.table(bill_table("Bill of quantities", &s.bill, sys, v.currency));
+    doc.table(bill_table("Bill of quantities", &s.bill, sys, v.prices));
     if let Some(r) = &s.rationalised {
         doc.heading(format!(
             "Rationalised to at most {} section size(s) (least total {})",
@@ -153,7 +155,7 @@ pub fn document(s: &Schedule, v: &BatchView<'_>) -> Document {
             "Bill of quantities, rationalised",
             &r.bill,
             sys,
-            v.currency,
+            v.prices,
         ));
         doc.para(if r.plan.exact {
             format!(
@@ -171,6 +173,14 @@ pub fn document(s: &Schedule, v: &BatchView<'_>) -> Document {
     if let Some(c) = &s.cutting {
         cutting(&mut doc, c, sys);
     }
+    match &s.costs {
+        Some(c) => costs(&mut doc, c, sys, v.prices),
+        None => {
+            if let Some(n) = v.prices.note() {
+                doc.para(n);
+            }
+        }
+    }
     if !s.not_sized.is_empty() {
         doc.para(format!(
             "No section in the catalogue passes: {}. Check these members with `beamsift select` to see the nearest misses{}.",
@@ -180,6 +190,76 @@ pub fn document(s: &Schedule, v: &BatchView<'_>) -> Document {
     }
     finish_doc(&mut doc, &v.excluded, &s.assumptions, &s.notes, legend);
     doc
+}
+
+/// The cost of each mark with the wastage and allowances, the formula
+/// and the totals.
+fn costs(doc: &mut Document, c: &Costs, sys: System, prices: &Prices) {
+    let cur = prices.label();
+    let span = Show::Span.label(sys);
+    let mut t = Table::new(
+        format!(
+            "Costs per mark{}",
+            if c.rationalised {
+                " (rationalised sections)"
+            } else {
+                ""
+            }
+        ),
+        &[
+            ("Mark", Align::Left),
+            ("Section", Align::Left),
+            ("Count", Align::Right),
+            (&format!("Length [{span}]"), Align::Right),
+            (&format!("Unit cost [{}]", prices.per(span)), Align::Right),
+            (&format!("Net cost [{cur}]"), Align::Right),
+            (&format!("Line cost [{cur}]"), Align::Right),
+        ],
+    );
+    let money = |v: Option<f64>| v.map(|x| format!("{x:.2}")).unwrap_or_else(|| "—".into());
+    for m in &c.marks {
+        t.row(vec![
+            m.mark.clone(),
+            m.section.clone(),
+            m.count.to_string(),
+            Show::Span.num(m.length, sys),
+            m.unit_cost
+                .map(|u| format!("{:.2}", super::select::per_len(u, sys)))
+                .unwrap_or_else(|| "—".into()),
+            money(m.net_cost),
+            money(m.line_cost),
+        ]);
+    }
+    t.row(vec![
+        "Total".into(),
+        String::new(),
+        c.marks.iter().map(|m| m.count).sum::<u32>().to_string(),
+        String::new(),
+        String::new(),
+        money(c.net_total),
+        money(c.total),
+    ]);
+    doc.table(t);
+    let mut allow: Vec<String> = c
+        .allowances
+        .iter()
+        .map(|a| format!("{} {} %", a.name, units::fmt_num(a.percent)))
+        .collect();
+    if allow.is_empty() {
+        allow.push("none".into());
+    }
+    let mut p = format!(
+        "{} (wastage {} %; allowances: {}; factor {:.4}). Masses in the bill are net, without wastage.",
+        c.formula,
+        units::fmt_num(c.wastage),
+        allow.join(", "),
+        c.factor
+    );
+    if let Some(n) = prices.note() {
+        p.push(' ');
+        p.push_str(&n);
+    }
+    doc.para(p);
 }
 
 /// The bars bought per section, their offcuts and waste, and the members

@@ -3,6 +3,7 @@
 //! checking happens here.
 
 use super::{Align, CAUTION, Document, Table, member};
+use crate::catalog::Prices;
 use crate::check::{Prepared, Verdict};
 use crate::job::Job;
 use crate::search::{self, Candidate, Rank, Selection};
@@ -35,7 +36,9 @@ pub struct SelectResult<'a> {
     pub not_verified: Vec<RankedRow>,
     pub counts: &'a search::Counts,
     pub skipped_rows: &'a [String],
-    pub currency: String,
+    /// The prices (`"prices": "none"` without any; the currency or null).
+    #[serde(flatten)]
+    pub prices: Prices,
     pub excluded: Vec<String>,
     pub assumptions: Vec<String>,
     pub notes: Vec<String>,
@@ -137,7 +140,7 @@ pub fn per_len(cost_per_mm: f64, sys: System) -> f64 {
     cost_per_mm * Show::Span.unit(sys).1
 }
 
-fn headers(sys: System, cur: &str) -> Vec<(String, Align)> {
+fn headers(sys: System, cur: &Prices) -> Vec<(String, Align)> {
     vec![
         ("#".into(), Align::Right),
         ("Section".into(), Align::Left),
@@ -151,7 +154,7 @@ fn headers(sys: System, cur: &str) -> Vec<(String, Align)> {
         ("Combination".into(), Align::Left),
         ("Where".into(), Align::Left),
         (
-            format!("Cost [{cur}/{}]", Show::Span.label(sys)),
+            format!("Cost [{}]", cur.per(Show::Span.label(sys))),
             Align::Right,
         ),
         ("Mass–depth front".into(), Align::Left),
@@ -159,7 +162,7 @@ fn headers(sys: System, cur: &str) -> Vec<(String, Align)> {
     ]
 }
 
-fn table(title: &str, rows: &[RankedRow], sys: System, cur: &str, legend: &mut Legend) -> Table {
+fn table(title: &str, rows: &[RankedRow], sys: System, cur: &Prices, legend: &mut Legend) -> Table {
     let hs = headers(sys, cur);
     let refs: Vec<(&str, Align)> = hs.iter().map(|(h, a)| (h.as_str(), *a)).collect();
     let mut t = Table::new(title, &refs);
@@ -247,7 +250,8 @@ pub struct ShortlistResult {
     pub count: u32,
     /// mm per piece.
     pub length: f64,
-    pub currency: String,
+    #[serde(flatten)]
+    pub prices: Prices,
     pub by_cost: Vec<PricedRow>,
     pub by_mass: Vec<PricedRow>,
     pub counts: search::Counts,
@@ -264,7 +268,7 @@ impl<'a> SelectResult<'a> {
         prep: &Prepared,
         sel: &'a Selection,
         rank: Rank,
-        currency: String,
+        prices: Prices,
         sys: System,
     ) -> SelectResult<'a> {
         SelectResult {
@@ -276,7 +280,7 @@ impl<'a> SelectResult<'a> {
             not_verified: ranked(prep, sel, &sel.unverified.items, sys),
             counts: &sel.counts,
             skipped_rows: &sel.skipped,
-            currency,
+            prices,
             excluded: prep.criteria.exclude.list(),
             assumptions: prep.assumptions(),
             notes: job.notes.clone(),
@@ -304,7 +308,7 @@ pub struct SelectView<'a> {
 
 /// The document of a selection.
 pub fn select_document(result: &SelectResult<'_>, v: &SelectView<'_>) -> Document {
-    let (sys, cur, job, sel) = (v.sys, &result.currency, v.job, v.selection);
+    let (sys, cur, job, sel) = (v.sys, &result.prices, v.job, v.selection);
     let mut legend = Legend::default();
     let mut doc = Document::new(format!("Selection for {}", job.title));
     for t in member::job_tables(job, sys) {
@@ -412,7 +416,7 @@ impl ShortlistResult {
         sel: &Selection,
         count: u32,
         length: f64,
-        currency: String,
+        prices: Prices,
         sys: System,
     ) -> ShortlistResult {
         let total_len = length * count as f64;
@@ -431,7 +435,7 @@ impl ShortlistResult {
             title: job.title.clone(),
             count,
             length,
-            currency,
+            prices,
             by_cost: priced(&sel.lists[0].items),
             by_mass: priced(&sel.lists[1].items),
             counts: sel.counts.clone(),
@@ -451,7 +455,7 @@ pub fn shortlist_document(
     sys: System,
     skip_bad_rows: bool,
 ) -> Document {
-    let cur = &result.currency;
+    let cur = &result.prices;
     let total_len = result.length * result.count as f64;
     let mut doc = Document::new(format!("Shortlist for {}", result.title));
     doc.para(format!(
@@ -485,11 +489,11 @@ pub fn shortlist_document(
                 ("Utilisation", Align::Right),
                 ("Governed by", Align::Left),
                 (
-                    &format!("Unit cost [{cur}/{}]", Show::Span.label(sys)),
+                    &format!("Unit cost [{}]", cur.per(Show::Span.label(sys))),
                     Align::Right,
                 ),
                 (&format!("Total mass [{w}]"), Align::Right),
-                (&format!("Total cost [{cur}]"), Align::Right),
+                (&format!("Total cost [{}]", cur.label()), Align::Right),
                 ("Mass–depth front", Align::Left),
                 ("Not checked", Align::Left),
             ],

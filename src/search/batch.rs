@@ -7,8 +7,10 @@ use super::rationalise::{Plan, rationalise};
 pub use super::schedule::{Member, read_schedule, read_schedule_at};
 use super::{Candidate, Filters};
 use crate::catalog::Materials;
+use crate::catalog::Prices;
 use crate::check::{Prepared, SectionInput};
-use crate::error::Result;
+use crate::error::{Error, Result};
+use crate::units::{self, Dim};
 use rayon::prelude::*;
 use serde::Serialize;
 
@@ -71,6 +73,12 @@ pub fn size(
         .map(|m| {
             let prep = Prepared::new(&m.job.beam, m.job.material.clone(), m.job.criteria.clone())
                 .map_err(|e| e.in_field(&format!("member {}", m.mark)))?;
+            // The member's material (its schedule grade, else the
+            // template's) for rows that name no grade of their own.
+            let mats = &Materials {
+                base: &m.job.material,
+                grades: mats.grades,
+            };
             let mut passing = Vec::new();
             let mut utils = Vec::new();
             let mut best: Option<(usize, crate::check::Summary)> = None;
@@ -205,6 +213,8 @@ pub struct MemberOut {
     pub section: Option<String>,
     /// kg/m.
     pub mass: Option<f64>,
+    /// Currency per mm (the row's price turned into a cost per length).
+    pub cost: Option<f64>,
 }
 
 /// The schedule limited to k section sizes.
@@ -235,6 +245,9 @@ pub struct Schedule {
     /// The members cut from stock bars, per section (with `--stock-lengths`).
     #[serde(skip_serializing_if = "Option::is_none")]
     pub cutting: Option<Cutting>,
+    /// The cost of each mark with the wastage and allowances (none when
+    /// no row has a price).
+    pub costs: Option<Costs>,
     /// Marks no catalogue row passes.
     pub not_sized: Vec<String>,
     /// Each distinct assumption once, prefixed with the marks it concerns
@@ -279,9 +292,28 @@ fn grouped(results: &[MemberResult], pick: &dyn Fn(&MemberResult) -> &Vec<String
 }
 
 /// Size a schedule: every member against the rows, the bill and its
-/// totals, and with `max_sizes` the rationalisation to at most k sections
-/// (only when every member is sized).
+/// totals, with `max_sizes` the rationalisation to at most k sections
+/// (only when every member is sized), the cutting from stock bars and the
+/// cost of each mark (when the rows have prices).
 pub fn schedule(
+    members: &[Member],
+    rows: &[Candidate],
+    mats: &Materials<'_>,
+    filters: &Filters,
+    opts: &Options,
+) -> Result<Schedule> {
+    let mut s = sized(members, rows, mats, filters, opts.by_cost, opts.max_sizes)?;
+    if let Some(stock) = &opts.stock_lengths {
+        s.cutting = Some(cut_schedule(&s, stock, opts.kerf));
+    }
+    if rows.iter().any(|r| r.cost.is_some()) {
+        s.costs = Some(costs(&s, opts));
+    }
+    Ok(s)
+}
+
+/// The sizing, the bill and the rationalisation of [`schedule`].
+fn sized(
     members: &[Member],
     rows: &[Candidate],
     mats: &Materials<'_>,
@@ -329,6 +361,7 @@ pub fn schedule(
             .map(|r| MemberOut {
                 section: r.chosen.map(|j| rows[j].name.clone()),
                 mass: r.chosen.map(|j| rows[j].mass),
+                cost: r.chosen.and_then(|j| rows[j].cost),
                 result: r.clone(),
             })
             .collect(),
@@ -337,6 +370,7 @@ pub fn schedule(
         total_cost,
         rationalised,
         cutting: None,
+        costs: None,
         not_sized,
         assumptions,
         notes,
@@ -418,5 +452,240 @@ pub fn cut_schedule(s: &Schedule, stock: &[f64], kerf: f64) -> Cutting {
         kerf,
         rationalised: s.rationalised.is_some(),
         sections,
+    }
+}
+
+/// A named allowance on the cost (connections, paint, ...), in per cent.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct Allowance {
+    pub name: String,
+    pub percent: f64,
+}
+
+/// The options of a schedule run, checked (see [`Options::parse`]).
+#[derive(Clone, Debug, Default, PartialEq)]
+pub struct Options {
+    /// Choose (and rationalise) by least cost rather than least mass.
+    pub by_cost: bool,
+    /// At most this many distinct sections.
+    pub max_sizes: Option<usize>,
+    /// Stock bar lengths, mm.
+    pub stock_lengths: Option<Vec<f64>>,
+    /// Saw kerf per piece, mm.
+    pub kerf: f64,
+    /// Wastage on the cost, per cent (none when not asked for).
+    pub wastage: Option<f64>,
+    /// Allowances on the cost, each in per cent.
+    pub allowances: Vec<Allowance>,
+}
+
+/// The options of a schedule run as typed.
+#[derive(Clone, Copy, Debug, Default)]
+pub struct Typed<'a> {
+    pub by_cost: bool,
+    pub max_sizes: Option<usize>,
+    pub stock_lengths: Option<&'a str>,
+    pub kerf: Option<&'a str>,
+    pub wastage: Option<&'a str>,
+    pub allowances: &'a [String],
+}
+
+/// A percentage as typed: `5%`, `5 %` or `5`, from 0 to 100.
+pub fn parse_percent(text: &str, field: &str) -> Result<f64> {
+    let t = text.trim();
+    let t = t.strip_suffix('%').unwrap_or(t).trim();
+    let v = units::parse_number(t).map_err(|e| e.in_field(field))?;
+    if !(0.0..=100.0).contains(&v) {
+        return Err(Error::msg(format!(
+            "{field}: expected a percentage from 0 to 100 %, got {text}"
+        )));
+    }
+    Ok(v)
+}
+
+impl Options {
+    /// Check the options as typed: stock lengths positive, a kerf from 0
+    /// to 50 mm, percentages from 0 to 100, allowances `NAME=PERCENT` with
+    /// distinct names.
+    pub fn parse(t: &Typed<'_>) -> Result<Options> {
+        let stock_lengths = t
+            .stock_lengths
+            .map(|s| {
+                let v = units::parse_list(s, Dim::Length, "--stock-lengths")?;
+                if v.iter().any(|&x| !(x > 0.0 && x.is_finite())) {
+                    return Err(Error::msg(format!(
+                        "--stock-lengths: every stock length must be positive (got {s})"
+                    )));
+                }
+                Ok(v)
+            })
+            .transpose()?;
+        if t.kerf.is_some() && stock_lengths.is_none() {
+            return Err(Error::msg(
+                "--kerf applies only with --stock-lengths: give the stock lengths, or leave out --kerf",
+            ));
+        }
+        let kerf = units::parse_field(t.kerf, Dim::Length, "--kerf")?.unwrap_or(0.0);
+        if !(0.0..=50.0).contains(&kerf) {
+            return Err(Error::msg(format!(
+                "--kerf: expected a saw kerf from 0 to 50 mm, got {}",
+                t.kerf.unwrap_or("")
+            )));
+        }
+        let wastage = t
+            .wastage
+            .map(|w| parse_percent(w, "--wastage"))
+            .transpose()?;
+        let mut allowances: Vec<Allowance> = Vec::new();
+        for a in t.allowances {
+            let Some((name, pct)) = a.split_once('=') else {
+                return Err(Error::msg(format!(
+                    "--allowance: expected NAME=PERCENT, e.g. connections=8%, got '{a}'"
+                )));
+            };
+            let name = name.trim();
+            if name.is_empty() {
+                return Err(Error::msg(format!(
+                    "--allowance: '{a}' has no name before '=': expected NAME=PERCENT, e.g. paint=3%"
+                )));
+            }
+            if allowances.iter().any(|x| x.name == name) {
+                return Err(Error::msg(format!("--allowance: '{name}' is given twice")));
+            }
+            allowances.push(Allowance {
+                name: name.to_string(),
+                percent: parse_percent(pct, &format!("--allowance {name}"))?,
+            });
+        }
+        Ok(Options {
+            by_cost: t.by_cost,
+            max_sizes: t.max_sizes,
+            stock_lengths,
+            kerf,
+            wastage,
+            allowances,
+        })
+    }
+
+    /// Refuse the options that need prices when the rows have none
+    /// (`--objective cost`, `--wastage`, `--allowance`).
+    pub fn check_prices(&self, prices: &Prices) -> Result<()> {
+        if self.by_cost {
+            prices.require("--objective cost", "use --objective mass")?;
+        }
+        if self.wastage.is_some() {
+            prices.require(
+                "--wastage",
+                "leave out --wastage (it applies to costs only)",
+            )?;
+        }
+        if !self.allowances.is_empty() {
+            prices.require(
+                "--allowance",
+                "leave out --allowance (it applies to costs only)",
+            )?;
+        }
+        Ok(())
+    }
+}
+
+/// The prices of the catalogues' headers once their rows are loaded
+/// (none when no row has a price).
+pub fn prices(header: Prices, rows: &[Candidate]) -> Prices {
+    let priced = rows.iter().filter(|r| r.cost.is_some()).count();
+    header.with_rows(rows.len(), priced)
+}
+
+/// How a line cost is worked out (shown beside the costs).
+pub const COST_FORMULA: &str =
+    "line cost = count × length × cost per length × (1 + wastage) × (1 + sum of allowances)";
+
+/// One mark's cost.
+#[derive(Clone, Debug, Serialize)]
+pub struct MarkCost {
+    pub mark: String,
+    pub section: String,
+    pub count: u32,
+    /// mm per piece.
+    pub length: f64,
+    /// Currency per mm (none when the row has no price).
+    pub unit_cost: Option<f64>,
+    /// count × length × unit cost, currency.
+    pub net_cost: Option<f64>,
+    /// The net cost × the factor, currency.
+    pub line_cost: Option<f64>,
+}
+
+/// The cost of every sized mark with the wastage and allowances.
+#[derive(Clone, Debug, Serialize)]
+pub struct Costs {
+    /// Per cent (0 when not asked for).
+    pub wastage: f64,
+    pub allowances: Vec<Allowance>,
+    /// (1 + wastage) × (1 + sum of allowances).
+    pub factor: f64,
+    pub formula: &'static str,
+    /// Which sizing is costed: the rationalised one when there is one.
+    pub rationalised: bool,
+    pub marks: Vec<MarkCost>,
+    /// Currency; none when a costed mark has no price.
+    pub net_total: Option<f64>,
+    pub total: Option<f64>,
+}
+
+/// The cost of each sized mark (on the rationalised sections when the
+/// schedule was rationalised), by [`COST_FORMULA`].
+pub fn costs(s: &Schedule, opts: &Options) -> Costs {
+    let w = opts.wastage.unwrap_or(0.0);
+    let a: f64 = opts.allowances.iter().map(|x| x.percent).sum();
+    let factor = (1.0 + w / 100.0) * (1.0 + a / 100.0);
+    let unit = |section: &str, own: Option<f64>| -> Option<f64> {
+        match &s.rationalised {
+            // The rationalised bill's cost per length of the section.
+            Some(r) => r
+                .bill
+                .iter()
+                .find(|l| l.section == section)
+                .and_then(|l| l.total_cost.map(|c| c / l.total_length)),
+            None => own,
+        }
+    };
+    let mut marks = Vec::new();
+    for m in &s.members {
+        let section = match &s.rationalised {
+            Some(r) => r
+                .members
+                .iter()
+                .find(|(mark, _)| *mark == m.result.mark)
+                .map(|(_, sec)| sec.clone()),
+            None => m.section.clone(),
+        };
+        let Some(section) = section else { continue };
+        let unit_cost = unit(&section, m.cost);
+        let net_cost = unit_cost.map(|c| m.result.count as f64 * m.result.length * c);
+        marks.push(MarkCost {
+            mark: m.result.mark.clone(),
+            section,
+            count: m.result.count,
+            length: m.result.length,
+            unit_cost,
+            net_cost,
+            line_cost: net_cost.map(|c| c * factor),
+        });
+    }
+    let sum = |f: &dyn Fn(&MarkCost) -> Option<f64>| {
+        marks.iter().try_fold(0.0, |acc, m| f(m).map(|c| acc + c))
+    };
+    let net_total = sum(&|m| m.net_cost);
+    let total = sum(&|m| m.line_cost);
+    Costs {
+        wastage: w,
+        allowances: opts.allowances.clone(),
+        factor,
+        formula: COST_FORMULA,
+        rationalised: s.rationalised.is_some(),
+        marks,
+        net_total,
+        total,
     }
 }
