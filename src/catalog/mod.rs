@@ -20,7 +20,7 @@
 pub mod generate;
 pub mod input;
 mod material;
-mod number;
+pub(crate) mod number;
 pub mod read;
 pub mod records;
 mod row;

@@ -117,6 +117,8 @@ pub struct Schema {
     pub currency: Option<String>,
     pub(super) name: Option<usize>,
     pub(super) shape: Option<usize>,
+    /// Number cells use a decimal comma (`12,5`; see `ReadOptions`).
+    pub decimal_comma: bool,
 }
 
 fn split_header(h: &str) -> (String, Option<String>) {
@@ -228,6 +230,7 @@ impl Schema {
             currency,
             name,
             shape,
+            decimal_comma: false,
         })
     }
 }

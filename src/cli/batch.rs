@@ -2,7 +2,7 @@
 //! bill of quantities and optional rationalisation to k sizes.
 
 use super::catargs::CatalogArgs;
-use super::output::emit;
+use super::output::emit_data;
 use super::{EXIT_FAILS, Out};
 use beamsift::catalog::Materials;
 use beamsift::error::{Error, Result};
@@ -113,6 +113,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     let members = batch::read_schedule(
         std::io::BufReader::new(f),
         &sched_shown,
+        &a.cat.options()?,
         &template,
         n_live,
         n_total,
@@ -151,6 +152,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         excluded: template.criteria.exclude.list(),
     };
     let doc = document(&schedule, &view);
+    let data = report::batch::data(&schedule, &view, &doc);
     let splice = schedule
         .cutting
         .as_ref()
@@ -165,6 +167,6 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         currency: cur,
         caution: report::CAUTION,
     };
-    emit(out, &report::render(out.format, &result, &doc))?;
+    emit_data(out, &result, &doc, &data)?;
     Ok(code)
 }

@@ -127,6 +127,9 @@ pub struct FileArgs {
     /// Field delimiter: a character, or 'tab'.
     #[arg(long, default_value = ",")]
     pub delimiter: String,
+    /// Numbers use a decimal comma: 12,5 is 12.5 (needs --delimiter ';' or tab).
+    #[arg(long = "decimal-comma")]
+    pub decimal_comma: bool,
 }
 
 /// The base material, the grades, and whether a job supplied them.
@@ -155,16 +158,8 @@ fn materials(a: &FileArgs) -> Result<MaterialsFound> {
 fn open(a: &FileArgs) -> Result<read::Catalog<Box<dyn std::io::Read + Send>>> {
     // '-' is standard input; pipes and FIFOs are read once (see Input).
     let input = super::catargs::Input::new(&a.file)?;
-    let delim = if a.delimiter == "tab" {
-        b'\t'
-    } else {
-        *a.delimiter.as_bytes().first().unwrap_or(&b',')
-    };
-    read::open(
-        input.reader()?,
-        &input.shown,
-        &ReadOptions { delimiter: delim },
-    )
+    let opts = ReadOptions::new(&a.delimiter, a.decimal_comma)?;
+    read::open(input.reader()?, &input.shown, &opts)
 }
 
 pub fn run(cmd: Cmd, out: &Out) -> Result<i32> {

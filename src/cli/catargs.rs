@@ -14,9 +14,14 @@ pub struct CatalogArgs {
     /// Catalogue CSV file(s); repeat for several.
     #[arg(long, short = 'c', value_name = "FILE", required = true)]
     pub catalog: Vec<PathBuf>,
-    /// Field delimiter of the catalogue: a character, or 'tab'.
+    /// Field delimiter of the catalogue (and of batch's schedule): a
+    /// character, or 'tab'.
     #[arg(long, default_value = ",")]
     pub delimiter: String,
+    /// Numbers in the catalogue (and schedule) use a decimal comma: 12,5 is
+    /// 12.5 (a '.' in a number is refused). Needs --delimiter ';' or tab.
+    #[arg(long = "decimal-comma")]
+    pub decimal_comma: bool,
     /// Leave out bad rows (and report how many) instead of refusing the catalogue.
     #[arg(long = "skip-bad-rows")]
     pub skip_bad_rows: bool,
@@ -54,7 +59,7 @@ pub use beamsift::catalog::input::Input;
 
 impl CatalogArgs {
     pub fn options(&self) -> Result<ReadOptions> {
-        ReadOptions::from_delimiter(&self.delimiter)
+        ReadOptions::new(&self.delimiter, self.decimal_comma)
     }
 
     /// The filters, checked against the job (a grade it does not define

@@ -51,6 +51,7 @@ const KNOWN: &str = "mark, count, spans [m], supports, dead [kN/m], live [kN/m],
 pub fn read_schedule<R: Read>(
     input: R,
     file: &str,
+    opts: &crate::catalog::read::ReadOptions,
     template: &Job,
     n_live: f64,
     n_total: f64,
@@ -66,7 +67,7 @@ pub fn read_schedule<R: Read>(
             )
         })
     };
-    let mut rdr = Blocks::new(input, b',');
+    let mut rdr = Blocks::new(input, opts.delimiter);
     let mut head = Records::default();
     rdr.take_records(1, &mut head)
         .map_err(|e| crate::catalog::read::read_error(file, e))?;
@@ -185,7 +186,15 @@ pub fn read_schedule<R: Read>(
                 continue;
             }
         };
-        match member_of(&rec, &cols, &headers, template, n_live, n_total) {
+        match member_of(
+            &rec,
+            &cols,
+            &headers,
+            opts.decimal_comma,
+            template,
+            n_live,
+            n_total,
+        ) {
             Ok(mut m) => {
                 m.line = line;
                 if let Some(first) = marks.insert(m.mark.clone(), line) {
@@ -219,6 +228,7 @@ fn member_of(
     rec: &[String],
     cols: &[SCol],
     headers: &[String],
+    decimal_comma: bool,
     template: &Job,
     n_live: f64,
     n_total: f64,
@@ -238,8 +248,18 @@ fn member_of(
         let cell = rec.get(i).map_or("", |c| c.trim());
         let h = headers.get(i).map_or("", String::as_str);
         let fail = |msg: String| (i, Error::msg(msg).in_field(h));
+        // With --decimal-comma, 12,5 is 12.5 (a '.' is refused).
+        let point = |s: &str| -> std::result::Result<String, (usize, Error)> {
+            if decimal_comma {
+                crate::catalog::number::decimal_comma_text(s)
+                    .map_err(|m| (i, Error::msg(m).in_field(h)))
+            } else {
+                Ok(s.to_string())
+            }
+        };
         let num = |s: &str| -> std::result::Result<f64, (usize, Error)> {
-            units::parse_number(s).map_err(|e| (i, e.in_field(h)))
+            let s = point(s)?;
+            units::parse_number(&s).map_err(|e| (i, e.in_field(h)))
         };
         if cell.is_empty() {
             continue;
@@ -287,7 +307,7 @@ fn member_of(
                 max_depth = Some(v)
             }
             SCol::Bracing => {
-                bracing = Some(job::parse_bracing(cell).map_err(|e| (i, e.in_field(h)))?)
+                bracing = Some(job::parse_bracing(&point(cell)?).map_err(|e| (i, e.in_field(h)))?)
             }
             SCol::Length(f) => {
                 let v = num(cell)? * f;
