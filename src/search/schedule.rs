@@ -84,6 +84,29 @@ pub fn read_schedule<R: Read>(
         .enumerate()
         .map(|(i, f)| text(f, header_line, i).map(|t| t.trim().to_string()))
         .collect::<Result<_>>()?;
+    if headers.len() == 1 {
+        let d = opts.delimiter;
+        let hint = if d == b',' && (headers[0].contains(';') || headers[0].contains('\t')) {
+            Some("the header has a single column but contains ';' or tabs: use --delimiter ';' (or 'tab') for this file".to_string())
+        } else if d != b',' && headers[0].contains(',') {
+            let shown = if d == b'\t' {
+                "tab".to_string()
+            } else {
+                (d as char).to_string()
+            };
+            Some(format!(
+                "the header has a single column when split at '{shown}' (--delimiter) but contains commas: leave --delimiter out for a comma-separated file"
+            ))
+        } else {
+            None
+        };
+        if let Some(h) = hint {
+            return Err(Error::input(
+                Location::in_file(file).with_line(header_line),
+                h,
+            ));
+        }
+    }
     let mut cols = Vec::new();
     let mut errors = Vec::new();
     for (i, h) in headers.iter().enumerate() {
