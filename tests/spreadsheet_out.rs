@@ -144,3 +144,136 @@ fn batch_workbook_holds_numbers_equal_to_the_json() {
     }
     assert_eq!(matched, bill.len());
 }
+
+#[test]
+fn select_csv_numeric_has_numbers_and_units() {
+    let d = tmp("csvnum");
+    let (job, steel) = (cat("demo-job.toml"), cat("demo-steel.csv"));
+    let (c, out, e) = run(
+        &d,
+        &[
+            "select",
+            "--job",
+            &job,
+            "-c",
+            &steel,
+            "--format",
+            "csv-numeric",
+        ],
+    );
+    assert!(c == 0 || c == 1, "exit {c}: {e}");
+    // The '#' lines carry the title, the other tables and the caution.
+    assert!(
+        out.lines()
+            .any(|l| l.starts_with('#') && l.contains("competent person")),
+        "no caution:\n{out}"
+    );
+    let body: String = out
+        .lines()
+        .filter(|l| !l.starts_with('#'))
+        .map(|l| format!("{l}\n"))
+        .collect();
+    let mut rdr = csv::ReaderBuilder::new().from_reader(body.as_bytes());
+    let header: Vec<String> = rdr.headers().unwrap().iter().map(str::to_string).collect();
+    // Columns of quantities: those with a unit in brackets, plus the
+    // dimensionless rank and utilisation.
+    let numeric: Vec<usize> = header
+        .iter()
+        .enumerate()
+        .filter(|(_, h)| {
+            (h.contains('[') && h.ends_with(']')) || *h == "Rank" || *h == "Utilisation"
+        })
+        .map(|(i, _)| i)
+        .collect();
+    for unit_col in ["Mass [kg/m]", "Depth [mm]"] {
+        assert!(
+            header.iter().any(|h| h == unit_col),
+            "no '{unit_col}' in {header:?}"
+        );
+    }
+    assert!(header.iter().any(|h| h == "Utilisation"), "{header:?}");
+    let mut rows = 0;
+    for rec in rdr.records() {
+        let rec = rec.unwrap();
+        let passes = rec.iter().any(|f| f == "PASSES");
+        for &i in &numeric {
+            let f = &rec[i];
+            // A passing row has every quantity; other rows may leave
+            // quantities that were not computed empty (never text).
+            if f.is_empty() && !passes {
+                continue;
+            }
+            assert!(
+                f.parse::<f64>().is_ok(),
+                "row {rows}: {} = '{f}' is not a number",
+                header[i]
+            );
+        }
+        rows += 1;
+    }
+    assert!(rows > 0, "no rows:\n{out}");
+}
+
+/// The demo catalogue rewritten with ';' between fields and decimal commas
+/// reads to the same selection as the original.
+#[test]
+fn decimal_comma_catalogue_gives_the_same_selection() {
+    let d = tmp("deccomma");
+    let steel = cat("demo-steel.csv");
+    let text = std::fs::read_to_string(&steel).unwrap();
+    let mut out = String::new();
+    for line in text.lines() {
+        if line.starts_with('#') || line.trim().is_empty() {
+            out.push_str(line);
+            out.push('\n');
+            continue;
+        }
+        let mut r = csv::ReaderBuilder::new()
+            .has_headers(false)
+            .from_reader(line.as_bytes());
+        let rec = r.records().next().unwrap().unwrap();
+        let mut w = csv::WriterBuilder::new()
+            .delimiter(b';')
+            .from_writer(vec![]);
+        let fields: Vec<String> = rec
+            .iter()
+            .map(|f| {
+                if f.parse::<f64>().is_ok() {
+                    f.replace('.', ",")
+                } else {
+                    f.to_string()
+                }
+            })
+            .collect();
+        w.write_record(&fields).unwrap();
+        out.push_str(&String::from_utf8(w.into_inner().unwrap()).unwrap());
+    }
+    assert!(
+        out.contains("8,0;5,1"),
+        "the rewrite made no decimal commas:\n{out}"
+    );
+    let dc = d.join("steel-dc.csv");
+    std::fs::write(&dc, &out).unwrap();
+    let dc = dc.to_string_lossy().into_owned();
+    let job = cat("demo-job.toml");
+    let (c1, j1, e1) = run(&d, &["select", "--job", &job, "-c", &steel, "--json"]);
+    let (c2, j2, e2) = run(
+        &d,
+        &[
+            "select",
+            "--job",
+            &job,
+            "-c",
+            &dc,
+            "--delimiter",
+            ";",
+            "--decimal-comma",
+            "--json",
+        ],
+    );
+    assert_eq!(c1, c2, "{e1}\n{e2}");
+    assert!(j1.len() > 100, "{e1}");
+    let a = j1.replace(&steel, "CATALOGUE");
+    let b = j2.replace(&dc, "CATALOGUE");
+    assert_eq!(a, b);
+}
