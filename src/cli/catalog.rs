@@ -171,7 +171,7 @@ pub fn run(cmd: Cmd, out: &Out) -> Result<i32> {
             let v = read::validate(cat, &base, &grades, have_job)?;
             let result = ValidateResult::new(file, &v);
             let doc = validate_document(&result, have_job);
-            emit(out, &report::render(out.format, &result, &doc))?;
+            emit(out, &report::render(out.format, &result, &doc)?)?;
             // Print the list, then exit as bad input.
             Ok(if result.valid() { 0 } else { 2 })
         }
@@ -184,7 +184,7 @@ pub fn run(cmd: Cmd, out: &Out) -> Result<i32> {
             };
             let result = read::list(open(&a)?, &mats)?;
             let doc = show_document(&result, out.units);
-            emit(out, &report::render(out.format, &result, &doc))?;
+            emit(out, &report::render(out.format, &result, &doc)?)?;
             Ok(if result.problems.is_empty() { 0 } else { 2 })
         }
     }

@@ -37,7 +37,7 @@ pub fn run(a: Args, out: &Out) -> beamsift::Result<i32> {
     let prep = job.prepare()?;
     let result = member::member_check(&job, &prep, &shape.describe(out.units), &props, mass, None);
     let doc = member::document(&job, &result, out.units);
-    emit(out, &report::render(out.format, &result, &doc))?;
+    emit(out, &report::render(out.format, &result, &doc)?)?;
     if let Some(p) = &a.report {
         let w = sheet::Written {
             sheet: sheet::build(

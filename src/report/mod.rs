@@ -253,15 +253,23 @@ impl Format {
     }
 }
 
-/// Render a result in the chosen format.
-pub fn render<T: Serialize>(format: Format, result: &T, doc: &Document) -> String {
-    match format {
+/// Render a result in the chosen format. The spreadsheet formats need data
+/// tables ([`render_data`]); commands without them refuse those formats
+/// before any work, so reaching them here is an internal error.
+pub fn render<T: Serialize>(format: Format, result: &T, doc: &Document) -> crate::Result<String> {
+    Ok(match format {
         Format::Table => text::render(doc),
         Format::Markdown => markdown::render(doc),
         Format::Csv => csv_out::render(doc),
-        // Refused before any work for commands without data tables.
         Format::Xlsx | Format::CsvNumeric => {
-            "beamsift: this command has no data tables for a spreadsheet output\n".to_string()
+            return Err(crate::Error::Internal(format!(
+                "--format {}: this output has no data tables for a spreadsheet",
+                if format == Format::Xlsx {
+                    "xlsx"
+                } else {
+                    "csv-numeric"
+                }
+            )));
         }
         Format::Json => {
             let mut s = serde_json::to_value(result)
@@ -271,7 +279,7 @@ pub fn render<T: Serialize>(format: Format, result: &T, doc: &Document) -> Strin
             s.push('\n');
             s
         }
-    }
+    })
 }
 
 /// Render a result that has data tables in the chosen format: the
@@ -289,6 +297,6 @@ pub fn render_data<T: Serialize>(
         Format::CsvNumeric => csv_out::render_numeric(data, opts)
             .map(String::into_bytes)
             .map_err(crate::Error::msg),
-        _ => Ok(render(format, result, doc).into_bytes()),
+        _ => render(format, result, doc).map(String::into_bytes),
     }
 }
