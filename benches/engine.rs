@@ -327,7 +327,15 @@ fn drivers(c: &mut Criterion) {
         presets: (None, None),
         notes: vec![],
     };
-    let members = batch::read_schedule(text.as_bytes(), "s.csv", &tmpl, 360.0, 240.0).unwrap();
+    let members = batch::read_schedule(
+        text.as_bytes(),
+        "s.csv",
+        &Default::default(),
+        &tmpl,
+        360.0,
+        240.0,
+    )
+    .unwrap();
     g.bench_function(
         format!("schedule of 200 members x {} sections", rows.len()),
         |b| {

@@ -23,7 +23,12 @@ fn every_variant_is_listed() {
         System::Si | System::Us | System::UsFeetInches => (),
     };
     let all_formats = |f: Format| match f {
-        Format::Table | Format::Json | Format::Csv | Format::Markdown => (),
+        Format::Table
+        | Format::Json
+        | Format::Csv
+        | Format::Markdown
+        | Format::Xlsx
+        | Format::CsvNumeric => (),
     };
     let all_ranks = |r: Rank| match r {
         Rank::Mass | Rank::Cost | Rank::Depth | Rank::Utilisation => (),
@@ -47,7 +52,14 @@ fn every_variant_is_listed() {
     );
     listed(
         Format::CHOICES,
-        &[Format::Table, Format::Json, Format::Csv, Format::Markdown],
+        &[
+            Format::Table,
+            Format::Json,
+            Format::Csv,
+            Format::Markdown,
+            Format::Xlsx,
+            Format::CsvNumeric,
+        ],
     );
     listed(
         Rank::CHOICES,

@@ -207,6 +207,12 @@ fn table() -> BTreeMap<&'static str, (Expect, Vec<&'static str>)> {
     // Catalogue options.
     add("* --catalog", Changes, &["-c", "CATALOG2"]);
     add("* --delimiter", Refused, &["--delimiter", ";"]);
+    // Spreadsheet-output options only apply with --format csv-numeric (or, for
+    // --decimal-comma, with a ';' or tab delimiter): refused when given alone.
+    add("* --table", Refused, &["--table", "ranking"]);
+    add("* --bom", Refused, &["--bom"]);
+    add("* --out-decimal-comma", Refused, &["--out-decimal-comma"]);
+    add("* --decimal-comma", Refused, &["--decimal-comma"]);
     add("* --skip-bad-rows", Changes, &["--skip-bad-rows"]);
     add("* --max-depth", Changes, &["--max-depth", "300mm"]);
     add("* --min-depth", Changes, &["--min-depth", "400mm"]);

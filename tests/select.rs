@@ -380,6 +380,7 @@ fn schedule_bill_adds_up() {
     let members = batch::read_schedule(
         include_str!("../catalogs/demo-schedule.csv").as_bytes(),
         "s.csv",
+        &Default::default(),
         &job,
         360.0,
         240.0,
@@ -420,8 +421,15 @@ fn schedule_bill_adds_up() {
     );
     // Unknown supports in a schedule are named with their line.
     let bad = "mark,spans [m],supports\nX,4,pinned;hinge\n";
-    let e = batch::read_schedule(bad.as_bytes(), "s.csv", &job, 360.0, 240.0)
-        .unwrap_err()
-        .to_string();
+    let e = batch::read_schedule(
+        bad.as_bytes(),
+        "s.csv",
+        &Default::default(),
+        &job,
+        360.0,
+        240.0,
+    )
+    .unwrap_err()
+    .to_string();
     assert!(e.contains("s.csv:2:3") && e.contains("hinge"), "{e}");
 }

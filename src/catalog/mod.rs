@@ -21,7 +21,7 @@
 pub mod generate;
 pub mod input;
 mod material;
-mod number;
+pub(crate) mod number;
 mod prices;
 pub mod read;
 pub mod records;

@@ -71,3 +71,41 @@ pub fn number(cell: &[u8]) -> Option<f64> {
     let v: f64 = text.parse().ok()?;
     v.is_finite().then_some(v)
 }
+
+/// Text holding a number with a decimal comma (a schedule's cell, a
+/// bracing spacing `2,5 m`), with the comma made a point; the rules of
+/// [`decimal_comma`].
+pub fn decimal_comma_text(text: &str) -> Result<String, String> {
+    let mut buf = Vec::new();
+    let b = decimal_comma(text.trim().as_bytes(), &mut buf)?;
+    // Only an ASCII comma was changed: still UTF-8.
+    Ok(String::from_utf8_lossy(b).into_owned())
+}
+
+/// A number cell written with a decimal comma (`12,5`), as the standard
+/// library and [`number`] read it (`12.5`): the cell itself when it has
+/// no comma, else its bytes copied into `buf` with the comma made a point.
+/// A point in such a cell is refused (it could be a thousands separator,
+/// `1.234,5`), and so is more than one comma.
+pub fn decimal_comma<'a>(cell: &'a [u8], buf: &'a mut Vec<u8>) -> Result<&'a [u8], String> {
+    let shown = || String::from_utf8_lossy(cell).trim().to_string();
+    if cell.contains(&b'.') {
+        return Err(format!(
+            "'{}': with --decimal-comma a number's decimal mark is ',' and a '.' is refused (it could be a thousands separator): write it as {}",
+            shown(),
+            shown().replace('.', ",")
+        ));
+    }
+    match cell.iter().filter(|&&b| b == b',').count() {
+        0 => Ok(cell),
+        1 => {
+            buf.clear();
+            buf.extend(cell.iter().map(|&b| if b == b',' { b'.' } else { b }));
+            Ok(buf.as_slice())
+        }
+        _ => Err(format!(
+            "'{}': more than one decimal comma (thousands separators are not read)",
+            shown()
+        )),
+    }
+}

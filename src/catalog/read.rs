@@ -14,6 +14,9 @@ use std::io::Read;
 #[derive(Clone, Debug)]
 pub struct ReadOptions {
     pub delimiter: u8,
+    /// Number cells are written with a decimal comma (`12,5` is 12.5); the
+    /// delimiter is then not a comma.
+    pub decimal_comma: bool,
 }
 
 impl ReadOptions {
@@ -29,13 +32,33 @@ impl ReadOptions {
                 )));
             }
         };
-        Ok(ReadOptions { delimiter })
+        Ok(ReadOptions {
+            delimiter,
+            decimal_comma: false,
+        })
+    }
+
+    /// The options for a delimiter given as text and decimal commas
+    /// (`--decimal-comma`), which need a delimiter other than a comma.
+    pub fn new(delimiter: &str, decimal_comma: bool) -> Result<Self> {
+        let mut o = Self::from_delimiter(delimiter)?;
+        if decimal_comma && o.delimiter == b',' {
+            return Err(Error::msg(
+                "--decimal-comma: numbers like 12,5 cannot be read from comma-separated fields: give the file's delimiter too, e.g. --delimiter ';' (or 'tab')",
+            )
+            .in_field("--decimal-comma"));
+        }
+        o.decimal_comma = decimal_comma;
+        Ok(o)
     }
 }
 
 impl Default for ReadOptions {
     fn default() -> Self {
-        ReadOptions { delimiter: b',' }
+        ReadOptions {
+            delimiter: b',',
+            decimal_comma: false,
+        }
     }
 }
 
@@ -127,7 +150,8 @@ pub fn open_at<R: Read>(input: R, at: &Location, opts: &ReadOptions) -> Result<C
             ),
         ));
     }
-    let schema = Schema::parse(&names, &at.clone().with_line(line))?;
+    let mut schema = Schema::parse(&names, &at.clone().with_line(line))?;
+    schema.decimal_comma = opts.decimal_comma;
     Ok(Catalog {
         file: file.to_string(),
         at: at.clone(),

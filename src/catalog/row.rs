@@ -266,6 +266,13 @@ impl<'r> Cells<'r> {
                 if bytes.iter().all(u8::is_ascii_whitespace) {
                     continue;
                 }
+                let mut point = Vec::new();
+                let bytes = if schema.decimal_comma {
+                    super::number::decimal_comma(bytes, &mut point)
+                        .map_err(|m| cell_err(i, schema, m))?
+                } else {
+                    bytes
+                };
                 let v = match number(bytes) {
                     Some(_) if bytes.contains(&b'/') && !matches!(col, Col::Dim(..)) => {
                         let shown = String::from_utf8_lossy(bytes).trim().to_string();

@@ -147,6 +147,8 @@ pub struct Schema {
     pub price_basis: Option<PriceBasis>,
     pub(super) name: Option<usize>,
     pub(super) shape: Option<usize>,
+    /// Number cells use a decimal comma (`12,5`; see `ReadOptions`).
+    pub decimal_comma: bool,
 }
 
 fn split_header(h: &str) -> (String, Option<String>) {
@@ -288,6 +290,7 @@ impl Schema {
             price_basis,
             name,
             shape,
+            decimal_comma: false,
         })
     }
 }

@@ -93,6 +93,6 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         (None, None) => Basis::None,
     };
     let doc = document(&job, &result.analysis, &basis, sys);
-    emit(out, &report::render(out.format, &result, &doc))?;
+    emit(out, &report::render(out.format, &result, &doc)?)?;
     Ok(0)
 }

@@ -2,7 +2,7 @@
 //! bill of quantities and optional rationalisation to k sizes.
 
 use super::catargs::CatalogArgs;
-use super::output::emit;
+use super::output::emit_data;
 use super::{EXIT_FAILS, Out};
 use beamsift::catalog::{Materials, Prices, Schema};
 use beamsift::error::{Error, Result};
@@ -106,8 +106,14 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     })?;
     // A workbook's sheet is read as the same text (see Input).
     let sched = beamsift::catalog::input::Input::new(&a.schedule)?;
-    let members =
-        batch::read_schedule_at(sched.reader()?, &sched.at(), &template, n_live, n_total)?;
+    let members = batch::read_schedule_at(
+        sched.reader()?,
+        &sched.at(),
+        &a.cat.options()?,
+        &template,
+        n_live,
+        n_total,
+    )?;
     a.cat.setup_threads()?;
     let (cats, _) = a.cat.open()?;
     let schemas: Vec<&Schema> = cats.iter().map(|c| &c.schema).collect();
@@ -133,6 +139,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         excluded: template.criteria.exclude.list(),
     };
     let doc = document(&schedule, &view);
+    let data = report::batch::data(&schedule, &view, &doc);
     let splice = schedule
         .cutting
         .as_ref()
@@ -147,6 +154,6 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         prices,
         caution: report::CAUTION,
     };
-    emit(out, &report::render(out.format, &result, &doc))?;
+    emit_data(out, &result, &doc, &data)?;
     Ok(code)
 }

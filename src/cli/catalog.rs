@@ -134,6 +134,9 @@ pub struct FileArgs {
     /// Field delimiter of CSV: a character, or 'tab' (refused for a workbook).
     #[arg(long, default_value = ",")]
     pub delimiter: String,
+    /// Numbers use a decimal comma: 12,5 is 12.5 (needs --delimiter ';' or tab).
+    #[arg(long = "decimal-comma")]
+    pub decimal_comma: bool,
 }
 
 /// The base material, the grades, and whether a job supplied them.
@@ -162,12 +165,8 @@ fn materials(a: &FileArgs) -> Result<MaterialsFound> {
 fn open(a: &FileArgs) -> Result<read::Catalog<Box<dyn std::io::Read + Send>>> {
     // '-' is standard input; pipes and FIFOs are read once (see Input).
     let input = super::catargs::Input::new(&a.file)?;
-    let delim = if a.delimiter == "tab" {
-        b'\t'
-    } else {
-        *a.delimiter.as_bytes().first().unwrap_or(&b',')
-    };
-    input.open(&ReadOptions { delimiter: delim })
+    let opts = ReadOptions::new(&a.delimiter, a.decimal_comma)?;
+    input.open(&opts)
 }
 
 pub fn run(cmd: Cmd, out: &Out) -> Result<i32> {
@@ -179,7 +178,7 @@ pub fn run(cmd: Cmd, out: &Out) -> Result<i32> {
             let v = read::validate(cat, &base, &grades, have_job)?;
             let result = ValidateResult::new(file, &v);
             let doc = validate_document(&result, have_job);
-            emit(out, &report::render(out.format, &result, &doc))?;
+            emit(out, &report::render(out.format, &result, &doc)?)?;
             // Print the list, then exit as bad input.
             Ok(if result.valid() { 0 } else { 2 })
         }
@@ -192,7 +191,7 @@ pub fn run(cmd: Cmd, out: &Out) -> Result<i32> {
             };
             let result = read::list(open(&a)?, &mats)?;
             let doc = show_document(&result, out.units);
-            emit(out, &report::render(out.format, &result, &doc))?;
+            emit(out, &report::render(out.format, &result, &doc)?)?;
             Ok(if result.problems.is_empty() { 0 } else { 2 })
         }
     }

@@ -16,9 +16,14 @@ pub struct CatalogArgs {
     /// .ods: its first sheet, or FILE#SHEET); repeat for several.
     #[arg(long, short = 'c', value_name = "FILE", required = true)]
     pub catalog: Vec<PathBuf>,
-    /// Field delimiter of a CSV catalogue: a character, or 'tab' (refused for a workbook).
+    /// Field delimiter of a CSV catalogue (and of batch's schedule): a
+    /// character, or 'tab' (refused for a workbook).
     #[arg(long, default_value = ",")]
     pub delimiter: String,
+    /// Numbers in the catalogue (and schedule) use a decimal comma: 12,5 is
+    /// 12.5 (a '.' in a number is refused). Needs --delimiter ';' or tab.
+    #[arg(long = "decimal-comma")]
+    pub decimal_comma: bool,
     /// Leave out bad rows (and report how many) instead of refusing the catalogue.
     #[arg(long = "skip-bad-rows")]
     pub skip_bad_rows: bool,
@@ -56,7 +61,7 @@ pub use beamsift::catalog::input::Input;
 
 impl CatalogArgs {
     pub fn options(&self) -> Result<ReadOptions> {
-        ReadOptions::from_delimiter(&self.delimiter)
+        ReadOptions::new(&self.delimiter, self.decimal_comma)
     }
 
     /// The filters, checked against the job (a grade it does not define
@@ -156,6 +161,7 @@ impl CatalogArgs {
             (section, "--section"),
             (!self.catalog.is_empty(), "--catalog"),
             (self.delimiter != ",", "--delimiter"),
+            (self.decimal_comma, "--decimal-comma"),
             (self.skip_bad_rows, "--skip-bad-rows"),
             (self.max_depth.is_some(), "--max-depth"),
             (self.min_depth.is_some(), "--min-depth"),
@@ -177,6 +183,7 @@ impl CatalogArgs {
             catalog,
             delimiter: delimiter.to_string(),
             skip_bad_rows: false,
+            decimal_comma: false,
             max_depth: None,
             min_depth: None,
             max_width: None,

@@ -84,7 +84,7 @@ pub fn run(a: Args, out: &Out) -> beamsift::Result<i32> {
         )
     };
     let doc = member::document(&job, &result, sys);
-    emit(out, &report::render(out.format, &result, &doc))?;
+    emit(out, &report::render(out.format, &result, &doc)?)?;
     if let Some(p) = &a.report {
         let w = sheet::Written {
             sheet: sheet::build(&job, &prep, &result, &source, None, sys),

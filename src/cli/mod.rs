@@ -168,6 +168,12 @@ pub fn exit_code(e: &Error) -> i32 {
 
 fn run(cli: Cli) -> beamsift::Result<i32> {
     let out = cli.out.resolve()?;
+    if out.format.needs_data() && !cli.command.has_data() {
+        return Err(Error::msg(
+            "--format xlsx and csv-numeric write a result's tables: batch, select, shortlist, sweep lightest and sweep table have them; this command has none (use --format csv, json or markdown)",
+        )
+        .in_field("--format"));
+    }
     let (inputs, outputs) = cli.command.files(&out);
     files::check(&inputs, &outputs, out.force)?;
     if out.path.is_none() && !files::stdout_is_open() {
@@ -192,6 +198,15 @@ fn run(cli: Cli) -> beamsift::Result<i32> {
 }
 
 impl Command {
+    /// Whether the command's result has data tables (for the spreadsheet
+    /// formats).
+    fn has_data(&self) -> bool {
+        matches!(
+            self,
+            Command::Batch(_) | Command::Select(_) | Command::Shortlist(_) | Command::Sweep(_)
+        )
+    }
+
     /// The files this command reads and the files it writes, from its
     /// parsed arguments.
     fn files(&self, out: &Out) -> (Vec<std::path::PathBuf>, Vec<std::path::PathBuf>) {
@@ -310,6 +325,8 @@ pub struct Out {
     pub path: Option<std::path::PathBuf>,
     /// Overwrite existing output files.
     pub force: bool,
+    /// How the spreadsheet formats are written.
+    pub data: beamsift::report::data::DataOptions,
 }
 
 #[cfg(test)]

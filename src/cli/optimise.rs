@@ -151,6 +151,6 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         yield_stress_known: job.material.fy.is_some(),
     };
     let doc = document(&result, &source, sys);
-    emit(out, &report::render(out.format, &result, &doc))?;
+    emit(out, &report::render(out.format, &result, &doc)?)?;
     Ok(0)
 }

@@ -1,9 +1,11 @@
 //! Output options shared by every command, and writing the result.
 
 use super::Out;
-use beamsift::Result;
-use beamsift::report::Format;
+use beamsift::report::data::{DataOptions, DataSet};
+use beamsift::report::{self, Document, Format};
 use beamsift::units::System;
+use beamsift::{Error, Result};
+use serde::Serialize;
 use std::path::PathBuf;
 
 #[derive(clap::Args, Debug)]
@@ -11,9 +13,9 @@ pub struct OutputArgs {
     /// Unit system of the output.
     #[arg(long, global = true, value_parser = super::values::system(), default_value = "si")]
     pub units: System,
-    /// Output format.
-    #[arg(long, global = true, value_parser = super::values::format(), default_value = "table")]
-    pub format: Format,
+    /// Output format [default: table; xlsx when -o names a .xlsx file].
+    #[arg(long, global = true, value_parser = super::values::format())]
+    pub format: Option<Format>,
     /// Shorthand for --format json.
     #[arg(long, global = true)]
     pub json: bool,
@@ -23,23 +25,91 @@ pub struct OutputArgs {
     /// Overwrite an existing output file.
     #[arg(long, global = true)]
     pub force: bool,
+    /// --format csv-numeric: the table to write (one table per file; the
+    /// first when left out; the file's first lines name the others).
+    #[arg(long, global = true, value_name = "NAME")]
+    pub table: Option<String>,
+    /// --format csv-numeric: start the file with a UTF-8 byte-order mark
+    /// (for spreadsheet programs that need one to read UTF-8).
+    #[arg(long, global = true)]
+    pub bom: bool,
+    /// --format csv-numeric: write decimal commas (12,5), fields
+    /// separated by ';'.
+    #[arg(long = "out-decimal-comma", global = true)]
+    pub out_decimal_comma: bool,
 }
 
 impl OutputArgs {
     /// Resolve the output options (the paths are checked with every other
     /// input and output of the command in `files::check`).
     pub fn resolve(&self) -> Result<Out> {
-        let format = if self.json { Format::Json } else { self.format };
         let path = match &self.output {
             Some(p) if p.as_os_str() == "-" => None,
             Some(p) => Some(p.clone()),
             None => None,
         };
+        let xlsx_path = path.as_ref().is_some_and(|p| {
+            p.extension()
+                .is_some_and(|e| e.eq_ignore_ascii_case("xlsx"))
+        });
+        let format = match (self.json, self.format) {
+            (true, Some(f)) if f != Format::Json => {
+                return Err(
+                    Error::msg("--json is --format json: give one of --json and --format")
+                        .in_field("--json"),
+                );
+            }
+            (true, _) => Format::Json,
+            (false, Some(f)) => f,
+            (false, None) if xlsx_path => Format::Xlsx,
+            (false, None) => Format::Table,
+        };
+        if xlsx_path && format != Format::Xlsx {
+            return Err(Error::msg(format!(
+                "-o {} names a workbook, but the format is {}: use --format xlsx, or another file name",
+                path.as_ref().map(|p| p.display().to_string()).unwrap_or_default(),
+                Format::CHOICES
+                    .iter()
+                    .find(|c| c.0 == format)
+                    .map_or("", |c| c.1)
+            ))
+            .in_field("--output"));
+        }
+        if format == Format::Xlsx && path.is_none() {
+            return Err(Error::msg(
+                "--format xlsx writes a workbook (binary): name the file with -o FILE.xlsx",
+            )
+            .in_field("--format"));
+        }
+        if format != Format::CsvNumeric {
+            for (given, name) in [
+                (self.table.is_some(), "--table"),
+                (self.bom, "--bom"),
+                (self.out_decimal_comma, "--out-decimal-comma"),
+            ] {
+                if given {
+                    let why = if format == Format::Xlsx && name == "--table" {
+                        " (a workbook has every table, one sheet each)"
+                    } else {
+                        ""
+                    };
+                    return Err(Error::msg(format!(
+                        "{name} applies to --format csv-numeric only{why}"
+                    ))
+                    .in_field(name));
+                }
+            }
+        }
         Ok(Out {
             units: self.units,
             format,
             path,
             force: self.force,
+            data: DataOptions {
+                bom: self.bom,
+                decimal_comma: self.out_decimal_comma,
+                table: self.table.clone(),
+            },
         })
     }
 }
@@ -55,6 +125,27 @@ pub fn emit(out: &Out, text: &str) -> Result<()> {
         }
         Some(path) => {
             write_atomic(path, text.as_bytes());
+            Ok(())
+        }
+    }
+}
+
+/// Write a result that has data tables: the spreadsheet formats from its
+/// data tables, the others from its document (as [`emit`]).
+pub fn emit_data<T: Serialize>(
+    out: &Out,
+    result: &T,
+    doc: &Document,
+    data: &DataSet,
+) -> Result<()> {
+    let bytes = report::render_data(out.format, result, doc, data, &out.data)?;
+    match &out.path {
+        None => {
+            super::files::queue_stdout(&String::from_utf8_lossy(&bytes));
+            Ok(())
+        }
+        Some(path) => {
+            write_atomic(path, &bytes);
             Ok(())
         }
     }

@@ -98,7 +98,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     if out.format == beamsift::report::Format::Json {
         emit(
             out,
-            &beamsift::report::render(out.format, sheet, &sheet::document(sheet)),
+            &beamsift::report::render(out.format, sheet, &sheet::document(sheet))?,
         )?;
     } else {
         emit(out, &summary)?;

@@ -49,6 +49,6 @@ pub fn run(a: Args, out: &Out) -> beamsift::Result<i32> {
     }
     let result = SectionResult::new(shape, density)?;
     let doc = document(&result, out.units);
-    emit(out, &report::render(out.format, &result, &doc))?;
+    emit(out, &report::render(out.format, &result, &doc)?)?;
     Ok(0)
 }

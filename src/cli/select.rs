@@ -3,7 +3,7 @@
 
 use super::catargs::{CatalogArgs, run_scan};
 use super::jobargs::JobArgs;
-use super::output::emit;
+use super::output::emit_data;
 use super::{EXIT_FAILS, Out};
 use beamsift::error::{Error, Result};
 use beamsift::report::select::{
@@ -111,7 +111,8 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         selection: &sel,
     };
     let doc = select_document(&result, &view);
-    emit(out, &report::render(out.format, &result, &doc))?;
+    let data = report::select::select_data(&result, &doc, sys);
+    emit_data(out, &result, &doc, &data)?;
     Ok(if result.passing_count() == 0 {
         EXIT_FAILS
     } else {
@@ -149,7 +150,8 @@ pub fn run_shortlist(a: ShortlistArgs, out: &Out) -> Result<i32> {
     let (sel, cur) = run_scan(&job, &prep, &a.cat, &opts)?;
     let result = ShortlistResult::new(&job, &prep, &sel, a.count, length, cur, out.units);
     let doc = shortlist_document(&result, &prep, &sel, out.units, a.cat.skip_bad_rows);
-    emit(out, &report::render(out.format, &result, &doc))?;
+    let data = report::select::shortlist_data(&result, &doc, out.units);
+    emit_data(out, &result, &doc, &data)?;
     Ok(if result.by_mass.is_empty() {
         EXIT_FAILS
     } else {

@@ -3,7 +3,7 @@
 use super::Out;
 use super::catargs::CatalogArgs;
 use super::jobargs::JobArgs;
-use super::output::{emit, write_atomic};
+use super::output::{emit_data, write_atomic};
 use beamsift::error::Result;
 use beamsift::job::Job;
 use beamsift::optimise::Family;
@@ -141,7 +141,8 @@ fn run_lightest(a: LightestArgs, out: &Out) -> Result<i32> {
         skip_bad_rows: a.cat.skip_bad_rows,
     };
     let doc = lightest_document(&result, a.optimise.is_some(), &view);
-    emit(out, &report::render(out.format, &result, &doc))?;
+    let data = report::sweep::lightest_data(&result, a.optimise.is_some(), &doc, sys);
+    emit_data(out, &result, &doc, &data)?;
     Ok(0)
 }
 
@@ -192,6 +193,7 @@ fn run_table(a: TableArgs, out: &Out) -> Result<i32> {
         skip_bad_rows: a.cat.skip_bad_rows,
     };
     let doc = table_document(&result, &search, &view);
-    emit(out, &report::render(out.format, &result, &doc))?;
+    let data = report::sweep::table_data(&result, &doc, sys);
+    emit_data(out, &result, &doc, &data)?;
     Ok(0)
 }

@@ -341,3 +341,182 @@ fn cutting(doc: &mut Document, c: &Cutting, sys: System) {
         ));
     }
 }
+
+/// The bill of quantities as a data table (a "Total" row last, as in the
+/// document).
+fn bill_data(
+    key: &'static str,
+    title: &str,
+    bill: &[BoqLine],
+    sys: System,
+    cur: &Prices,
+) -> super::data::DataTable {
+    use super::data::{DataTable, Value};
+    let (w, wf) = if sys == System::Si {
+        ("kg", 1.0)
+    } else {
+        ("lb", 1.0 / units::KG_PER_LB)
+    };
+    let mut t = DataTable::new(
+        key,
+        title,
+        vec![
+            "Section".into(),
+            "Pieces".into(),
+            format!("Total length [{}]", Show::Span.label(sys)),
+            format!("Total mass [{w}]"),
+            format!("Total cost [{}]", cur.label()),
+            "Marks".into(),
+        ],
+    );
+    for l in bill {
+        t.row(vec![
+            Value::text(l.section.clone()),
+            Value::Num(l.pieces as f64),
+            Value::Num(Show::Span.value(l.total_length, sys)),
+            Value::Num(l.total_mass * wf),
+            Value::opt(l.total_cost),
+            Value::text(l.marks.join(", ")),
+        ]);
+    }
+    let (m, c) = crate::search::batch::totals(bill);
+    t.row(vec![
+        Value::text("Total"),
+        Value::Num(bill.iter().map(|l| l.pieces as f64).sum()),
+        Value::Num(Show::Span.value(bill.iter().map(|l| l.total_length).sum(), sys)),
+        Value::Num(m * wf),
+        Value::opt(c),
+        Value::Empty,
+    ]);
+    t
+}
+
+/// The data tables of a sized schedule: members, the bill of quantities,
+/// and (when asked for) the rationalised plan and its bill, the cutting
+/// from stock bars and the bars bought.
+pub fn data(s: &Schedule, v: &BatchView<'_>, doc: &Document) -> super::data::DataSet {
+    use super::data::{DataTable, Value};
+    // Spreadsheet cells are numbers: lengths as decimals.
+    let sys = v.sys.decimal();
+    let mut members = DataTable::new(
+        "members",
+        if v.by_cost {
+            "Members (cheapest passing section each)"
+        } else {
+            "Members (lightest passing section each)"
+        },
+        vec![
+            "Mark".into(),
+            "Count".into(),
+            format!("Length [{}]", Show::Span.label(sys)),
+            "Section".into(),
+            format!("Mass [{}]", Show::Mass.label(sys)),
+            "Utilisation".into(),
+            "Governed by".into(),
+            "Passing sections".into(),
+            "Lighter, not verified".into(),
+            "Not checked".into(),
+        ],
+    );
+    for m in &s.members {
+        members.row(vec![
+            Value::text(m.result.mark.clone()),
+            Value::Num(m.result.count as f64),
+            Value::Num(Show::Span.value(m.result.length, sys)),
+            Value::text(m.section.clone().unwrap_or_else(|| "NONE PASSES".into())),
+            Value::opt(m.mass.map(|x| Show::Mass.value(x, sys))),
+            Value::opt(m.result.utilisation),
+            Value::text(m.result.governing.clone().unwrap_or_default()),
+            Value::Num(m.result.passing.len() as f64),
+            Value::Num(m.result.lighter_not_verified as f64),
+            Value::text(m.result.not_checked.join("; ")),
+        ]);
+    }
+    let mut tables = vec![
+        members,
+        bill_data("bill", "Bill of quantities", &s.bill, sys, v.prices),
+    ];
+    if let Some(r) = &s.rationalised {
+        let mut t = DataTable::new(
+            "rationalised",
+            format!("Rationalised to at most {} section size(s)", r.k),
+            vec!["Mark".into(), "Section".into()],
+        );
+        for (m, sec) in &r.members {
+            t.row(vec![Value::text(m.clone()), Value::text(sec.clone())]);
+        }
+        tables.push(t);
+        tables.push(bill_data(
+            "rationalised-bill",
+            "Bill of quantities, rationalised",
+            &r.bill,
+            sys,
+            v.prices,
+        ));
+    }
+    if let Some(c) = &s.cutting {
+        let (w, wf) = if sys == System::Si {
+            ("kg", 1.0)
+        } else {
+            ("lb", 1.0 / units::KG_PER_LB)
+        };
+        let span = Show::Span.label(sys);
+        let mut t = DataTable::new(
+            "cutting",
+            format!(
+                "Cutting from stock bars (kerf {} per piece{})",
+                Show::Dimension.fmt(c.kerf, sys),
+                if c.rationalised {
+                    "; rationalised sections"
+                } else {
+                    ""
+                }
+            ),
+            vec![
+                "Section".into(),
+                format!("Bought [{span}]"),
+                format!("Cut [{span}]"),
+                format!("Waste [{span}]"),
+                format!("Waste [{w}]"),
+                "Waste [%]".into(),
+                "Plan".into(),
+                "Needs a splice".into(),
+            ],
+        );
+        let mut bars = DataTable::new(
+            "bars",
+            "Stock bars bought per section",
+            vec![
+                "Section".into(),
+                format!("Stock length [{span}]"),
+                "Bars".into(),
+            ],
+        );
+        for sc in &c.sections {
+            t.row(vec![
+                Value::text(sc.section.clone()),
+                Value::Num(Show::Span.value(sc.plan.bought, sys)),
+                Value::Num(Show::Span.value(sc.plan.used, sys)),
+                Value::Num(Show::Span.value(sc.plan.waste(), sys)),
+                Value::Num(sc.waste_mass * wf),
+                Value::Num(100.0 * sc.plan.waste_fraction()),
+                Value::text(if sc.plan.exact {
+                    "least length (exact)"
+                } else {
+                    "first-fit decreasing"
+                }),
+                Value::text(sc.too_long.join(", ")),
+            ]);
+            for (l, n) in &sc.bars {
+                bars.row(vec![
+                    Value::text(sc.section.clone()),
+                    Value::Num(Show::Span.value(*l, sys)),
+                    Value::Num(*n as f64),
+                ]);
+            }
+        }
+        tables.push(t);
+        tables.push(bars);
+    }
+    super::data::DataSet::new(doc, tables)
+}

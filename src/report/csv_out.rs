@@ -98,3 +98,79 @@ pub fn render(doc: &Document) -> String {
     comment(&mut out, super::CAUTION);
     out
 }
+
+/// A number as a spreadsheet reads it: rounded to 12 significant digits
+/// (so a sum's last-bit noise, 669.0600000000001, reads 669.06; within
+/// 5e-12 relative of the value), then the shortest text that reads back as
+/// that (never an exponent), with a decimal comma if asked.
+fn number_text(x: f64, decimal_comma: bool) -> String {
+    let r: f64 = format!("{x:.11e}").parse().unwrap_or(x);
+    let s = format!("{r}");
+    if decimal_comma {
+        s.replace('.', ",")
+    } else {
+        s
+    }
+}
+
+/// The numeric CSV of one data table: a leading comment line with its
+/// title (and the other tables of the result, each chosen with
+/// `--table`), the header row (units in brackets), one row per line
+/// (numbers unrounded, in the display units, no unit in a cell; an empty
+/// field where there is no value), then the document's lists and the
+/// caution as comment lines, as in [`render`]. With `decimal_comma` the
+/// fields are separated by `;`; with `bom` the text starts with a UTF-8
+/// byte-order mark. `Err` names the tables there are when `opts.table`
+/// names none of them.
+pub fn render_numeric(
+    set: &super::data::DataSet,
+    opts: &super::data::DataOptions,
+) -> std::result::Result<String, String> {
+    use super::data::Value;
+    let keys = set.keys();
+    let t = match &opts.table {
+        Some(k) => set.tables.iter().find(|t| t.key == k.as_str()),
+        None => set.tables.first(),
+    };
+    let Some(t) = t else {
+        return Err(format!(
+            "--table '{}': this result's tables are {}",
+            opts.table.as_deref().unwrap_or(""),
+            keys.join(", ")
+        ));
+    };
+    let mut out = String::new();
+    if opts.bom {
+        out.push('\u{feff}');
+    }
+    comment(&mut out, &format!("{} — {}", t.title, set.title));
+    if keys.len() > 1 {
+        comment(
+            &mut out,
+            &format!(
+                "Table '{}' of {} (choose one with --table)",
+                t.key,
+                keys.join(", ")
+            ),
+        );
+    }
+    let mut w = csv::WriterBuilder::new()
+        .terminator(csv::Terminator::Any(b'\n'))
+        .delimiter(if opts.decimal_comma { b';' } else { b',' })
+        .from_writer(Vec::new());
+    let _ = w.write_record(t.headers.iter());
+    for r in &t.rows {
+        let _ = w.write_record(r.iter().map(|v| match v {
+            Value::Num(x) => number_text(*x, opts.decimal_comma),
+            Value::Text(s) => cell(s, false),
+            Value::Empty => String::new(),
+        }));
+    }
+    if let Ok(bytes) = w.into_inner() {
+        out.push_str(&String::from_utf8_lossy(&bytes));
+    }
+    for line in set.context_lines() {
+        comment(&mut out, &line);
+    }
+    Ok(out)
+}

@@ -8,6 +8,7 @@ pub mod calc;
 pub mod catalog;
 pub mod chart;
 pub mod csv_out;
+pub mod data;
 pub mod html;
 pub mod markdown;
 pub mod member;
@@ -17,6 +18,7 @@ pub mod select;
 pub mod sheet;
 pub mod sweep;
 pub mod text;
+pub mod xlsx;
 
 use serde::Serialize;
 
@@ -216,6 +218,12 @@ pub enum Format {
     Csv,
     /// Markdown.
     Markdown,
+    /// A workbook (.xlsx): one sheet per table, numbers as numbers (the
+    /// commands with data tables: batch, select, shortlist, sweep).
+    Xlsx,
+    /// CSV of one table, numbers only in number cells, units in the header
+    /// (the commands with data tables).
+    CsvNumeric,
 }
 
 impl Format {
@@ -230,15 +238,42 @@ impl Format {
         ),
         (Self::Csv, "csv", "CSV of the main table(s)"),
         (Self::Markdown, "markdown", "Markdown"),
+        (
+            Self::Xlsx,
+            "xlsx",
+            "Workbook: a sheet per table, numbers as numbers, header row frozen (needs -o FILE)",
+        ),
+        (
+            Self::CsvNumeric,
+            "csv-numeric",
+            "CSV of one table (--table): a quantity per cell, units in the header",
+        ),
     ];
+
+    /// Written from a command's data tables ([`data::DataSet`]).
+    pub fn needs_data(self) -> bool {
+        matches!(self, Self::Xlsx | Self::CsvNumeric)
+    }
 }
 
-/// Render a result in the chosen format.
-pub fn render<T: Serialize>(format: Format, result: &T, doc: &Document) -> String {
-    match format {
+/// Render a result in the chosen format. The spreadsheet formats need data
+/// tables ([`render_data`]); commands without them refuse those formats
+/// before any work, so reaching them here is an internal error.
+pub fn render<T: Serialize>(format: Format, result: &T, doc: &Document) -> crate::Result<String> {
+    Ok(match format {
         Format::Table => text::render(doc),
         Format::Markdown => markdown::render(doc),
         Format::Csv => csv_out::render(doc),
+        Format::Xlsx | Format::CsvNumeric => {
+            return Err(crate::Error::Internal(format!(
+                "--format {}: this output has no data tables for a spreadsheet",
+                if format == Format::Xlsx {
+                    "xlsx"
+                } else {
+                    "csv-numeric"
+                }
+            )));
+        }
         Format::Json => {
             let mut s = serde_json::to_value(result)
                 .map(|v| with_context(v, doc))
@@ -247,5 +282,24 @@ pub fn render<T: Serialize>(format: Format, result: &T, doc: &Document) -> Strin
             s.push('\n');
             s
         }
+    })
+}
+
+/// Render a result that has data tables in the chosen format: the
+/// spreadsheet formats from `data`, the others as [`render`].
+pub fn render_data<T: Serialize>(
+    format: Format,
+    result: &T,
+    doc: &Document,
+    data: &data::DataSet,
+    opts: &data::DataOptions,
+) -> crate::Result<Vec<u8>> {
+    match format {
+        Format::Xlsx => xlsx::render(data)
+            .map_err(|e| crate::Error::Internal(format!("cannot write the workbook: {e}"))),
+        Format::CsvNumeric => csv_out::render_numeric(data, opts)
+            .map(String::into_bytes)
+            .map_err(crate::Error::msg),
+        _ => render(format, result, doc).map(String::into_bytes),
     }
 }

@@ -19,6 +19,10 @@ pub struct RankedRow {
     pub governing_check: String,
     pub governing_combination: String,
     pub governing_where: String,
+    /// The span or overhang holding the governing position (no units:
+    /// for the data tables, beside the position as a number).
+    #[serde(skip)]
+    pub governing_part: String,
     /// 1 − utilisation.
     pub margin: f64,
     pub file: String,
@@ -51,6 +55,11 @@ pub fn ranked(prep: &Prepared, sel: &Selection, list: &[Candidate], sys: System)
     list.iter()
         .enumerate()
         .map(|(i, c)| {
+            let part = c
+                .governing
+                .as_ref()
+                .map(|g| crate::member::part_at(prep, g.x))
+                .unwrap_or_default();
             let (check, combo, place) = match &c.governing {
                 Some(g) => (
                     g.kind.short().to_string(),
@@ -69,6 +78,7 @@ pub fn ranked(prep: &Prepared, sel: &Selection, list: &[Candidate], sys: System)
                 governing_check: check,
                 governing_combination: combo,
                 governing_where: place,
+                governing_part: part,
                 margin: 1.0 - c.utilisation,
                 file: sel.files.get(c.file).cloned().unwrap_or_default(),
             }
@@ -539,4 +549,173 @@ pub fn shortlist_document(
         legend,
     );
     doc
+}
+
+/// The data-table headers of ranked rows.
+fn data_headers(sys: System, cur: &Prices, over: bool) -> Vec<String> {
+    let mut h = vec![
+        "Rank".to_string(),
+        "Section".into(),
+        "Verdict".into(),
+        format!("Mass [{}]", Show::Mass.label(sys)),
+        format!("Depth [{}]", Show::Dimension.label(sys)),
+        "Utilisation".into(),
+        "Governed by".into(),
+        "Combination".into(),
+        "Governing part".into(),
+        format!("Governing x [{}]", Show::Span.label(sys)),
+        format!("Cost [{}]", cur.per(Show::Span.label(sys))),
+        "Mass–depth front".into(),
+    ];
+    if over {
+        h.push("Over by [%]".into());
+    }
+    h.push("Not verified".into());
+    h.push("Not checked".into());
+    h.push("Catalogue".into());
+    h.push("Line".into());
+    h
+}
+
+/// Ranked rows as a data table (numbers in the display units).
+fn data_table(
+    key: &'static str,
+    title: &str,
+    rows: &[RankedRow],
+    sys: System,
+    cur: &Prices,
+    over: bool,
+) -> super::data::DataTable {
+    use super::data::{DataTable, Value};
+    let mut t = DataTable::new(key, title, data_headers(sys, cur, over));
+    for r in rows {
+        let c = &r.candidate;
+        let mut cells = vec![
+            Value::Num(r.rank as f64),
+            Value::text(c.name.clone()),
+            Value::text(c.verdict.word()),
+            Value::Num(Show::Mass.value(c.mass, sys)),
+            Value::Num(Show::Dimension.value(c.depth, sys)),
+            Value::Num(c.utilisation),
+            Value::text(r.governing_check.clone()),
+            Value::text(r.governing_combination.clone()),
+            Value::text(r.governing_part.clone()),
+            Value::opt(c.governing.as_ref().map(|g| Show::Span.value(g.x, sys))),
+            Value::opt(c.cost.map(|v| per_len(v, sys))),
+            Value::text(if c.pareto { "yes" } else { "" }),
+        ];
+        if over {
+            cells.push(Value::Num(100.0 * (c.utilisation - 1.0)));
+        }
+        cells.push(Value::text(c.not_verified.join("; ")));
+        cells.push(Value::text(c.not_checked.join("; ")));
+        cells.push(Value::text(r.file.clone()));
+        cells.push(Value::Num(c.line as f64));
+        t.row(cells);
+    }
+    t
+}
+
+/// The data tables of a selection: the passing rows (with
+/// --include-unverified, the not verified ones among them), the nearest
+/// misses and the not verified rows, each table present even when empty.
+pub fn select_data(result: &SelectResult<'_>, doc: &Document, sys: System) -> super::data::DataSet {
+    // Spreadsheet cells are numbers: lengths as decimals.
+    let sys = sys.decimal();
+    let cur = &result.prices;
+    super::data::DataSet::new(
+        doc,
+        vec![
+            data_table(
+                "passing",
+                "Passing sections, in rank order",
+                &result.passing,
+                sys,
+                cur,
+                false,
+            ),
+            data_table(
+                "near-misses",
+                "Nearest misses (failing sections, lowest utilisation first)",
+                &result.near_misses,
+                sys,
+                cur,
+                true,
+            ),
+            data_table(
+                "not-verified",
+                "Not verified (nothing evaluated fails, but a limit state that applies could not be evaluated; not ranked)",
+                &result.not_verified,
+                sys,
+                cur,
+                false,
+            ),
+        ],
+    )
+}
+
+/// The data tables of a shortlist: the cheapest and the lightest passing
+/// sections with their quantities.
+pub fn shortlist_data(
+    result: &ShortlistResult,
+    doc: &Document,
+    sys: System,
+) -> super::data::DataSet {
+    use super::data::{DataTable, Value};
+    let sys = sys.decimal();
+    let cur = &result.prices;
+    let (w, wf) = if sys == System::Si {
+        ("kg", 1.0)
+    } else {
+        ("lb", 1.0 / units::KG_PER_LB)
+    };
+    let mut tables = Vec::new();
+    for (key, title, list) in [
+        ("cheapest", "Cheapest passing sections", &result.by_cost),
+        ("lightest", "Lightest passing sections", &result.by_mass),
+    ] {
+        let mut t = DataTable::new(
+            key,
+            format!(
+                "{title}: {} piece(s) of {} each",
+                result.count,
+                Show::Span.fmt(result.length, sys)
+            ),
+            vec![
+                "Rank".into(),
+                "Section".into(),
+                format!("Mass [{}]", Show::Mass.label(sys)),
+                format!("Depth [{}]", Show::Dimension.label(sys)),
+                "Utilisation".into(),
+                "Governed by".into(),
+                format!("Unit cost [{}]", cur.per(Show::Span.label(sys))),
+                "Pieces".into(),
+                format!("Total length [{}]", Show::Span.label(sys)),
+                format!("Total mass [{w}]"),
+                format!("Total cost [{}]", cur.label()),
+                "Mass–depth front".into(),
+                "Not checked".into(),
+            ],
+        );
+        for p in list {
+            let c = &p.row.candidate;
+            t.row(vec![
+                Value::Num(p.row.rank as f64),
+                Value::text(c.name.clone()),
+                Value::Num(Show::Mass.value(c.mass, sys)),
+                Value::Num(Show::Dimension.value(c.depth, sys)),
+                Value::Num(c.utilisation),
+                Value::text(p.row.governing_check.clone()),
+                Value::opt(c.cost.map(|v| per_len(v, sys))),
+                Value::Num(result.count as f64),
+                Value::Num(Show::Span.value(p.total_length, sys)),
+                Value::Num(p.total_mass * wf),
+                Value::opt(p.total_cost),
+                Value::text(if c.pareto { "yes" } else { "" }),
+                Value::text(c.not_checked.join("; ")),
+            ]);
+        }
+        tables.push(t);
+    }
+    super::data::DataSet::new(doc, tables)
 }

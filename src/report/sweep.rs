@@ -469,3 +469,106 @@ pub fn table_document(r: &TableResult, search: &Search, v: &SweepView<'_>) -> Do
     finish(&mut doc, &r.context);
     doc
 }
+
+/// What a span-table cell says besides its span, in words (the data
+/// tables' status column; the document uses the marks ≥ and nv).
+fn cell_status(c: &Cell) -> &'static str {
+    match c.span {
+        Some(_) if c.at_search_limit => "passes at the longest span searched (limit longer)",
+        Some(_) if !c.not_verified_beyond.is_empty() => "passes; not verified just beyond",
+        Some(_) => "passes",
+        None if !c.not_verified.is_empty() => "not verified",
+        None => "fails at the shortest span tried",
+    }
+}
+
+/// The data table of a span table: per column the longest span (rounded
+/// as the document's, when --round was given; unrounded otherwise), what
+/// governs just beyond it and the cell's status, each in its own column.
+pub fn table_data(r: &TableResult, doc: &Document, sys: System) -> super::data::DataSet {
+    // Spreadsheet cells are numbers: lengths as decimals.
+    let sys = sys.decimal();
+    use super::data::{DataSet, DataTable, Value};
+    let mut headers = vec![
+        "Section".to_string(),
+        format!("Mass [{}]", Show::Mass.label(sys)),
+    ];
+    for l in &r.columns {
+        headers.push(format!("{l}: span [{}]", Show::Span.label(sys)));
+        headers.push(format!("{l}: governed by"));
+        headers.push(format!("{l}: status"));
+    }
+    let mut t = DataTable::new(
+        "spans",
+        "The longest span that passes every check, per section and column",
+        headers,
+    );
+    for row in &r.rows {
+        let mut cells = vec![
+            Value::text(row.section.clone()),
+            Value::Num(Show::Mass.value(row.mass, sys)),
+        ];
+        for c in &row.cells {
+            cells.push(Value::opt(c.span.map(|s| Show::Span.value(s, sys))));
+            cells.push(Value::text(
+                c.governing
+                    .map(|g| g.short().to_string())
+                    .unwrap_or_default(),
+            ));
+            cells.push(Value::text(cell_status(c)));
+        }
+        t.row(cells);
+    }
+    DataSet::new(doc, vec![t])
+}
+
+/// The data table of the lightest section by span.
+pub fn lightest_data(
+    r: &LightestResult,
+    optimised: bool,
+    doc: &Document,
+    sys: System,
+) -> super::data::DataSet {
+    use super::data::{DataSet, DataTable, Value};
+    let sys = sys.decimal();
+    let mut headers = vec![
+        format!("Span [{}]", Show::Span.label(sys)),
+        "Lightest passing".to_string(),
+        format!("Mass [{}]", Show::Mass.label(sys)),
+        "Utilisation".into(),
+        "Governed by".into(),
+        "Lighter, not verified".into(),
+    ];
+    if optimised {
+        headers.push(format!("Optimum area [{}]", Show::Area.label(sys)));
+        headers.push("Optimum".into());
+    }
+    let mut t = DataTable::new("lightest", "Lightest passing section by span", headers);
+    for row in &r.rows {
+        let mut cells = vec![
+            Value::Num(Show::Span.value(row.span, sys)),
+            Value::text(row.section.clone().unwrap_or_else(|| "none passes".into())),
+            Value::opt(row.mass.map(|m| Show::Mass.value(m, sys))),
+            Value::opt(row.utilisation),
+            Value::text(
+                row.governing
+                    .map(|g| g.short().to_string())
+                    .unwrap_or_default(),
+            ),
+            Value::Num(row.lighter_not_verified as f64),
+        ];
+        if optimised {
+            cells.push(Value::opt(
+                row.optimum.as_ref().map(|o| Show::Area.value(o.0, sys)),
+            ));
+            cells.push(Value::text(
+                row.optimum
+                    .as_ref()
+                    .map(|o| o.1.clone())
+                    .unwrap_or_default(),
+            ));
+        }
+        t.row(cells);
+    }
+    DataSet::new(doc, vec![t])
+}

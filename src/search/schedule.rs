@@ -51,11 +51,19 @@ const KNOWN: &str = "mark, count, spans [m], supports, dead [kN/m], live [kN/m],
 pub fn read_schedule<R: Read>(
     input: R,
     file: &str,
+    opts: &crate::catalog::read::ReadOptions,
     template: &Job,
     n_live: f64,
     n_total: f64,
 ) -> Result<Vec<Member>> {
-    read_schedule_at(input, &Location::in_file(file), template, n_live, n_total)
+    read_schedule_at(
+        input,
+        &Location::in_file(file),
+        opts,
+        template,
+        n_live,
+        n_total,
+    )
 }
 
 /// [`read_schedule`] with its problems at `at` (a file, or a workbook's
@@ -63,6 +71,7 @@ pub fn read_schedule<R: Read>(
 pub fn read_schedule_at<R: Read>(
     input: R,
     at: &Location,
+    opts: &crate::catalog::read::ReadOptions,
     template: &Job,
     n_live: f64,
     n_total: f64,
@@ -76,7 +85,7 @@ pub fn read_schedule_at<R: Read>(
             )
         })
     };
-    let mut rdr = Blocks::new(input, b',');
+    let mut rdr = Blocks::new(input, opts.delimiter);
     let mut head = Records::default();
     rdr.take_records(1, &mut head)
         .map_err(|e| crate::catalog::read::read_error(at, e))?;
@@ -93,6 +102,26 @@ pub fn read_schedule_at<R: Read>(
         .enumerate()
         .map(|(i, f)| text(f, header_line, i).map(|t| t.trim().to_string()))
         .collect::<Result<_>>()?;
+    if headers.len() == 1 {
+        let d = opts.delimiter;
+        let hint = if d == b',' && (headers[0].contains(';') || headers[0].contains('\t')) {
+            Some("the header has a single column but contains ';' or tabs: use --delimiter ';' (or 'tab') for this file".to_string())
+        } else if d != b',' && headers[0].contains(',') {
+            let shown = if d == b'\t' {
+                "tab".to_string()
+            } else {
+                (d as char).to_string()
+            };
+            Some(format!(
+                "the header has a single column when split at '{shown}' (--delimiter) but contains commas: leave --delimiter out for a comma-separated file"
+            ))
+        } else {
+            None
+        };
+        if let Some(h) = hint {
+            return Err(Error::input(at.clone().with_line(header_line), h));
+        }
+    }
     let mut cols = Vec::new();
     let mut errors = Vec::new();
     for (i, h) in headers.iter().enumerate() {
@@ -196,7 +225,15 @@ pub fn read_schedule_at<R: Read>(
                 continue;
             }
         };
-        match member_of(&rec, &cols, &headers, template, n_live, n_total) {
+        match member_of(
+            &rec,
+            &cols,
+            &headers,
+            opts.decimal_comma,
+            template,
+            n_live,
+            n_total,
+        ) {
             Ok(mut m) => {
                 m.line = line;
                 if let Some(first) = marks.insert(m.mark.clone(), line) {
@@ -229,6 +266,7 @@ fn member_of(
     rec: &[String],
     cols: &[SCol],
     headers: &[String],
+    decimal_comma: bool,
     template: &Job,
     n_live: f64,
     n_total: f64,
@@ -248,8 +286,18 @@ fn member_of(
         let cell = rec.get(i).map_or("", |c| c.trim());
         let h = headers.get(i).map_or("", String::as_str);
         let fail = |msg: String| (i, Error::msg(msg).in_field(h));
+        // With --decimal-comma, 12,5 is 12.5 (a '.' is refused).
+        let point = |s: &str| -> std::result::Result<String, (usize, Error)> {
+            if decimal_comma {
+                crate::catalog::number::decimal_comma_text(s)
+                    .map_err(|m| (i, Error::msg(m).in_field(h)))
+            } else {
+                Ok(s.to_string())
+            }
+        };
         let num = |s: &str| -> std::result::Result<f64, (usize, Error)> {
-            units::parse_number(s).map_err(|e| (i, e.in_field(h)))
+            let s = point(s)?;
+            units::parse_number(&s).map_err(|e| (i, e.in_field(h)))
         };
         if cell.is_empty() {
             continue;
@@ -297,7 +345,7 @@ fn member_of(
                 max_depth = Some(v)
             }
             SCol::Bracing => {
-                bracing = Some(job::parse_bracing(cell).map_err(|e| (i, e.in_field(h)))?)
+                bracing = Some(job::parse_bracing(&point(cell)?).map_err(|e| (i, e.in_field(h)))?)
             }
             SCol::Length(f) => {
                 let v = num(cell)? * f;
