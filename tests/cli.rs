@@ -799,3 +799,31 @@ fn feet_inches_on_the_member_table() {
     assert!(out.contains("19'-8 1/4\" + 3'-11 1/4\""), "{out}");
     assert!(out.contains("kip"), "{out}");
 }
+
+/// `analyse` writes deflection in the sheet's one convention, positive
+/// downward: the unloaded span of a two-span continuous beam with live
+/// load patterned on the other span lifts (a textbook result for
+/// continuous beams, e.g. Roark, Table 8.2, from memory), so its "δ up"
+/// cell is negative and its "δ down" cell positive.
+#[test]
+fn analyse_prints_upward_deflection_negative() {
+    let o = run(&[
+        "analyse", "--span", "4m,4m", "--dead", "2kN/m", "--live", "3kN/m", "--E", "200GPa",
+        "--Ix", "8356cm4",
+    ]);
+    let out = text(&o).0;
+    let row = out
+        .lines()
+        .find(|l| l.starts_with("L ") && l.contains("span 1"))
+        .unwrap_or_else(|| panic!("{out}"));
+    let cells: Vec<&str> = row.split_whitespace().collect();
+    // ... δ down, at, δ up, at: the last four cells.
+    let n = cells.len();
+    let down: f64 = cells[n - 4].parse().unwrap();
+    let up: f64 = cells[n - 2].parse().unwrap();
+    assert!(down > 0.0 && up < 0.0, "{row}");
+    assert!(
+        out.contains("positive downward, so δ up is negative"),
+        "{out}"
+    );
+}

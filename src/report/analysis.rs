@@ -146,13 +146,9 @@ pub fn document(job: &Job, r: &Analysis, section: &Basis, sys: System) -> Docume
         row.push(Show::Force.num(e.shear_n.value.abs(), sys));
         row.push(Show::Span.num(e.shear_n.x_mm, sys));
         row.extend(pair(e.deflection_down_mm, Show::Deflection));
-        row.extend(pair(
-            e.deflection_up_mm.map(|mut a| {
-                a.value = -a.value;
-                a
-            }),
-            Show::Deflection,
-        ));
+        // Deflection positive downward, as on the sheet: an upward
+        // movement is negative.
+        row.extend(pair(e.deflection_up_mm, Show::Deflection));
         et.row(row);
     }
     doc.table(et);
@@ -185,7 +181,7 @@ pub fn document(job: &Job, r: &Analysis, section: &Basis, sys: System) -> Docume
             "x from the left end; loads and deflections positive downward".into(),
             "M positive sagging (tension in the bottom fibre); reaction moments clockwise positive".into(),
             "deflection measured from the line joining the span's supports (an overhang: from its support), so a spring's settlement is not in it: the settlements are listed apart".into(),
-            "δ down and δ up: the largest downward and the largest upward movement in each part (δ up printed as a positive magnitude)".into(),
+            "δ down and δ up: the largest downward and the largest upward movement in each part, in the one convention (positive downward, so δ up is negative)".into(),
         ],
     );
     if !job.notes.is_empty() {
