@@ -433,3 +433,178 @@ fn schedule_bill_adds_up() {
     .to_string();
     assert!(e.contains("s.csv:2:3") && e.contains("hinge"), "{e}");
 }
+
+/// A schedule read from text with `template` (L/360 live, L/240 total).
+fn schedule_of(text: &[u8], template: &beamsift::job::Job) -> beamsift::Result<Vec<batch::Member>> {
+    batch::read_schedule(text, "s.csv", &Default::default(), template, 360.0, 240.0)
+}
+
+/// Several point loads in one schedule row, on a template that is not a
+/// member (no [beam], no [[load]]). Check values: AISC Steel Construction
+/// Manual (15th ed.) Table 3-23 case 9, two equal concentrated loads
+/// symmetrically placed (from memory): M_max = P·a between the loads,
+/// Δ_max = P·a·(3L² − 4a²)/(24·E·I) at midspan. The analysis is exact for
+/// point loads, so the tolerance is round-off (1e-9 relative).
+#[test]
+fn schedule_several_point_loads_on_a_template() {
+    let template = beamsift::job::template_from_toml(
+        include_str!("../catalogs/demo-template.toml"),
+        "demo-template.toml",
+    )
+    .unwrap();
+    let text = "mark,spans [m],dead_point [kN],live_point [kN],point_at [m]\nX,6,10;10,0;0,2;4\n";
+    let members = schedule_of(text.as_bytes(), &template).unwrap();
+    let mut beam = members[0].job.beam.clone();
+    let points: Vec<(f64, f64)> = beam
+        .loads
+        .iter()
+        .filter_map(|l| match l.kind {
+            LoadKind::Point { x, p } => Some((x, p)),
+            _ => None,
+        })
+        .collect();
+    // The zero live loads are not placed; the dead ones are, where given.
+    assert_eq!(points, vec![(2000.0, 10_000.0), (4000.0, 10_000.0)]);
+    beam.combinations.clear();
+    let d = beam
+        .cases
+        .iter()
+        .position(|c| c.category == Category::Dead)
+        .unwrap();
+    beam.combo("D", ComboKind::Strength, &[(d, 1.0)]);
+    let dm = Demand::build(&beam, &[]).unwrap();
+    let n = dm.len.len();
+    let m = dm.combo_extremes(0, 0.0, 1.0, Quantity::Moment, 0..n);
+    let y = dm.combo_extremes(0, 0.0, 1.0, Quantity::Deflection, 0..n);
+    let (p, a, l) = (10_000.0, 2000.0, 6000.0);
+    common::close("M_max", m.max, p * a, 1e-9);
+    common::close(
+        "Δ_max (E·I = 1)",
+        y.max,
+        p * a * (3.0 * l * l - 4.0 * a * a) / 24.0,
+        1e-9,
+    );
+    // The template's project and material came through; its notes say
+    // nothing is unused (it has no [beam]).
+    assert!(members[0].job.notes.iter().all(|n| !n.contains("not used")));
+    // The demo job used as a template: its [beam] and loads are named as
+    // not used, on every member.
+    let job_as_template = beamsift::job::template_from_toml(
+        include_str!("../catalogs/demo-job.toml"),
+        "demo-job.toml",
+    )
+    .unwrap();
+    let ms = schedule_of(text.as_bytes(), &job_as_template).unwrap();
+    assert!(
+        ms[0]
+            .job
+            .notes
+            .iter()
+            .any(|n| n.contains("[beam]") && n.contains("4 [[load]] table(s) are not used")),
+        "{:?}",
+        ms[0].job.notes
+    );
+}
+
+/// Demo schedule mark B1 carries the same loads as the demo job (two point
+/// loads in one row): sized alone it must pick what `select` picks for the
+/// job, with the same utilisation (the same analysis; an internal
+/// consistency check beside the hand values above).
+#[test]
+fn schedule_row_equals_its_job() {
+    let job = beamsift::job::from_toml(include_str!("../catalogs/demo-job.toml"), "demo-job.toml")
+        .unwrap();
+    let template = beamsift::job::template_from_toml(
+        include_str!("../catalogs/demo-template.toml"),
+        "demo-template.toml",
+    )
+    .unwrap();
+    let members = schedule_of(
+        include_str!("../catalogs/demo-schedule.csv").as_bytes(),
+        &template,
+    )
+    .unwrap();
+    let b1 = members.iter().find(|m| m.mark == "B1").unwrap();
+    let cat = || {
+        read::open(
+            include_str!("../catalogs/demo-steel.csv").as_bytes(),
+            "c.csv",
+            &ReadOptions::default(),
+        )
+        .unwrap()
+    };
+    let mats = Materials::of(&job);
+    let (rows, _, _) = search::load_rows(vec![cat()], &mats, false, &Filters::default()).unwrap();
+    let r = &batch::size(
+        std::slice::from_ref(b1),
+        &rows,
+        &mats,
+        &Filters::default(),
+        false,
+    )
+    .unwrap()[0];
+    let prep = Prepared::new(&job.beam, job.material.clone(), job.criteria.clone()).unwrap();
+    let best = rows
+        .iter()
+        .map(|row| {
+            (
+                row,
+                prep.check(SectionInput::new(&row.properties, row.mass)),
+            )
+        })
+        .filter(|(_, s)| s.passes)
+        .min_by(|a, b| a.0.mass.total_cmp(&b.0.mass))
+        .unwrap();
+    assert_eq!(rows[r.chosen.unwrap()].name, best.0.name);
+    common::close(
+        "utilisation",
+        r.utilisation.unwrap(),
+        best.1.utilisation,
+        1e-12,
+    );
+}
+
+/// A schedule's grade column: only rows of that grade size the member.
+#[test]
+fn schedule_grade_column_filters_rows() {
+    let template = beamsift::job::template_from_toml(
+        "[material]\nkind = \"steel\"\nE = \"200 GPa\"\nFy = \"345 MPa\"\nFb = \"207 MPa\"\nFv = \"138 MPa\"\ndensity = \"7850 kg/m3\"\n[materials.S275]\nkind = \"steel\"\nE = \"200 GPa\"\nFy = \"275 MPa\"\nFb = \"165 MPa\"\nFv = \"110 MPa\"\n[materials.S355]\nkind = \"steel\"\nE = \"200 GPa\"\nFy = \"355 MPa\"\nFb = \"213 MPa\"\nFv = \"142 MPa\"\n[presets]\nstrength = \"asce7-16-asd\"\n[checks]\nlateral_bracing = \"continuous\"\n",
+        "t.toml",
+    )
+    .unwrap();
+    let text = "mark,spans [m],dead [kN/m],live [kN/m],grade\nA,5,3,6,s355\nB,5,3,6,\n";
+    let members = schedule_of(text.as_bytes(), &template).unwrap();
+    assert_eq!(members[0].grade.as_deref(), Some("S355"));
+    assert_eq!(members[1].grade, None);
+    // The same demo rows in two grades.
+    let demo = include_str!("../catalogs/demo-steel.csv");
+    let mut cat = String::new();
+    for (i, line) in demo.lines().filter(|l| !l.starts_with('#')).enumerate() {
+        if i == 0 {
+            cat.push_str(line);
+            cat.push_str(",grade\n");
+        } else {
+            for g in ["S275", "S355"] {
+                let (name, rest) = line.split_once(',').unwrap();
+                cat.push_str(&format!("{name} {g},{rest},{g}\n"));
+            }
+        }
+    }
+    let c = read::open(cat.as_bytes(), "c.csv", &ReadOptions::default()).unwrap();
+    let mats = Materials::of(&template);
+    let (rows, _, _) = search::load_rows(vec![c], &mats, false, &Filters::default()).unwrap();
+    let res = batch::size(&members, &rows, &mats, &Filters::default(), false).unwrap();
+    assert!(res[0].passing.iter().all(|&j| rows[j].grade == "S355"));
+    assert!(!res[0].passing.is_empty());
+    assert!(rows[res[0].chosen.unwrap()].name.ends_with("S355"));
+    // Without a grade both grades compete.
+    assert!(res[1].passing.iter().any(|&j| rows[j].grade == "S275"));
+    // An unknown grade is refused at its cell, naming the grades defined.
+    let e = schedule_of(
+        "mark,spans [m],dead [kN/m],grade\nX,4,2,S460\n".as_bytes(),
+        &template,
+    )
+    .unwrap_err()
+    .to_string();
+    assert!(e.contains("s.csv:2:4") && e.contains("S275, S355"), "{e}");
+}

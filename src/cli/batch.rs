@@ -16,11 +16,13 @@ use serde::Serialize;
 use std::path::PathBuf;
 
 pub const EXAMPLES: &str = "Examples:
-  beamsift batch --schedule catalogs/demo-schedule.csv --job catalogs/demo-job.toml --catalog catalogs/demo-steel.csv
-  beamsift batch --schedule catalogs/demo-schedule.csv --job catalogs/demo-job.toml -c catalogs/demo-steel.csv --max-sizes 3
+  beamsift batch --schedule catalogs/demo-schedule.csv --job catalogs/demo-template.toml --catalog catalogs/demo-steel.csv
+  beamsift batch --schedule catalogs/demo-schedule.csv --job catalogs/demo-template.toml -c catalogs/demo-steel.csv --max-sizes 3
 
-The job file is a template: its material, grades, lateral bracing and combination
-presets apply to every member; its beam and loads are not used.";
+The job file is a template: its material, grades, checks, load cases with their
+combinations, and presets apply to every member. It need not hold a [beam] or
+[[load]] tables; where it does they are not used (each member's spans, supports
+and loads come from the schedule), and the output says so.";
 
 #[derive(clap::Args, Debug)]
 pub struct Args {
@@ -68,6 +70,8 @@ struct BatchResult {
     schedule: batch::Schedule,
     #[serde(flatten)]
     prices: Prices,
+    #[serde(skip_serializing_if = "job::Project::is_empty")]
+    project: job::Project,
     caution: &'static str,
 }
 
@@ -75,7 +79,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     let sys = out.units;
     let shown = a.job.display().to_string();
     let text = beamsift::job::read_text(&a.job, &shown)?;
-    let template = job::from_toml(&text, &shown)?;
+    let template = job::template_from_toml(&text, &shown)?;
     if template.presets.1.is_some() && (a.limit_live.is_some() || a.limit_total.is_some()) {
         return Err(Error::msg(format!(
             "the template's [presets] service = \"{}\" sets the deflection limits: remove it from {shown}, or leave out --limit-live/--limit-total",
@@ -137,6 +141,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         rationalising: a.max_sizes.is_some(),
         prices: &prices,
         excluded: template.criteria.exclude.list(),
+        project: &template.project,
     };
     let doc = document(&schedule, &view);
     let data = report::batch::data(&schedule, &view, &doc);
@@ -152,6 +157,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     let result = BatchResult {
         schedule,
         prices,
+        project: template.project.clone(),
         caution: report::CAUTION,
     };
     emit_data(out, &result, &doc, &data)?;

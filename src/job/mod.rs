@@ -131,16 +131,77 @@ pub const MAX_COMBINATIONS: usize = 2_000;
 
 /// Read a job from TOML text; `file` names it in errors.
 pub fn from_toml(text: &str, file: &str) -> Result<Job> {
+    read_job(text, file, false).map(|(job, _)| job)
+}
+
+/// Read a schedule's template job: its material, grades, criteria,
+/// presets, currency, project, and load cases with their combinations
+/// (each case taken by its category). It need not be a member: `[beam]`
+/// and `[[load]]` may be left out. Where they are given they are read
+/// and checked as in any job but not used (every member's spans and
+/// loads come from the schedule). Without a
+/// `[beam]` the returned job's beam is a placeholder of one 1 m span that
+/// holds only the cases and combinations: it is never analysed. The
+/// job's notes (which every member carries) say what was not used.
+pub fn template_from_toml(text: &str, file: &str) -> Result<Job> {
+    let (mut job, unused) = read_job(text, file, true)?;
+    job.notes.extend(unused);
+    Ok(job)
+}
+
+fn read_job(text: &str, file: &str, template: bool) -> Result<(Job, Vec<String>)> {
     let src = Source { file, text };
     let raw = parse(&src)?;
     within_limits(&src, &raw)?;
     let mut notes = Vec::new();
-    let mut beam = beam::beam(&src, &raw.beam)?;
+    let mut unused = Vec::new();
+    let mut beam = match (&raw.beam, template) {
+        (Some(b), _) => beam::beam(&src, b)?,
+        (None, true) => crate::beam::model::Beam::new(
+            vec![1000.0],
+            vec![
+                crate::beam::model::Support::Pinned,
+                crate::beam::model::Support::Pinned,
+            ],
+        ),
+        (None, false) => {
+            return Err(Error::input(
+                Location::in_file(file).with_field("beam"),
+                "the job has no [beam] table: add one with spans = [...] and supports = [...]",
+            ));
+        }
+    };
     let material = material::parse_material(&src, &raw.material, "material", &mut notes)?;
     let grades = material::grades(&src, raw.materials.as_ref(), &material)?;
-    let explicit_pattern = beam::cases(&src, &mut beam, &raw.case)?;
-    let loads = loads::loads(&src, &mut beam, &raw.load)?;
+    // A template may leave the cases out: a schedule's columns are dead,
+    // live and snow loads, each its own case.
+    let explicit_pattern = if template && raw.case.is_empty() {
+        for c in [
+            crate::beam::model::Category::Dead,
+            crate::beam::model::Category::Live,
+            crate::beam::model::Category::Snow,
+        ] {
+            beam.case(c.name(), c);
+        }
+        beam.self_weight_case = Some(0);
+        vec![false; 3]
+    } else {
+        beam::cases(&src, &mut beam, &raw.case)?
+    };
+    let loads = if template && raw.beam.is_none() {
+        if let Some(l) = raw.load.first() {
+            return src.err(
+                l.case.span(),
+                "load",
+                "a template without a [beam] cannot place loads: every member's loads come from the schedule, so remove the [[load]] tables (or add the [beam] they were written for)",
+            );
+        }
+        Vec::new()
+    } else {
+        loads::loads(&src, &mut beam, &raw.load)?
+    };
     combinations::combinations(&src, &mut beam, &raw.combination)?;
+    let before_presets = notes.len();
     combinations::presets(
         &src,
         &mut beam,
@@ -148,13 +209,28 @@ pub fn from_toml(text: &str, file: &str) -> Result<Job> {
         &explicit_pattern,
         &mut notes,
     )?;
-    combinations::need_strength(&src, &beam)?;
+    if template {
+        // Each member applies the presets to its own cases and says so.
+        notes.truncate(before_presets);
+    } else {
+        combinations::need_strength(&src, &beam)?;
+    }
     let criteria = checks::criteria(&src, raw.checks.as_ref())?;
     checks::refuse_unsuitable(&src, raw.checks.as_ref(), &criteria, &material, &grades)?;
-    if criteria.self_weight && beam.self_weight_case.is_none() {
+    if !template && criteria.self_weight && beam.self_weight_case.is_none() {
         notes.push("no dead load case: the section's self-weight is not included".into());
     }
     loads::validate(&src, &beam, &loads)?;
+    if template && raw.beam.is_some() {
+        unused.push(format!(
+            "the template {file}'s [beam] (spans and supports){}: every member's spans, supports and loads come from the schedule",
+            if raw.load.is_empty() {
+                " is not used".to_string()
+            } else {
+                format!(" and its {} [[load]] table(s) are not used", raw.load.len())
+            }
+        ));
+    }
     let project = raw
         .project
         .as_ref()
@@ -168,7 +244,7 @@ pub fn from_toml(text: &str, file: &str) -> Result<Job> {
             revision: p.revision.clone(),
         })
         .unwrap_or_default();
-    Ok(Job {
+    let job = Job {
         title: raw.title.unwrap_or_else(|| "beam".into()),
         project,
         beam,
@@ -185,7 +261,8 @@ pub fn from_toml(text: &str, file: &str) -> Result<Job> {
                 .and_then(|p| p.service.as_ref().map(|s| s.get_ref().clone())),
         ),
         notes,
-    })
+    };
+    Ok((job, unused))
 }
 
 /// The TOML parsed into the raw tables, refused before parsing when the
@@ -218,9 +295,11 @@ fn within_limits(src: &Source<'_>, raw: &RawJob) -> Result<()> {
     for (what, n, most, span) in [
         (
             "spans",
-            raw.beam.spans.get_ref().len(),
+            raw.beam.as_ref().map_or(0, |b| b.spans.get_ref().len()),
             MAX_SPANS,
-            raw.beam.spans.get_ref().get(MAX_SPANS).map(|s| s.span()),
+            raw.beam
+                .as_ref()
+                .and_then(|b| b.spans.get_ref().get(MAX_SPANS).map(|s| s.span())),
         ),
         ("load cases", raw.case.len(), MAX_CASES, None),
         (

@@ -10,7 +10,7 @@ use toml::Spanned;
 pub struct RawJob {
     pub title: Option<String>,
     pub project: Option<RawProject>,
-    pub beam: RawBeam,
+    pub beam: Option<RawBeam>,
     pub material: RawMaterial,
     #[serde(default)]
     pub case: Vec<RawCase>,

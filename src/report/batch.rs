@@ -2,7 +2,7 @@
 //! the rationalised plan (computed in `search::batch`).
 
 use super::select::{Legend, finish_doc};
-use super::{Align, Document, Table};
+use super::{Align, Block, Document, Table};
 use crate::catalog::Prices;
 use crate::search::Counts;
 use crate::search::batch::{BoqLine, Costs, Cutting, Schedule};
@@ -21,6 +21,8 @@ pub struct BatchView<'a> {
     pub rationalising: bool,
     pub prices: &'a Prices,
     pub excluded: Vec<String>,
+    /// The template's title block (`[project]`), shown where given.
+    pub project: &'a crate::job::Project,
 }
 
 pub fn bill_table(title: &str, bill: &[BoqLine], sys: System, cur: &Prices) -> Table {
@@ -74,6 +76,10 @@ pub fn document(s: &Schedule, v: &BatchView<'_>) -> Document {
     let sys = v.sys;
     let objective = if v.by_cost { "cost" } else { "mass" };
     let mut doc = Document::new(format!("Schedule {}", v.schedule));
+    if !v.project.is_empty() {
+        doc.blocks
+            .push(Block::TitleBlock(super::calc::title_block(v.project)));
+    }
     doc.para(format!(
         "{} member mark(s) sized against {} section(s){}{}; template {} ({}).",
         s.members.len(),

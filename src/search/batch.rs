@@ -85,6 +85,9 @@ pub fn size(
             let mut unverified: Vec<(usize, crate::check::Summary)> = Vec::new();
             for (j, r) in rows.iter().enumerate() {
                 if m.max_depth.is_some_and(|d| r.depth > d * (1.0 + 1e-12))
+                    || m.grade
+                        .as_ref()
+                        .is_some_and(|g| !r.grade.eq_ignore_ascii_case(g))
                     || filters
                         .max_depth
                         .is_some_and(|d| r.depth > d * (1.0 + 1e-12))

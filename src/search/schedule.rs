@@ -4,7 +4,11 @@
 //! `mark`, `count`, `spans [m]` (`;`-separated), `supports`
 //! (`;`-separated; default pinned at every node), `dead [kN/m]`,
 //! `live [kN/m]`, `snow [kN/m]` (uniform over the member),
-//! `dead_point [kN]`, `live_point [kN]` with `point_at [m]`,
+//! `dead_point [kN]`, `live_point [kN]`, `snow_point [kN]` with
+//! `point_at [m]` (`;`-lists: one position per point, each load column
+//! one value per position, 0 where that category has none; positions
+//! from the left end of the member), `grade` (a grade the template
+//! defines: the member is sized only from catalogue rows of that grade),
 //! `max_depth [mm]`, `bracing` (`continuous`, `supports` or a spacing with
 //! its unit), `service` (`floor` or `roof` preset for this member),
 //! `length [m]` (for quantities; default the sum of the spans).
@@ -25,6 +29,9 @@ pub struct Member {
     pub length: f64,
     pub job: Job,
     pub max_depth: Option<f64>,
+    /// The grade the member must be (a template grade, as spelled there):
+    /// only catalogue rows of this grade are considered.
+    pub grade: Option<String>,
     pub line: u64,
 }
 
@@ -41,10 +48,11 @@ enum SCol {
     Bracing,
     Service,
     Length(f64),
+    Grade,
     Note,
 }
 
-const KNOWN: &str = "mark, count, spans [m], supports, dead [kN/m], live [kN/m], snow [kN/m], dead_point [kN], live_point [kN], point_at [m], max_depth [mm], bracing, service (floor or roof), length [m]";
+const KNOWN: &str = "mark, count, spans [m], supports, dead [kN/m], live [kN/m], snow [kN/m], dead_point [kN], live_point [kN], snow_point [kN], point_at [m] (';'-lists), grade, max_depth [mm], bracing, service (floor or roof), length [m]";
 
 /// Read a schedule; every bad row is reported. `template` supplies the
 /// material, grades, criteria and combination presets.
@@ -155,6 +163,8 @@ pub fn read_schedule_at<R: Read>(
             "snow" => unit_of(Dim::LineLoad).map(|f| SCol::Uniform(Category::Snow, f)),
             "dead_point" => unit_of(Dim::Force).map(|f| SCol::Point(Category::Dead, f)),
             "live_point" => unit_of(Dim::Force).map(|f| SCol::Point(Category::Live, f)),
+            "snow_point" => unit_of(Dim::Force).map(|f| SCol::Point(Category::Snow, f)),
+            "grade" => Ok(SCol::Grade),
             "point_at" => unit_of(Dim::Length).map(SCol::PointAt),
             "max_depth" => unit_of(Dim::Length).map(SCol::MaxDepth),
             "bracing" => Ok(SCol::Bracing),
@@ -276,8 +286,10 @@ fn member_of(
     let mut spans = Vec::new();
     let mut supports: Option<Vec<Support>> = None;
     let mut uniform: Vec<(Category, f64)> = Vec::new();
-    let mut points: Vec<(Category, f64)> = Vec::new();
-    let mut point_at = None;
+    // Point loads: (category, values, column) and the positions.
+    let mut points: Vec<(Category, Vec<f64>, usize)> = Vec::new();
+    let mut point_at: Option<(Vec<f64>, usize, f64)> = None;
+    let mut grade: Option<String> = None;
     let mut max_depth = None;
     let mut bracing = None;
     let mut service: Option<String> = None;
@@ -333,8 +345,48 @@ fn member_of(
                 )
             }
             SCol::Uniform(c, f) => uniform.push((c, num(cell)? * f)),
-            SCol::Point(c, f) => points.push((c, num(cell)? * f)),
-            SCol::PointAt(f) => point_at = Some(num(cell)? * f),
+            SCol::Point(c, f) => {
+                let mut v = Vec::new();
+                for s in cell.split(';') {
+                    v.push(num(s.trim())? * f);
+                }
+                points.push((c, v, i));
+            }
+            SCol::PointAt(f) => {
+                let mut v = Vec::new();
+                for s in cell.split(';') {
+                    let x = num(s.trim())? * f;
+                    if x < 0.0 {
+                        return Err(fail(format!(
+                            "position '{}' is negative: positions are measured from the left end of the member",
+                            s.trim()
+                        )));
+                    }
+                    v.push(x);
+                }
+                point_at = Some((v, i, f));
+            }
+            SCol::Grade => {
+                let g = template
+                    .grades
+                    .iter()
+                    .find(|(n, _)| n.eq_ignore_ascii_case(cell))
+                    .ok_or_else(|| {
+                        let known: Vec<&str> =
+                            template.grades.iter().map(|(n, _)| n.as_str()).collect();
+                        fail(if known.is_empty() {
+                            format!(
+                                "grade '{cell}': the template defines no grades ([materials.NAME] tables)"
+                            )
+                        } else {
+                            format!(
+                                "grade '{cell}': the template defines no such grade (expected one of [{}])",
+                                known.join(", ")
+                            )
+                        })
+                    })?;
+                grade = Some(g.0.clone());
+            }
             SCol::MaxDepth(f) => {
                 let v = num(cell)? * f;
                 if !(1.0..=100_000.0).contains(&v) {
@@ -369,10 +421,18 @@ fn member_of(
     let supports = supports.unwrap_or_else(|| vec![Support::Pinned; spans.len() + 1]);
     let mut beam = Beam::new(spans, supports);
     let total = beam.length();
+    // A member's case of a category takes the template's pattern for
+    // that category (e.g. live load patterned by span or not).
     let case_of = |beam: &mut Beam, c: Category| -> usize {
         match beam.cases.iter().position(|k| k.category == c) {
             Some(i) => i,
-            None => beam.case(c.name(), c),
+            None => {
+                let i = beam.case(c.name(), c);
+                if let Some(t) = template.beam.cases.iter().find(|k| k.category == c) {
+                    beam.cases[i].pattern = t.pattern;
+                }
+                i
+            }
         }
     };
     let d = case_of(&mut beam, Category::Dead);
@@ -389,13 +449,66 @@ fn member_of(
             },
         );
     }
-    for (c, p) in points {
-        let x = point_at.ok_or((
-            0,
-            Error::msg(format!("member '{mark}' has a point load but no point_at")),
-        ))?;
-        let ci = case_of(&mut beam, c);
-        beam.load(ci, LoadKind::Point { x, p });
+    match (&point_at, points.first()) {
+        (None, Some(&(_, _, i))) => {
+            return Err((
+                i,
+                Error::msg(format!(
+                    "member '{mark}' has a point load but no point_at: give its position from the left end"
+                ))
+                .in_field(headers.get(i).map_or("", String::as_str)),
+            ));
+        }
+        (Some((_, i, _)), None) => {
+            return Err((
+                *i,
+                Error::msg(format!(
+                    "member '{mark}' gives point_at but no point load: fill dead_point, live_point or snow_point, or leave point_at empty"
+                ))
+                .in_field(headers.get(*i).map_or("", String::as_str)),
+            ));
+        }
+        _ => {}
+    }
+    if let Some((xs, xi, f)) = &point_at {
+        for (_, v, i) in &points {
+            if v.len() != xs.len() {
+                return Err((
+                    *i,
+                    Error::msg(format!(
+                        "{} value(s) for {} position(s) in point_at: give one value per position, separated by ';' (0 where there is none)",
+                        v.len(),
+                        xs.len()
+                    ))
+                    .in_field(headers.get(*i).map_or("", String::as_str)),
+                ));
+            }
+        }
+        if let Some(x) = xs.iter().find(|x| **x > total * (1.0 + 1e-12)) {
+            // In the column's own unit, as typed in its header.
+            let h = headers.get(*xi).map_or("", String::as_str);
+            let unit = match (h.find('['), h.rfind(']')) {
+                (Some(a), Some(b)) if b > a => h[a + 1..b].trim(),
+                _ => "",
+            };
+            return Err((
+                *xi,
+                Error::msg(format!(
+                    "a point load at {} {unit} lies beyond the end of the member, {} {unit} long",
+                    units::fmt_num(*x / f),
+                    units::fmt_num(total / f)
+                ))
+                .in_field(h),
+            ));
+        }
+        for (c, v, _) in points {
+            let ci = case_of(&mut beam, c);
+            for (&x, p) in xs.iter().zip(v) {
+                if p != 0.0 {
+                    beam.load(ci, LoadKind::Point { x: x.min(total), p });
+                }
+            }
+        }
     }
     // The template's own combinations apply to every member, each case
     // taken by its category (the schedule's columns are dead, live and
@@ -451,6 +564,12 @@ fn member_of(
         n_total,
     )
     .map_err(|e| (0, e))?;
+    notes.splice(0..0, template.notes.iter().cloned());
+    if let Some(g) = &grade {
+        notes.push(format!(
+            "grade {g} (schedule column): sized only from catalogue rows of grade {g}"
+        ));
+    }
     if !own.is_empty() {
         notes.push(format!(
             "the template's {} combination(s) apply, each case taken by its category",
@@ -479,6 +598,7 @@ fn member_of(
         length: length.unwrap_or(total),
         job,
         max_depth,
+        grade,
         line: 0,
     })
 }
