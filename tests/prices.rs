@@ -277,3 +277,76 @@ fn bad_percentages_are_refused() {
         assert!(err.contains(says), "{err}");
     }
 }
+
+#[test]
+fn an_empty_price_column_says_no_prices_and_a_partial_one_partly() {
+    // The header has a price column but no row fills it: the prices are
+    // judged by the rows checked, not by the header, so select and
+    // shortlist say "none" as for a catalogue without the column, and
+    // --rank cost is refused (exit 2).
+    let dir = tempfile::tempdir().unwrap();
+    let empty = write(
+        dir.path(),
+        "e.csv",
+        "# invented sizes for the test\n\
+         name,grade,shape,b [mm],d [mm],cost [EUR/m]\n\
+         G100x300,G1,rect,100,300,\n\
+         G100x350,G1,rect,100,350,\n",
+    );
+    let v = select_json("catalogs/demo-joists.toml", &empty, "mass");
+    assert_eq!(v["prices"], "none", "{v}");
+    assert!(v["currency"].is_null(), "{}", v["currency"]);
+    let o = run(&[
+        "shortlist",
+        "--job",
+        repo("catalogs/demo-joists.toml").to_str().unwrap(),
+        "-c",
+        &empty,
+        "--json",
+    ]);
+    let (out, err) = text(&o);
+    assert!(matches!(o.status.code(), Some(0 | 1)), "{err}");
+    let s: Value = serde_json::from_str(&out).unwrap();
+    assert_eq!(s["prices"], "none", "{s}");
+    let o = run(&[
+        "select",
+        "--job",
+        repo("catalogs/demo-joists.toml").to_str().unwrap(),
+        "-c",
+        &empty,
+        "--rank",
+        "cost",
+    ]);
+    let (out, err) = text(&o);
+    assert_eq!(o.status.code(), Some(2), "{out}{err}");
+    assert!(err.contains("no prices"), "{err}");
+    // One of two rows priced: "partly given", the priced row ranks first
+    // by cost even though it is the heavier (100 × 350 against 100 × 300:
+    // both pass the demo joist job), and the note says how the unpriced
+    // one ranks.
+    let partly = write(
+        dir.path(),
+        "p.csv",
+        "# invented sizes and price for the test\n\
+         name,grade,shape,b [mm],d [mm],cost [EUR/m]\n\
+         G100x300,G1,rect,100,300,\n\
+         G100x350,G1,rect,100,350,25.00\n",
+    );
+    let v = select_json("catalogs/demo-joists.toml", &partly, "cost");
+    assert_eq!(v["prices"], "partly given", "{v}");
+    let passing = v["passing"].as_array().unwrap();
+    assert_eq!(passing.len(), 2, "{v}");
+    assert_eq!(passing[0]["name"], "G100x350", "{v}");
+    assert_eq!(passing[1]["name"], "G100x300", "{v}");
+    let o = run(&[
+        "select",
+        "--job",
+        repo("catalogs/demo-joists.toml").to_str().unwrap(),
+        "-c",
+        &partly,
+        "--rank",
+        "cost",
+    ]);
+    let (out, _) = text(&o);
+    assert!(out.contains("they rank after every priced row"), "{out}");
+}

@@ -135,7 +135,7 @@ impl Prices {
             if !s.is_empty() {
                 s.push(' ');
             }
-            s.push_str("Some rows have no price: a total that includes one is not given.");
+            s.push_str("Some rows have no price: by cost they rank after every priced row, and a total that includes one is not given.");
         }
         (!s.is_empty()).then_some(s)
     }

@@ -149,6 +149,8 @@ pub fn run_scan(
     let open = || cat.open().map(|(c, _)| c);
     let sel = search::scan_checked(prep, &open, &mats, opts, &|_, b| pb.set_position(b))?;
     pb.finish_and_clear();
+    // Judged by the rows checked, not the headers alone.
+    let prices = search::scan_prices(prices, &sel.counts);
     Ok((sel, prices))
 }
 

@@ -325,6 +325,9 @@ pub fn select_document(result: &SelectResult<'_>, v: &SelectView<'_>) -> Documen
         doc.table(t);
     }
     doc.para(counts_line(sel, v.skip_bad_rows));
+    if let Some(n) = cur.note().filter(|_| cur.any()) {
+        doc.para(n);
+    }
     let rank_word = match result.rank {
         Rank::Mass => "lightest first",
         Rank::Cost => "cheapest first",
@@ -475,6 +478,9 @@ pub fn shortlist_document(
         Show::Span.fmt(total_len, sys),
         counts_line(sel, skip_bad_rows)
     ));
+    if let Some(n) = cur.note().filter(|_| cur.any()) {
+        doc.para(n);
+    }
     let mut legend = Legend::default();
     let w = if sys == System::Si { "kg" } else { "lb" };
     let wf = if sys == System::Si {

@@ -174,6 +174,20 @@ pub struct Counts {
     pub not_verified: u64,
     pub filtered: u64,
     pub bad: u64,
+    /// Checked rows with a price (what the prices of a scan are judged
+    /// by: a price column whose cells are all empty gives no prices).
+    pub priced: u64,
+}
+
+/// The prices of a scan from its catalogues' headers (`header`) and the
+/// rows it checked: none when no checked row has a price, partly given
+/// when some lack one (the headers alone when no row was checked).
+pub fn scan_prices(header: crate::catalog::Prices, counts: &Counts) -> crate::catalog::Prices {
+    if counts.checked == 0 {
+        // Nothing checked: the headers are all there is to go by.
+        return header;
+    }
+    header.with_rows(counts.checked as usize, counts.priced as usize)
 }
 
 /// What a scan keeps.

@@ -275,6 +275,7 @@ impl Kept {
                     self.suspect(place, name, line);
                 }
                 self.counts.checked += 1;
+                self.counts.priced += u64::from(cost.is_some());
                 let k = KeyRef {
                     mass,
                     depth,
