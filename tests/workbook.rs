@@ -260,35 +260,50 @@ fn a_bad_cell_is_named_by_its_reference() {
     assert!(!all.contains("stock.xlsx:7:3"), "{all}");
 }
 
+/// A one-sheet workbook ("Sheet1") filled by `fill`, saved in a scratch
+/// folder as stock.xlsx.
+fn book(fill: impl FnOnce(&mut rust_xlsxwriter::Worksheet)) -> (tempfile::TempDir, String) {
+    let dir = scratch();
+    let path = dir.path().join("stock.xlsx");
+    let mut wb = Workbook::new();
+    fill(wb.add_worksheet());
+    wb.save(&path).unwrap();
+    (dir, path_str(&path))
+}
+
 #[test]
 fn true_false_and_date_cells_are_refused_at_their_cell() {
-    let dir = scratch();
-    let book = dir.path().join("stock.xlsx");
-    let mut wb = Workbook::new();
-    let ws = wb.add_worksheet();
-    for (c, h) in ["name", "shape", "b [mm]", "d [mm]", "stock"]
-        .iter()
-        .enumerate()
-    {
-        ws.write_string(0, c as u16, *h).unwrap();
-    }
-    ws.write_string(1, 0, "R1").unwrap();
-    ws.write_string(1, 1, "rect").unwrap();
-    ws.write_number(1, 2, 100.0).unwrap();
-    ws.write_number(1, 3, 200.0).unwrap();
-    ws.write_boolean(1, 4, true).unwrap();
-    ws.write_string(2, 0, "R2").unwrap();
-    ws.write_string(2, 1, "rect").unwrap();
-    let date = ExcelDateTime::from_ymd(2024, 5, 1).unwrap();
-    ws.write_datetime_with_format(2, 2, &date, &Format::new().set_num_format("yyyy-mm-dd"))
-        .unwrap();
-    ws.write_number(2, 3, 200.0).unwrap();
-    wb.save(&book).unwrap();
-    let (code, out, err) = go(&["catalog", "validate", &path_str(&book)]);
-    let all = format!("{out}{err}");
-    assert_eq!(code, 2, "{all}");
+    let (_dir, path) = book(|ws| {
+        for (c, h) in ["name", "shape", "b [mm]", "d [mm]", "stock"]
+            .iter()
+            .enumerate()
+        {
+            ws.write_string(0, c as u16, *h).unwrap();
+        }
+        ws.write_string(1, 0, "R1").unwrap();
+        ws.write_string(1, 1, "rect").unwrap();
+        ws.write_number(1, 2, 100.0).unwrap();
+        ws.write_number(1, 3, 200.0).unwrap();
+        ws.write_boolean(1, 4, true).unwrap();
+        ws.write_string(2, 0, "R2").unwrap();
+        ws.write_string(2, 1, "rect").unwrap();
+        let date = ExcelDateTime::from_ymd(2024, 5, 1).unwrap();
+        ws.write_datetime_with_format(2, 2, &date, &Format::new().set_num_format("yyyy-mm-dd"))
+            .unwrap();
+        ws.write_number(2, 3, 200.0).unwrap();
+    });
+    let all = refused(&path);
     assert!(all.contains("Sheet1!E2") && all.contains("TRUE"), "{all}");
     assert!(all.contains("Sheet1!C3") && all.contains("date"), "{all}");
+}
+
+/// `catalog validate` on a workbook that must be refused (exit 2): all it
+/// printed.
+fn refused(path: &str) -> String {
+    let (code, out, err) = go(&["catalog", "validate", path]);
+    let all = format!("{out}{err}");
+    assert_eq!(code, 2, "{all}");
+    all
 }
 
 #[test]
@@ -427,4 +442,48 @@ fn a_bad_schedule_cell_is_named_by_its_reference() {
     assert_eq!(code, 2, "{out}{err}");
     let cell = format!("members.xlsx: Members!E{}", header + 2);
     assert!(err.contains(&cell), "{err}");
+}
+
+#[test]
+fn an_empty_header_cell_is_named_by_its_reference() {
+    // Header "name, shape, (empty), d [mm]" with a value under the empty
+    // header: the reader cannot tell what the value is, so it refuses the
+    // header at the empty cell (C1) rather than dropping the column.
+    let (_dir, path) = book(|ws| {
+        for (c, h) in [(0, "name"), (1, "shape"), (3, "d [mm]"), (4, "b [mm]")] {
+            ws.write_string(0, c, h).unwrap();
+        }
+        ws.write_string(1, 0, "R1").unwrap();
+        ws.write_string(1, 1, "rect").unwrap();
+        ws.write_number(1, 2, 7.0).unwrap();
+        ws.write_number(1, 3, 200.0).unwrap();
+        ws.write_number(1, 4, 100.0).unwrap();
+    });
+    let all = refused(&path);
+    assert!(all.contains("stock.xlsx: Sheet1!C1"), "{all}");
+}
+
+#[test]
+fn a_formula_error_cell_is_refused_at_its_cell() {
+    // A formula whose saved result is an error (#DIV/0!) in a number
+    // column: refused at the cell, never read as zero or skipped. A
+    // formula with a number as its saved result is read as that number.
+    let (_dir, path) = book(|ws| {
+        for (c, h) in ["name", "shape", "b [mm]", "d [mm]"].iter().enumerate() {
+            ws.write_string(0, c as u16, *h).unwrap();
+        }
+        for (r, name, f, v) in [(1, "R1", "=50*2", "100"), (2, "R2", "=1/0", "#DIV/0!")] {
+            ws.write_string(r, 0, name).unwrap();
+            ws.write_string(r, 1, "rect").unwrap();
+            ws.write_formula(r, 2, rust_xlsxwriter::Formula::new(f).set_result(v))
+                .unwrap();
+            ws.write_number(r, 3, 200.0).unwrap();
+        }
+    });
+    let all = refused(&path);
+    assert!(
+        all.contains("Sheet1!C3") && all.contains("#DIV/0!"),
+        "{all}"
+    );
+    assert!(!all.contains("Sheet1!C2"), "{all}");
 }
