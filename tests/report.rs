@@ -176,11 +176,53 @@ fn report_numbers_agree_with_the_check() {
     let (md, _, r) = build();
     let lines = sheet_lines(&md);
     assert!(!r.lines.is_empty());
-    assert_eq!(lines.len(), r.lines.len(), "one sheet entry per check line");
+    // Every line evaluated is a row of the sheet's table of check lines,
+    // with its utilisation to 3 decimals.
+    let rows: Vec<&str> = md
+        .lines()
+        .filter(|l| l.ends_with(" (governs) |") || l.contains("| governed by "))
+        .collect();
+    assert_eq!(rows.len(), r.lines.len(), "one table row per check line");
+    for l in &r.lines {
+        let want = format!(
+            "| {} | {} | {} | {:.3} | ",
+            l.label,
+            l.combination,
+            l.location(System::Si),
+            l.utilisation
+        );
+        assert!(rows.iter().any(|row| row.starts_with(&want)), "no row {want}");
+    }
+    // Each check at each part is written once, for the line that governs
+    // it: the largest utilisation of that check and part.
+    let mut parts: Vec<(String, String)> = r
+        .lines
+        .iter()
+        .map(|l| (l.label.clone(), l.part_shown(System::Si)))
+        .collect();
+    parts.sort();
+    parts.dedup();
+    assert_eq!(lines.len(), parts.len(), "one written check per check and part");
     // Shown to 4 significant figures, capacities rounded down: within 1e-3
     // relative of the value; utilisations to 3 decimals.
-    for (s, l) in lines.iter().zip(&r.lines) {
-        assert!(s.heading.contains(&l.label), "{} / {}", s.heading, l.label);
+    for s in &lines {
+        let l = r
+            .lines
+            .iter()
+            .find(|l| {
+                s.heading.ends_with(&format!(
+                    " {} — {}, {}",
+                    l.label,
+                    l.combination,
+                    l.location(System::Si)
+                ))
+            })
+            .unwrap_or_else(|| panic!("no check line for {}", s.heading));
+        for other in r.lines.iter().filter(|o| {
+            o.label == l.label && o.part_shown(System::Si) == l.part_shown(System::Si)
+        }) {
+            assert!(other.utilisation <= l.utilisation, "{} does not govern", s.heading);
+        }
         common::close(&format!("{}: demand", s.heading), s.demand, l.demand, 1e-3);
         common::close(
             &format!("{}: capacity", s.heading),
@@ -417,7 +459,7 @@ fn section_numbers_have_no_gaps() {
     assert!(with.contains("Alternatives from the catalogue"));
     // The HTML has the same headings.
     assert_eq!(
-        html.matches("<h2>").count(),
+        html.matches("<h2").count(),
         md.lines().filter(|l| l.starts_with("## ")).count()
     );
 }
@@ -428,7 +470,7 @@ fn section_numbers_have_no_gaps() {
 fn every_check_line_names_its_governing_pattern() {
     let (md, html, r) = build();
     let blocks: Vec<&str> = md.split("\n### ").skip(1).collect();
-    assert_eq!(blocks.len(), r.lines.len());
+    assert!(!blocks.is_empty() && blocks.len() <= r.lines.len());
     for b in &blocks {
         let g = b
             .lines()
@@ -443,7 +485,7 @@ fn every_check_line_names_its_governing_pattern() {
     assert!(md.contains("Governing: combination D+L, load pattern: live on span 1"));
     assert_eq!(
         html.matches("governing: combination ").count(),
-        r.lines.len()
+        blocks.len()
     );
 }
 

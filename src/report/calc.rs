@@ -21,11 +21,16 @@ pub struct WrittenCheck {
     /// in words.
     pub governs: String,
     pub location: String,
+    /// The span, overhang or buckling segment (what a check is grouped by
+    /// over the combinations).
+    pub part: String,
     pub formula: String,
     pub substitution: Vec<String>,
     pub result: String,
     pub allowable: String,
     pub utilisation: String,
+    /// The utilisation as a number (what picks the line written in full).
+    pub ratio: f64,
     pub passes: bool,
 }
 
@@ -109,6 +114,7 @@ pub fn written_checks(r: &MemberCheck, sys: System) -> Vec<WrittenCheck> {
                     ),
                 },
                 location,
+                part: l.part_shown(sys),
                 formula: if w.formula.is_empty() {
                     w.method.clone()
                 } else {
@@ -134,6 +140,7 @@ pub fn written_checks(r: &MemberCheck, sys: System) -> Vec<WrittenCheck> {
                     l.show.fmt(l.capacity, sys),
                     l.utilisation
                 ),
+                ratio: l.utilisation,
                 passes: l.passes,
             }
         })

@@ -61,6 +61,7 @@ border-left:3px solid #666;padding:.4em .8em;margin:.3em 0}.fail{color:#b00;font
 @page{size:auto;margin:15mm 12mm}\
 @media print{body{max-width:none;margin:0;padding:0;font-size:10pt}th{background:none}.calc{background:none}.caution{background:none}\
 h2{break-before:page;page-break-before:always;break-after:avoid;page-break-after:avoid}\
+h2.run-on{break-before:auto;page-break-before:auto;margin-top:1.2em}\
 h3,caption{break-after:avoid;page-break-after:avoid}\
 table,figure,.check,.titleblock{break-inside:avoid;page-break-inside:avoid}\
 *{-webkit-print-color-adjust:economy;print-color-adjust:economy}}";
@@ -78,6 +79,9 @@ pub fn render(doc: &Document) -> String {
     for b in &doc.blocks {
         match b {
             Block::Heading(h) => o.push_str(&format!("<h2>{}</h2>\n", esc(h))),
+            Block::HeadingRunOn(h) => {
+                o.push_str(&format!("<h2 class=\"run-on\">{}</h2>\n", esc(h)))
+            }
             Block::Para(p) => o.push_str(&format!("<p>{}</p>\n", esc(p))),
             Block::Labelled(label, p, tone) => {
                 let text = match tone {

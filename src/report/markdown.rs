@@ -98,7 +98,9 @@ pub fn render(doc: &Document) -> String {
     }
     for b in &doc.blocks {
         match b {
-            Block::Heading(h) => out.push_str(&format!("## {}\n\n", text(h))),
+            Block::Heading(h) | Block::HeadingRunOn(h) => {
+                out.push_str(&format!("## {}\n\n", text(h)))
+            }
             Block::Para(p) => out.push_str(&format!("{}\n\n", text(p))),
             Block::Labelled(label, p, _) => {
                 out.push_str(&format!("**{}** {}\n\n", text(label), text(p)))

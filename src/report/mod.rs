@@ -71,6 +71,9 @@ pub enum Tone {
 #[derive(Clone, Debug)]
 pub enum Block {
     Heading(String),
+    /// A top-level heading of a short section that, printed, follows the
+    /// one before on the same page (a `Heading` starts a new page).
+    HeadingRunOn(String),
     Para(String),
     /// A paragraph led by a bold label ("Section:", "Result:").
     Labelled(String, String, Tone),

@@ -283,7 +283,21 @@ pub fn document(s: &Sheet) -> Document {
     let mut n = 0;
     let mut heading = |d: &mut Document, title: &str| -> usize {
         n += 1;
-        d.heading(format!("{n}. {title}"));
+        // The short closing sections share the printed page of the
+        // methods and sources.
+        let text = format!("{n}. {title}");
+        if matches!(
+            title,
+            "Assumptions"
+                | "Not verified"
+                | "Excluded by the user"
+                | "Not checked (outside beamsift)"
+                | "Notes"
+        ) {
+            d.blocks.push(Block::HeadingRunOn(text));
+        } else {
+            d.heading(text);
+        }
         n
     };
     heading(&mut d, "Member, loads and combinations");
@@ -296,18 +310,7 @@ pub fn document(s: &Sheet) -> Document {
         d.blocks.push(Block::Figure(f.clone()));
     }
     let k = heading(&mut d, "Checks");
-    for (i, c) in s.checks.iter().enumerate() {
-        d.blocks.push(Block::Check(
-            format!(
-                "{k}.{} {} — {}, {}",
-                i + 1,
-                c.check,
-                c.combination,
-                c.location
-            ),
-            c.clone(),
-        ));
-    }
+    checks(&mut d, k, &s.checks);
     if s.alternatives.is_some() || s.near_misses.is_some() {
         heading(&mut d, "Alternatives from the catalogue");
         if let Some(t) = &s.alternatives {
@@ -351,6 +354,85 @@ pub fn document(s: &Sheet) -> Document {
     d.blocks
         .push(Block::Footer(format!("Prepared with {}.", s.generator)));
     d
+}
+
+/// The checks section: every line evaluated, under every combination, in
+/// one table grouped by check and place; then, for each check at each
+/// span, overhang or segment, the line that governs it (the largest
+/// utilisation over the combinations; the first of equals) written out in
+/// full, numbered `k.1`, `k.2`, … The
+/// table names where each line is written or which written line governs
+/// it, so nothing evaluated is left out of the sheet.
+fn checks(d: &mut Document, k: usize, all: &[calc::WrittenCheck]) {
+    // Groups (check, part) in the order they first appear, each with the
+    // index of its governing line.
+    let mut groups: Vec<(&str, &str, usize)> = Vec::new();
+    let mut group_of = Vec::with_capacity(all.len());
+    for (i, c) in all.iter().enumerate() {
+        let g = match groups
+            .iter()
+            .position(|(ch, p, _)| *ch == c.check && *p == c.part)
+        {
+            Some(g) => g,
+            None => {
+                groups.push((&c.check, &c.part, i));
+                groups.len() - 1
+            }
+        };
+        let best = &mut groups[g].2;
+        if c.ratio > all[*best].ratio {
+            *best = i;
+        }
+        group_of.push(g);
+    }
+    d.para(format!(
+        "{} check line(s) were evaluated: every check, under every combination, at each span, overhang and buckling segment. The table lists them all, grouped by check and place; below it, the line that governs each check at each place (the largest utilisation over the combinations) is written out in full, {} in all.",
+        all.len(),
+        groups.len()
+    ));
+    let mut t = Table::new(
+        "Every check line",
+        &[
+            ("Check", Align::Left),
+            ("Combination", Align::Left),
+            ("Where", Align::Left),
+            ("Utilisation", Align::Right),
+            ("Result", Align::Left),
+            ("Written in full", Align::Left),
+        ],
+    );
+    // Grouped by the written check, combinations in their order.
+    let mut order: Vec<usize> = (0..all.len()).collect();
+    order.sort_by_key(|&i| group_of[i]);
+    for i in order {
+        let (c, g) = (&all[i], group_of[i]);
+        t.row(vec![
+            c.check.clone(),
+            c.combination.clone(),
+            c.location.clone(),
+            format!("{:.3}", c.ratio),
+            if c.passes { "passes" } else { "FAILS" }.into(),
+            if groups[g].2 == i {
+                format!("{k}.{} (governs)", g + 1)
+            } else {
+                format!("governed by {k}.{}", g + 1)
+            },
+        ]);
+    }
+    d.table(t);
+    for (g, (_, _, i)) in groups.iter().enumerate() {
+        let c = &all[*i];
+        d.blocks.push(Block::Check(
+            format!(
+                "{k}.{} {} — {}, {}",
+                g + 1,
+                c.check,
+                c.combination,
+                c.location
+            ),
+            c.clone(),
+        ));
+    }
 }
 
 /// The sheet as self-contained Markdown (figures as data-URI images).

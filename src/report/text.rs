@@ -86,7 +86,7 @@ pub fn render(doc: &Document) -> String {
     }
     for b in &doc.blocks {
         match b {
-            Block::Heading(h) => {
+            Block::Heading(h) | Block::HeadingRunOn(h) => {
                 out.push_str(h);
                 out.push('\n');
             }
