@@ -191,7 +191,10 @@ fn report_numbers_agree_with_the_check() {
             l.location(System::Si),
             l.utilisation
         );
-        assert!(rows.iter().any(|row| row.starts_with(&want)), "no row {want}");
+        assert!(
+            rows.iter().any(|row| row.starts_with(&want)),
+            "no row {want}"
+        );
     }
     // Each check at each part is written once, for the line that governs
     // it: the largest utilisation of that check and part.
@@ -202,7 +205,11 @@ fn report_numbers_agree_with_the_check() {
         .collect();
     parts.sort();
     parts.dedup();
-    assert_eq!(lines.len(), parts.len(), "one written check per check and part");
+    assert_eq!(
+        lines.len(),
+        parts.len(),
+        "one written check per check and part"
+    );
     // Shown to 4 significant figures, capacities rounded down: within 1e-3
     // relative of the value; utilisations to 3 decimals.
     for s in &lines {
@@ -218,10 +225,16 @@ fn report_numbers_agree_with_the_check() {
                 ))
             })
             .unwrap_or_else(|| panic!("no check line for {}", s.heading));
-        for other in r.lines.iter().filter(|o| {
-            o.label == l.label && o.part_shown(System::Si) == l.part_shown(System::Si)
-        }) {
-            assert!(other.utilisation <= l.utilisation, "{} does not govern", s.heading);
+        for other in r
+            .lines
+            .iter()
+            .filter(|o| o.label == l.label && o.part_shown(System::Si) == l.part_shown(System::Si))
+        {
+            assert!(
+                other.utilisation <= l.utilisation,
+                "{} does not govern",
+                s.heading
+            );
         }
         common::close(&format!("{}: demand", s.heading), s.demand, l.demand, 1e-3);
         common::close(
