@@ -1,5 +1,6 @@
 //! Duplicate names: the Bloom filter the scan enters every name in, the
-//! suspects it flags, and their exact confirmation by a second reading.
+//! repeats it leads to, and their exact confirmation by a second reading
+//! where the one reading cannot settle them (see `scan::scan_checked`).
 
 use super::scan::Outcome;
 use crate::catalog::read::{Catalog, Chunk};
@@ -15,16 +16,14 @@ use std::io::Read;
 /// the most). One word per name means one memory access and an atomic
 /// `fetch_or`, so the worker threads insert in parallel, and of two equal
 /// names the later insert always sees the earlier's bits (no duplicate is
-/// missed). A hit only makes a name a suspect; suspects are confirmed
-/// exactly by a second reading of the file (`confirm_duplicates`), which
-/// therefore happens only when a name repeats or the filter errs. Rows of
+/// missed). A hit only makes a name a suspect: the scan compares it with
+/// the names it keeps, and only a reported row flagged with no kept row of
+/// its name is confirmed by a second reading (`confirm_duplicates`). Rows of
 /// ~54 bytes give about 0.15 names per word below the cap, a false flag per
 /// row of about (1 − e^(−8·0.15/64))^8 ≈ 10⁻¹⁴; at the cap with n names,
 /// (1 − e^(−8n/2²⁸))^8: 5·10⁻¹³ at 1 M rows (none expected below about 3 M
-/// rows), 2·10⁻⁵ at 10 M (about 200 suspects, one extra reading of names
-/// only). Beyond `SUSPECT_CAP` suspects (a file in which more than 100,000
-/// names repeat) the confirmation checks every name and memory then grows
-/// with the catalogue.
+/// rows), 2·10⁻⁵ at 10 M (about 200 suspects, each only compared with the
+/// kept names).
 pub(super) struct Bloom {
     words: Vec<std::sync::atomic::AtomicU64>,
     /// Words − 1 (a power of two less one).
@@ -119,8 +118,18 @@ impl Bloom {
     }
 }
 
-/// Most suspects kept per file before the confirmation checks every name.
+/// Most suspects or repeats held (sweeps: per file) before the confirmation
+/// checks every name (sweeps) or every reported name (scans).
 pub(super) const SUSPECT_CAP: usize = 100_000;
+
+/// A name that repeats: (file index, name, its first line, this line).
+#[derive(Clone, Debug, Serialize)]
+pub struct Repeat {
+    pub file: usize,
+    pub name: String,
+    pub first: u64,
+    pub line: u64,
+}
 
 /// A name the Bloom filter flagged: (file index, name, line).
 #[derive(Clone, Debug, Serialize)]
@@ -152,30 +161,61 @@ pub(crate) fn find_repeats<R: Read>(
         lines: HashSet::new(),
         total: 0,
     };
+    repeats_of(catalogs, flagged, keep, |place, r| {
+        if want_lines {
+            rep.lines.insert((r.file, r.line));
+        }
+        rep.total += 1;
+        if rep.errors.len() < 1000 {
+            rep.errors.push(repeat_error(place, &r));
+        }
+    })?;
+    Ok(rep)
+}
+
+/// Read each catalogue's flagged names again and hand every repeat (its
+/// file's place and name column, and the repeat) to `found`, in file
+/// order.
+pub(crate) fn repeats_of<R: Read>(
+    catalogs: Vec<Catalog<R>>,
+    flagged: impl Fn(usize) -> (HashSet<String>, bool),
+    keep: impl Fn(&crate::catalog::Schema, &crate::catalog::records::Record<'_>) -> bool + Copy,
+    mut found: impl FnMut(&(crate::error::Location, usize), Repeat),
+) -> Result<()> {
     for (fi, cat) in catalogs.into_iter().enumerate() {
         let (names, all) = flagged(fi);
         if names.is_empty() && !all {
             continue;
         }
-        let at = cat.at.clone();
-        let name_col = cat.schema.name_column();
+        let place = (cat.at.clone(), cat.schema.name_column());
         confirm_duplicates(cat, (!all).then_some(&names), keep, |name, line, first| {
-            if want_lines {
-                rep.lines.insert((fi, line));
-            }
-            rep.total += 1;
-            if rep.errors.len() < 1000 {
-                rep.errors.push(Error::input(
-                    at.clone().with_line(line).with_column(name_col as u64 + 1),
-                    format!(
-                        "duplicate section name '{name}' (first on {})",
-                        at.line_text(first)
-                    ),
-                ));
-            }
+            found(
+                &place,
+                Repeat {
+                    file: fi,
+                    name: name.to_string(),
+                    first,
+                    line,
+                },
+            )
         })?;
     }
-    Ok(rep)
+    Ok(())
+}
+
+/// The error of a repeated name at its line, naming the first.
+pub(crate) fn repeat_error(place: &(crate::error::Location, usize), r: &Repeat) -> Error {
+    let (at, name_col) = place;
+    Error::input(
+        at.clone()
+            .with_line(r.line)
+            .with_column(*name_col as u64 + 1),
+        format!(
+            "duplicate section name '{}' (first on {})",
+            r.name,
+            at.line_text(r.first)
+        ),
+    )
 }
 
 /// The refusal of a catalogue whose names repeat.

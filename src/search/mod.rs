@@ -21,7 +21,7 @@ mod rank;
 mod scan;
 
 use duplicates::{Bloom, SUSPECT_CAP};
-pub use duplicates::{Suspect, confirm_duplicates};
+pub use duplicates::{Repeat, Suspect, confirm_duplicates};
 pub(crate) use duplicates::{find_repeats, refuse_repeats};
 pub use filters::{Filters, glob};
 pub use load::load_rows;
@@ -202,10 +202,21 @@ pub struct Selection {
     /// Problems in skipped rows (the first 100).
     pub skipped: Vec<String>,
     pub files: Vec<String>,
-    /// Names that may be duplicates (confirmed by `scan_checked`).
-    pub suspects: Vec<Suspect>,
-    /// Files with more than `SUSPECT_CAP` suspects: confirm every name.
-    pub check_all_names: Vec<usize>,
+    /// Reported rows whose name repeats another row's, found in the one
+    /// reading (both lines known).
+    #[serde(skip)]
+    pub repeats: Vec<Repeat>,
+    /// Reported rows the duplicate filter flagged that no kept row
+    /// explains: they may repeat an earlier, unreported row (confirmed by
+    /// `scan_checked` where the input can be read again).
+    #[serde(skip)]
+    pub doubt: Vec<Suspect>,
+    /// Each file's place and name column (for the repeats' errors).
+    #[serde(skip)]
+    pub places: Vec<(crate::error::Location, usize)>,
+    /// Rows the duplicate filter flagged in all (possible repeats of an
+    /// earlier name; only those among the reported rows are confirmed).
+    pub flagged: u64,
 }
 
 impl Selection {

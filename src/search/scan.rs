@@ -4,7 +4,7 @@
 //! scan keeps (`Kept`), then finished into a `Selection`. Also the scan
 //! with exact duplicate detection (`scan_checked`).
 
-use super::duplicates::{Bloom, SUSPECT_CAP, Suspect, find_repeats, refuse_repeats};
+use super::duplicates::{Bloom, Repeat, SUSPECT_CAP, Suspect, refuse_repeats, repeat_error};
 use super::rank::{KeyRef, compare, dominated, dominated_by, near_insert};
 use super::{Candidate, Counts, Rank, ScanOptions, Selection, TopList, to_candidate};
 use crate::catalog::read::Catalog;
@@ -13,7 +13,7 @@ use crate::catalog::{Materials, Schema, parse_row};
 use crate::check::{Prepared, SectionInput, Summary, Verdict};
 use crate::error::{Error, Location, Result};
 use rayon::prelude::*;
-use std::collections::HashSet;
+use std::collections::{HashMap, HashSet};
 use std::io::Read;
 use std::sync::mpsc::{Receiver, SyncSender};
 
@@ -37,8 +37,9 @@ pub(super) enum Outcome<'r> {
 
 /// Scan catalogues against a prepared job. `progress` is called after
 /// each chunk with the rows and bytes read so far (over all files). Rows in
-/// `exclude` ((file, line)) are skipped as bad. Names the duplicate filter
-/// flags are returned as suspects for `confirm_duplicates`.
+/// `exclude` ((file, line)) are skipped as bad. Repeats of the reported
+/// names found in the reading, and reported rows in doubt, are returned
+/// for `scan_checked`.
 pub fn scan<R: Read + Send>(
     prep: &Prepared,
     catalogs: Vec<Catalog<R>>,
@@ -94,6 +95,8 @@ fn scan_file<R: Read + Send>(
     progress: &(dyn Fn(u64, u64) + Sync),
 ) -> Result<u64> {
     kept.files.push(cat.file.clone());
+    kept.places.push((cat.at.clone(), cat.schema.name_column()));
+    kept.names.push(HashMap::new());
     let bloom = Bloom::for_input(cat.size_hint);
     let schema = cat.schema.clone();
     let at = cat.at.clone();
@@ -104,7 +107,6 @@ fn scan_file<R: Read + Send>(
         fi,
         at: &at,
         schema: &schema,
-        suspects: 0,
     };
     let read_bytes = std::thread::scope(|sc| -> Result<u64> {
         let (tx, rx) = std::sync::mpsc::sync_channel::<Result<Block>>(2);
@@ -203,13 +205,11 @@ fn check_record<'r>(job: &ScanJob<'_>, fi: usize, schema: &Schema, rec: Record<'
     }
 }
 
-/// The catalogue being merged: its index, name and schema, and how many of
-/// its names the duplicate filter flagged so far.
+/// The catalogue being merged: its index, name and schema.
 struct FilePlace<'a> {
     fi: usize,
     at: &'a Location,
     schema: &'a Schema,
-    suspects: usize,
 }
 
 /// What the scan keeps while it reads (see `Selection`).
@@ -222,8 +222,23 @@ struct Kept {
     errors: Vec<Error>,
     skipped: Vec<String>,
     files: Vec<String>,
-    suspects: Vec<Suspect>,
-    check_all_names: Vec<usize>,
+    /// Each file's place and name column (for the repeats' errors).
+    places: Vec<(Location, usize)>,
+    /// By file, the names of the rows kept so far with the line of the
+    /// first: every row that will be reported is among them (a row that
+    /// leaves the lists never returns), so a later row of the same name is
+    /// a repeat found in this reading. Rebuilt from the lists when it
+    /// outgrows them, which keeps it the size of what is kept.
+    names: Vec<HashMap<Box<str>, u64>>,
+    /// Repeats of a kept row's name (cut to the reported rows at the end).
+    repeats: Vec<Repeat>,
+    /// Kept rows the filter flagged that no kept row explains.
+    doubt: Vec<Suspect>,
+    /// Rows the filter flagged.
+    flagged: u64,
+    /// More repeats or doubts than are held: every reported name is then
+    /// confirmed by a second reading.
+    overflow: bool,
 }
 
 impl Kept {
@@ -244,8 +259,12 @@ impl Kept {
             errors: Vec::new(),
             skipped: Vec::new(),
             files: Vec::new(),
-            suspects: Vec::new(),
-            check_all_names: Vec::new(),
+            places: Vec::new(),
+            names: Vec::new(),
+            repeats: Vec::new(),
+            doubt: Vec::new(),
+            flagged: 0,
+            overflow: false,
         }
     }
 
@@ -271,8 +290,15 @@ impl Kept {
                 cost,
                 summary: s,
             } => {
+                // A flagged name is a repeat of a kept row's (exact),
+                // or, if this row is kept, in doubt.
+                let mut doubtful = false;
                 if suspect {
-                    self.suspect(place, name, line);
+                    self.flagged += 1;
+                    match self.names[place.fi].get(name) {
+                        Some(&first) => self.repeat(place.fi, name, first, line),
+                        None => doubtful = true,
+                    }
                 }
                 self.counts.checked += 1;
                 self.counts.priced += u64::from(cost.is_some());
@@ -285,12 +311,17 @@ impl Kept {
                     file: place.fi,
                     line,
                 };
+                let kept = std::cell::Cell::new(false);
                 let materialise = || -> Result<Candidate> {
+                    kept.set(true);
                     let row = parse_row(place.schema, &rec, job.mats)
                         .map_err(|e| Error::Internal(e.message))?;
                     Ok(to_candidate(job.prep, job.mats, &row, &s, place.fi, line))
                 };
                 self.keep_checked(job.opts, &k, &s, materialise)?;
+                if kept.get() {
+                    self.kept_name(place.fi, name, line, doubtful);
+                }
             }
         }
         Ok(())
@@ -308,21 +339,57 @@ impl Kept {
         }
     }
 
-    /// A name the duplicate filter flagged: kept as a suspect, or, past
-    /// `SUSPECT_CAP` in this file, every name of the file is to be compared.
-    fn suspect(&mut self, place: &mut FilePlace<'_>, name: &str, line: u64) {
-        if place.suspects >= SUSPECT_CAP {
-            if !self.check_all_names.contains(&place.fi) {
-                self.check_all_names.push(place.fi);
-            }
+    /// A repeat of a kept row's name, held up to `SUSPECT_CAP`.
+    fn repeat(&mut self, file: usize, name: &str, first: u64, line: u64) {
+        if self.repeats.len() >= SUSPECT_CAP {
+            self.overflow = true;
         } else {
-            place.suspects += 1;
-            self.suspects.push(Suspect {
-                file: place.fi,
+            self.repeats.push(Repeat {
+                file,
                 name: name.to_string(),
+                first,
                 line,
             });
         }
+    }
+
+    /// A row that entered a list: its name among the kept names (and in
+    /// doubt when the filter flagged it and no kept row explains it).
+    fn kept_name(&mut self, file: usize, name: &str, line: u64, doubtful: bool) {
+        if doubtful {
+            if self.doubt.len() >= SUSPECT_CAP {
+                self.overflow = true;
+            } else {
+                self.doubt.push(Suspect {
+                    file,
+                    name: name.to_string(),
+                    line,
+                });
+            }
+        }
+        self.names[file].entry(name.into()).or_insert(line);
+        let held: usize = self.lists.iter().map(|l| l.items.len()).sum::<usize>()
+            + self.near.items.len()
+            + self.unverified.items.len()
+            + self.pareto.len();
+        if self.names[file].len() > 4 * held + 4096 {
+            let mut names: HashMap<Box<str>, u64> = HashMap::new();
+            for c in self.all_kept().filter(|c| c.file == file) {
+                let e = names.entry(c.name.as_str().into()).or_insert(c.line);
+                *e = (*e).min(c.line);
+            }
+            self.names[file] = names;
+        }
+    }
+
+    /// Every candidate held in a list, on the front or apart.
+    fn all_kept(&self) -> impl Iterator<Item = &Candidate> {
+        self.lists
+            .iter()
+            .flat_map(|l| l.items.iter())
+            .chain(self.near.items.iter())
+            .chain(self.unverified.items.iter())
+            .chain(self.pareto.iter())
     }
 
     /// Keep a checked row where a list wants it: a passing row in the
@@ -417,6 +484,40 @@ impl Kept {
         for c in self.pareto.iter_mut() {
             c.pareto = true;
         }
+        // Repeats and doubts of the names reported; the others are counted
+        // only (`flagged`). Every later row of a reported name is among
+        // `repeats` unless the name is in doubt: such a row was missed
+        // only while no row of its name was kept, and the next row of the
+        // name to be kept (the reported one at the latest) then found no
+        // kept name though the filter had seen it.
+        let reported: HashSet<(usize, &str)> =
+            self.all_kept().map(|c| (c.file, c.name.as_str())).collect();
+        let repeats: Vec<Repeat> = self
+            .repeats
+            .iter()
+            .filter(|r| reported.contains(&(r.file, r.name.as_str())))
+            .cloned()
+            .collect();
+        let doubt: Vec<Suspect> = self
+            .doubt
+            .iter()
+            .filter(|d| reported.contains(&(d.file, d.name.as_str())))
+            .cloned()
+            .collect();
+        drop(reported);
+        (self.repeats, self.doubt) = (repeats, doubt);
+        if self.overflow {
+            // Confirm every reported name by a second reading.
+            self.doubt = self
+                .all_kept()
+                .map(|c| Suspect {
+                    file: c.file,
+                    name: c.name.clone(),
+                    line: c.line,
+                })
+                .collect();
+            self.repeats.clear();
+        }
         Ok(Selection {
             lists: self.lists,
             pareto: self.pareto,
@@ -425,8 +526,10 @@ impl Kept {
             counts: self.counts,
             skipped: self.skipped,
             files: self.files,
-            suspects: self.suspects,
-            check_all_names: self.check_all_names,
+            places: self.places,
+            repeats: self.repeats,
+            doubt: self.doubt,
+            flagged: self.flagged,
         })
     }
 }
@@ -462,10 +565,11 @@ where
         .collect()
 }
 
-/// Scan with exact duplicate detection: `open` (re)opens the catalogues;
-/// a second reading confirms the names the Bloom filter flagged, and a
-/// re-scan without the duplicates follows only when some are real and
-/// bad rows are to be skipped.
+/// Scan with exact duplicate detection among the reported rows: `open`
+/// (re)opens the catalogues. The one reading finds a repeat of a kept
+/// row's name; a second reading, of the names in doubt only, happens when
+/// a reported row was flagged with no kept row of its name; a re-scan
+/// without the repeats follows only when bad rows are to be skipped.
 pub fn scan_checked<R: Read + Send>(
     prep: &Prepared,
     open: &dyn Fn() -> Result<Vec<Catalog<R>>>,
@@ -473,39 +577,69 @@ pub fn scan_checked<R: Read + Send>(
     opts: &ScanOptions,
     progress: &(dyn Fn(u64, u64) + Sync),
 ) -> Result<Selection> {
-    let mut sel = scan(prep, open()?, mats, opts, progress)?;
-    if sel.suspects.is_empty() && sel.check_all_names.is_empty() {
-        return Ok(sel);
-    }
     let keep = |schema: &crate::catalog::Schema, rec: &crate::catalog::records::Record<'_>| {
         parse_row(schema, rec, mats).is_ok_and(|r| opts.filters.admits(&r))
     };
-    let flagged = |fi: usize| {
-        let names: HashSet<String> = sel
-            .suspects
-            .iter()
-            .filter(|s| s.file == fi)
-            .map(|s| s.name.clone())
-            .collect();
-        (names, sel.check_all_names.contains(&fi))
-    };
-    let rep = find_repeats(open()?, flagged, keep, opts.skip_bad_rows)?;
-    let (errors, exclude, dup_total) = (rep.errors, rep.lines, rep.total);
-    if errors.is_empty() {
-        sel.suspects.clear();
-        sel.check_all_names.clear();
-        return Ok(sel);
+    // The later line of every repeat found so far, its error (the first
+    // 1000) and their number.
+    let mut exclude: HashSet<(usize, u64)> = HashSet::new();
+    let mut errors: Vec<Error> = Vec::new();
+    let mut total = 0usize;
+    let mut sel = scan(prep, open()?, mats, opts, progress)?;
+    // Each round finds the repeats among the reported rows; skipping them
+    // (--skip-bad-rows) can bring rows into the lists whose names repeat
+    // an earlier unreported row, hence the rounds (each a reading).
+    for _ in 0..MAX_ROUNDS {
+        let before = total;
+        let mut add = |place: &(Location, usize), r: &Repeat| {
+            if exclude.insert((r.file, r.line)) {
+                total += 1;
+                if errors.len() < 1000 {
+                    errors.push(repeat_error(place, r));
+                }
+            }
+        };
+        for r in &sel.repeats {
+            add(&sel.places[r.file], r);
+        }
+        if !sel.doubt.is_empty() {
+            // The one case of a second reading: a reported row the filter
+            // flagged that no kept row explains (a repeat of an earlier,
+            // unreported row, or a false hit of the filter).
+            let flagged = |fi: usize| {
+                let names: HashSet<String> = sel
+                    .doubt
+                    .iter()
+                    .filter(|s| s.file == fi)
+                    .map(|s| s.name.clone())
+                    .collect();
+                (names, false)
+            };
+            super::duplicates::repeats_of(open()?, flagged, keep, |p, r| add(p, &r))?;
+        }
+        sel.repeats.clear();
+        sel.doubt.clear();
+        if total == 0 {
+            return Ok(sel);
+        }
+        if !opts.skip_bad_rows {
+            return Err(refuse_repeats(errors, total));
+        }
+        if total == before {
+            // Nothing new among the rows now reported.
+            sel.skipped.extend(errors.iter().map(|e| e.to_string()));
+            sel.skipped.truncate(100);
+            return Ok(sel);
+        }
+        sel = scan_excluding(prep, open()?, mats, opts, &exclude, progress)?;
     }
-    if !opts.skip_bad_rows {
-        return Err(refuse_repeats(errors, dup_total));
-    }
-    let mut again = scan_excluding(prep, open()?, mats, opts, &exclude, progress)?;
-    again.skipped.extend(errors.iter().map(|e| e.to_string()));
-    again.skipped.truncate(100);
-    again.suspects.clear();
-    again.check_all_names.clear();
-    Ok(again)
+    Err(Error::msg(format!(
+        "{total} duplicate name(s): after skipping them {MAX_ROUNDS} times, rows whose names repeat still enter the lists; fix the names (`beamsift catalog validate` lists every repeat)"
+    )))
 }
+
+/// Most readings of `scan_checked` with --skip-bad-rows and repeated names.
+const MAX_ROUNDS: usize = 6;
 
 /// A worker count for the scans, checked: more workers than cores only
 /// add memory and switching, so at most four per core (and 256).
