@@ -202,7 +202,7 @@ pub fn counts_line(sel: &Selection, skip_bad_rows: bool) -> String {
     s.push('.');
     if sel.flagged > 0 {
         s.push_str(&format!(
-            " The duplicate-name filter flagged {} row(s) whose name may repeat an earlier row's: the rows reported here were checked exactly and none repeats; the others were not confirmed (the catalogue is read once): `beamsift catalog validate` lists every repeated name.",
+            " The duplicate-name filter flagged {} row(s) as possible repeats of an earlier name (it never misses a repeat but may flag a new name): the rows reported here were checked exactly and none repeats; the others were not confirmed (the catalogue is read once): `beamsift catalog validate` lists every repeated name.",
             units::count(sel.flagged)
         ));
     }

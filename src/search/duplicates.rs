@@ -11,19 +11,20 @@ use std::io::Read;
 
 /// A Bloom filter over section names in 64-bit words, 8 probes inside one
 /// word chosen by the name's hash, sized from the input's length: one word
-/// per 8 bytes of catalogue (at least 32 KiB, at most 2^22 words = 32 MiB,
-/// reached at 32 MB of catalogue, about 600,000 rows; unknown lengths take
-/// the most). One word per name means one memory access and an atomic
-/// `fetch_or`, so the worker threads insert in parallel, and of two equal
-/// names the later insert always sees the earlier's bits (no duplicate is
-/// missed). A hit only makes a name a suspect: the scan compares it with
-/// the names it keeps, and only a reported row flagged with no kept row of
-/// its name is confirmed by a second reading (`confirm_duplicates`). Rows of
-/// ~54 bytes give about 0.15 names per word below the cap, a false flag per
-/// row of about (1 − e^(−8·0.15/64))^8 ≈ 10⁻¹⁴; at the cap with n names,
-/// (1 − e^(−8n/2²⁸))^8: 5·10⁻¹³ at 1 M rows (none expected below about 3 M
-/// rows), 2·10⁻⁵ at 10 M (about 200 suspects, each only compared with the
-/// kept names).
+/// per 4 bytes of catalogue (at least 32 KiB, at most 2^21 words = 16 MiB,
+/// reached at 8 MB of catalogue, about 150,000 rows; unknown lengths take
+/// the most), so memory is flat from there on (benches/README.md). One
+/// word per name means one memory access and an atomic `fetch_or`, so the
+/// worker threads insert in parallel, and of two equal names the later
+/// insert always sees the earlier's bits (no duplicate is missed). A hit
+/// only makes a name a suspect: the scan compares it with the names it
+/// keeps, and only a reported row flagged with no kept row of its name is
+/// confirmed by a second reading (`confirm_duplicates`). Rows of ~54 bytes
+/// give about 0.07 names per word below the cap, a false flag per row of
+/// about (1 − e^(−8·0.07/64))^8 ≈ 10⁻¹⁶; at the cap with n names,
+/// (1 − e^(−8n/2²⁷))^8: 2·10⁻¹⁰ at 1 M rows, 2·10⁻³ at 10 M (about 24,000
+/// flagged rows, each only compared with the kept names; a reported row is
+/// flagged falsely with that chance, which then costs the second reading).
 pub(super) struct Bloom {
     words: Vec<std::sync::atomic::AtomicU64>,
     /// Words − 1 (a power of two less one).
@@ -32,7 +33,7 @@ pub(super) struct Bloom {
     shift: u32,
 }
 
-const BLOOM_MAX_WORDS_LOG2: u32 = 22;
+const BLOOM_MAX_WORDS_LOG2: u32 = 21;
 const BLOOM_MIN_WORDS_LOG2: u32 = 12;
 
 /// A fast 64-bit hash of a name, eight bytes at a time (multiply–xorshift
@@ -87,7 +88,7 @@ impl Bloom {
     pub(super) fn for_input(bytes: Option<u64>) -> Self {
         let shift = match bytes {
             None => BLOOM_MAX_WORDS_LOG2,
-            Some(b) => (b / 8)
+            Some(b) => (b / 4)
                 .max(1)
                 .next_power_of_two()
                 .trailing_zeros()
