@@ -664,13 +664,13 @@ fn repeated_names_are_found_among_the_reported_rows_in_one_reading() {
     // No repeat: one reading, nothing flagged.
     let (r, n) = run(&catalogue("", ""), false);
     let sel = r.unwrap();
-    assert_eq!((n, sel.flagged), (1, 0));
+    assert_eq!((n, sel.counts.flagged), (1, 0));
     assert_eq!(names(&sel), ["P0", "P1", "P2"]);
     // F3 again at the end: neither row is reported (F3 is far from the
     // nearest misses), so one reading, flagged and not refused.
     let (r, n) = run(&catalogue("", "F3,rect,20,43\n"), false);
     let sel = r.unwrap();
-    assert_eq!((n, sel.flagged), (1, 1));
+    assert_eq!((n, sel.counts.flagged), (1, 1));
     assert_eq!(names(&sel), ["P0", "P1", "P2"]);
     // P0 (reported, line 32) again on line 38 as a failing row: found in
     // the one reading (P0 is kept when the later row comes).
@@ -774,7 +774,7 @@ proptest! {
         match r {
             Ok(sel) => {
                 prop_assert!(want.is_empty(), "missed repeats on lines {want:?}");
-                prop_assert_eq!(sel.flagged as usize, rows.len() - seen.len());
+                prop_assert_eq!(sel.counts.flagged as usize, rows.len() - seen.len());
             }
             Err(e) => {
                 let e = e.to_string();
@@ -787,7 +787,7 @@ proptest! {
             }
         }
         prop_assert!(opens.get() <= 2);
-        if plain.flagged == 0 {
+        if plain.counts.flagged == 0 {
             prop_assert_eq!(opens.get(), 1);
         }
     }

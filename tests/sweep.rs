@@ -344,3 +344,77 @@ fn one_reading_equals_the_sorted_reference() {
     // not-verified rows lighter than it.
     assert!(total_nv > 0 && total_found > 0, "{total_nv} {total_found}");
 }
+
+/// Repeated names in `sweep lightest`, as in `select` (README, "Repeated
+/// names"): a repeat among rows no span reports is counted as flagged, and
+/// the catalogue read once; a repeat of a row some span reports is refused
+/// with both lines, after a second reading of that name. The rows are
+/// welded I sections sized on the 3 m simple span of the test above (5 +
+/// 8 kN/m): the 150 × 10 × 400 × 6 mm rows pass at 2 m, the 100 × 6 × 200
+/// × 5 mm rows fail at 4 m and above; the lines are known by construction.
+#[test]
+fn repeated_names_in_a_sweep_are_found_among_the_reported_rows() {
+    use beamsift::catalog::read::{self, ReadOptions};
+    use beamsift::search::{self, Filters};
+    let m = common::steel(345.0, None, None);
+    let mats = Materials {
+        base: &m,
+        grades: &[],
+    };
+    let crit = Criteria::default();
+    let beam = common::simple_span(3000.0, 5.0, 8.0);
+    let preps: Vec<Prepared> = [2000.0, 4000.0]
+        .iter()
+        .map(|&s| Prepared::new(&sweep::at_span(&beam, s), m.clone(), crit.clone()).unwrap())
+        .collect();
+    let run = |csv: &str| {
+        let opens = std::cell::Cell::new(0);
+        let open = || {
+            opens.set(opens.get() + 1);
+            read::open(csv.as_bytes(), "t.csv", &ReadOptions::default()).map(|c| vec![c])
+        };
+        let r = search::spans::lightest_by_span(&preps, &open, &mats, &Filters::default(), false);
+        (r.map_err(|e| e.to_string()), opens.get())
+    };
+    let head = "# invented test rows\nname,shape,bf [mm],tf [mm],hw [mm],tw [mm]\n";
+    // Lines 3 to 7: light rows A0..A4; 8 to 12: heavier rows B0..B4.
+    let mut base = String::from(head);
+    for i in 0..5 {
+        base.push_str(&format!("A{i},welded-i,100,6,{},5\n", 200 + 10 * i));
+    }
+    for i in 0..5 {
+        base.push_str(&format!("B{i},welded-i,150,10,{},6\n", 400 + 50 * i));
+    }
+    let (r, n) = run(&base);
+    let clean = r.unwrap();
+    assert_eq!((n, clean.counts.flagged), (1, 0));
+    let best: Vec<Option<String>> = clean
+        .spans
+        .iter()
+        .map(|s| s.best.as_ref().map(|c| c.name.clone()))
+        .collect();
+    // A heavier row's name again, not the lightest at any span (B4 is the
+    // heaviest): flagged, one reading.
+    assert!(!best.contains(&Some("B4".into())), "{best:?}");
+    let (r, n) = run(&format!("{base}B4,welded-i,150,10,600,6\n"));
+    let l = r.unwrap();
+    assert_eq!((n, l.counts.flagged), (1, 1));
+    // The lightest row of a span, again on line 13: refused, naming both.
+    let top = best.iter().flatten().next().unwrap().clone();
+    let first = 3 + base
+        .lines()
+        .skip(2)
+        .position(|l| l.starts_with(&format!("{top},")))
+        .unwrap();
+    let (r, n) = run(&format!("{base}{top},welded-i,150,10,600,6\n"));
+    let Err(e) = r else {
+        panic!("a repeat of {top} was not refused")
+    };
+    assert_eq!(n, 2, "{e}");
+    assert!(
+        e.contains(&format!(
+            "t.csv:13:1: duplicate section name '{top}' (first on line {first})"
+        )),
+        "{e}"
+    );
+}

@@ -200,13 +200,19 @@ pub fn counts_line(sel: &Selection, skip_bad_rows: bool) -> String {
         s.push_str(&format!(", {} bad row(s) skipped", c.bad));
     }
     s.push('.');
-    if sel.flagged > 0 {
-        s.push_str(&format!(
-            " The duplicate-name filter flagged {} row(s) as possible repeats of an earlier name (it never misses a repeat but may flag a new name): the rows reported here were checked exactly and none repeats; the others were not confirmed (the catalogue is read once): `beamsift catalog validate` lists every repeated name.",
-            units::count(sel.flagged)
-        ));
+    if let Some(n) = flagged_note(c) {
+        s.push(' ');
+        s.push_str(&n);
     }
     s
+}
+
+/// What a scan says of the rows the duplicate filter flagged, if any.
+pub fn flagged_note(c: &search::Counts) -> Option<String> {
+    (c.flagged > 0).then(|| format!(
+        "The duplicate-name filter flagged {} row(s) as possible repeats of an earlier name (it never misses a repeat but may flag a new name): the rows reported here were checked exactly and none repeats; the others were not confirmed (the catalogue is read once): `beamsift catalog validate` lists every repeated name.",
+        units::count(c.flagged)
+    ))
 }
 
 /// The not-verified rows, each with its reasons (never ranked with the

@@ -209,6 +209,10 @@ fn rows_read_line(c: &search::Counts, skip_bad_rows: bool) -> String {
         line.push_str(&format!(", {} bad row(s) skipped", c.bad));
     }
     line.push('.');
+    if let Some(n) = super::select::flagged_note(c) {
+        line.push(' ');
+        line.push_str(&n);
+    }
     line
 }
 

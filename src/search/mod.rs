@@ -177,6 +177,9 @@ pub struct Counts {
     /// Checked rows with a price (what the prices of a scan are judged
     /// by: a price column whose cells are all empty gives no prices).
     pub priced: u64,
+    /// Rows the duplicate filter flagged (possible repeats of an earlier
+    /// name; only those of the reported names are confirmed).
+    pub flagged: u64,
 }
 
 /// The prices of a scan from its catalogues' headers (`header`) and the
@@ -214,9 +217,6 @@ pub struct Selection {
     /// Each file's place and name column (for the repeats' errors).
     #[serde(skip)]
     pub places: Vec<(crate::error::Location, usize)>,
-    /// Rows the duplicate filter flagged in all (possible repeats of an
-    /// earlier name; only those among the reported rows are confirmed).
-    pub flagged: u64,
 }
 
 impl Selection {

@@ -234,8 +234,6 @@ struct Kept {
     repeats: Vec<Repeat>,
     /// Kept rows the filter flagged that no kept row explains.
     doubt: Vec<Suspect>,
-    /// Rows the filter flagged.
-    flagged: u64,
     /// More repeats or doubts than are held: every reported name is then
     /// confirmed by a second reading.
     overflow: bool,
@@ -263,7 +261,6 @@ impl Kept {
             names: Vec::new(),
             repeats: Vec::new(),
             doubt: Vec::new(),
-            flagged: 0,
             overflow: false,
         }
     }
@@ -294,7 +291,7 @@ impl Kept {
                 // or, if this row is kept, in doubt.
                 let mut doubtful = false;
                 if suspect {
-                    self.flagged += 1;
+                    self.counts.flagged += 1;
                     match self.names[place.fi].get(name) {
                         Some(&first) => self.repeat(place.fi, name, first, line),
                         None => doubtful = true,
@@ -529,7 +526,6 @@ impl Kept {
             places: self.places,
             repeats: self.repeats,
             doubt: self.doubt,
-            flagged: self.flagged,
         })
     }
 }

@@ -215,8 +215,11 @@ fn pass<R: Read + Send>(
                     RowOut::Excluded => counts.bad += 1,
                     RowOut::Filtered { name, suspect } => {
                         counts.filtered += 1;
-                        if suspect && suspects.len() < super::SUSPECT_CAP {
-                            suspects.push((fi, name.to_string()));
+                        if suspect {
+                            counts.flagged += 1;
+                            if suspects.len() < super::SUSPECT_CAP {
+                                suspects.push((fi, name.to_string()));
+                            }
                         }
                     }
                     RowOut::Checked {
@@ -240,8 +243,11 @@ fn pass<R: Read + Send>(
                             };
                             samples.push((kind, to_candidate_unchecked(&row, &none, fi, line)));
                         }
-                        if suspect && suspects.len() < super::SUSPECT_CAP {
-                            suspects.push((fi, name.to_string()));
+                        if suspect {
+                            counts.flagged += 1;
+                            if suspects.len() < super::SUSPECT_CAP {
+                                suspects.push((fi, name.to_string()));
+                            }
                         }
                         let key = (mass, depth, name, fi, line);
                         let owned = || Key {
@@ -298,8 +304,9 @@ fn pass<R: Read + Send>(
 }
 
 /// The lightest passing row at each prepared span, reading each catalogue
-/// once (twice only when the duplicate filter flags a name, three times
-/// when names repeat and `skip_bad_rows` leaves the repeats out).
+/// once (again only when the duplicate filter flagged a reported row's
+/// name, and once more per round when names repeat and `skip_bad_rows`
+/// leaves the repeats out).
 pub fn lightest_by_span<R: Read + Send>(
     preps: &[Prepared],
     open: &dyn Fn() -> Result<Vec<Catalog<R>>>,
@@ -321,27 +328,69 @@ pub fn lightest_by_span<R: Read + Send>(
         )));
         return Err(Error::Many(errors));
     }
-    if !p.suspects.is_empty() {
-        let keep = |schema: &crate::catalog::Schema, rec: &crate::catalog::records::Record<'_>| {
-            parse_row(schema, rec, mats).is_ok()
-        };
+    // Repeated names among the rows reported (the lightest at each span,
+    // and the lightest not-verified one): confirmed by a second reading of
+    // those names alone, and only when the filter flagged one of them.
+    // Flagged rows of other names are counted (`counts.flagged`), not
+    // confirmed, as in `select`. Skipping the repeats (--skip-bad-rows)
+    // can bring rows whose names repeat into the results, hence rounds.
+    let keep = |schema: &crate::catalog::Schema, rec: &crate::catalog::records::Record<'_>| {
+        parse_row(schema, rec, mats).is_ok()
+    };
+    let mut exclude: HashSet<(usize, u64)> = HashSet::new();
+    for round in 0.. {
+        let mut reported: HashSet<(usize, String)> = HashSet::new();
+        for st in &p.states {
+            if let Some((k, _, _)) = &st.best {
+                reported.insert((k.file, k.name.clone()));
+            }
+            if let Some((k, _)) = &st.lightest_nv {
+                reported.insert((k.file, k.name.clone()));
+            }
+        }
+        // Past the cap every reported name is confirmed.
         let all = p.suspects.len() >= super::SUSPECT_CAP;
-        let suspects = &p.suspects;
+        let doubt: HashSet<(usize, String)> = if all {
+            reported
+        } else {
+            p.suspects
+                .iter()
+                .filter(|s| reported.contains(*s))
+                .cloned()
+                .collect()
+        };
+        if doubt.is_empty() {
+            break;
+        }
         let flagged = |fi: usize| {
-            let names: HashSet<String> = suspects
+            let names: HashSet<String> = doubt
                 .iter()
                 .filter(|s| s.0 == fi)
                 .map(|s| s.1.clone())
                 .collect();
-            (names, all)
+            (names, false)
         };
         let rep = find_repeats(open()?, flagged, keep, true)?;
-        if rep.total > 0 {
-            if !skip_bad_rows {
-                return Err(refuse_repeats(rep.errors, rep.total));
-            }
-            p = pass(preps, open()?, mats, filters, &rep.lines)?;
+        let new: Vec<(usize, u64)> = rep
+            .lines
+            .iter()
+            .filter(|l| !exclude.contains(l))
+            .copied()
+            .collect();
+        if rep.total == 0 || new.is_empty() {
+            break;
         }
+        if !skip_bad_rows {
+            return Err(refuse_repeats(rep.errors, rep.total));
+        }
+        if round >= MAX_ROUNDS {
+            return Err(Error::msg(format!(
+                "{} duplicate name(s): after skipping them {MAX_ROUNDS} times, rows whose names repeat are still the lightest; fix the names (`beamsift catalog validate` lists every repeat)",
+                exclude.len() + new.len()
+            )));
+        }
+        exclude.extend(new);
+        p = pass(preps, open()?, mats, filters, &exclude)?;
     }
     let samples = p.samples.into_iter().map(|s| s.1).collect();
     let states = p.states;
@@ -374,3 +423,7 @@ pub fn lightest_by_span<R: Read + Send>(
         samples,
     })
 }
+
+/// Most re-readings of `lightest_by_span` with --skip-bad-rows and repeated
+/// names.
+const MAX_ROUNDS: usize = 6;
