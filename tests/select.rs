@@ -599,6 +599,28 @@ fn schedule_grade_column_filters_rows() {
     assert!(rows[res[0].chosen.unwrap()].name.ends_with("S355"));
     // Without a grade both grades compete.
     assert!(res[1].passing.iter().any(|&j| rows[j].grade == "S275"));
+    batch::check_grades(
+        &members,
+        &rows,
+        &beamsift::error::Location::in_file("s.csv"),
+    )
+    .unwrap();
+    // A catalogue without the grade: member A is refused at its line
+    // rather than reported as "none passes" with nothing checked.
+    let plain = read::open(demo.as_bytes(), "c.csv", &ReadOptions::default()).unwrap();
+    let (ungraded, _, _) =
+        search::load_rows(vec![plain], &mats, false, &Filters::default()).unwrap();
+    let e = batch::check_grades(
+        &members,
+        &ungraded,
+        &beamsift::error::Location::in_file("s.csv"),
+    )
+    .unwrap_err()
+    .to_string();
+    assert!(
+        e.contains("s.csv:2") && e.contains("no catalogue row"),
+        "{e}"
+    );
     // An unknown grade is refused at its cell, naming the grades defined.
     let e = schedule_of(
         "mark,spans [m],dead [kN/m],grade\nX,4,2,S460\n".as_bytes(),

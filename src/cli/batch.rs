@@ -128,6 +128,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
     let (rows, counts, _skipped) = search::load_rows(cats, &mats, a.cat.skip_bad_rows, &filters)?;
     let prices = batch::prices(header_prices, &rows);
     opts.check_prices(&prices)?;
+    batch::check_grades(&members, &rows, &sched.at())?;
     let schedule = batch::schedule(&members, &rows, &mats, &filters, &opts)?;
     let view = BatchView {
         sys,

@@ -9,7 +9,7 @@ use super::{Candidate, Filters};
 use crate::catalog::Materials;
 use crate::catalog::Prices;
 use crate::check::{Prepared, SectionInput};
-use crate::error::{Error, Result};
+use crate::error::{Error, Location, Result};
 use crate::units::{self, Dim};
 use rayon::prelude::*;
 use serde::Serialize;
@@ -313,6 +313,31 @@ pub fn schedule(
         s.costs = Some(costs(&s, opts));
     }
     Ok(s)
+}
+
+/// Members whose schedule grade no loaded catalogue row has are refused
+/// before sizing (they would read as "none passes" though nothing was
+/// checked), each at its schedule line (`at`: the schedule).
+pub fn check_grades(members: &[Member], rows: &[Candidate], at: &Location) -> Result<()> {
+    let mut errors = Vec::new();
+    for m in members {
+        if let Some(g) = &m.grade
+            && !rows.iter().any(|r| r.grade.eq_ignore_ascii_case(g))
+        {
+            errors.push(Error::input(
+                at.clone().with_line(m.line).with_field("grade"),
+                format!(
+                    "member '{}' is of grade {g}, but no catalogue row is (after the filters): give the rows a grade column naming it, or leave the member's grade empty",
+                    m.mark
+                ),
+            ));
+        }
+    }
+    match errors.len() {
+        0 => Ok(()),
+        1 => Err(errors.pop().unwrap()),
+        _ => Err(Error::Many(errors)),
+    }
 }
 
 /// The sizing, the bill and the rationalisation of [`schedule`].

@@ -272,6 +272,11 @@ pub fn read_schedule_at<R: Read>(
     Ok(members)
 }
 
+/// The message of an empty entry in a ';'-list cell.
+fn empty_entry(cell: &str) -> String {
+    format!("'{cell}' has an empty entry: give one number between each ';' (0 where there is none)")
+}
+
 fn member_of(
     rec: &[String],
     cols: &[SCol],
@@ -329,6 +334,9 @@ fn member_of(
             }
             SCol::Spans(f) => {
                 for s in cell.split(';') {
+                    if s.trim().is_empty() {
+                        return Err(fail(empty_entry(cell)));
+                    }
                     let v = num(s)? * f;
                     if v <= 0.0 {
                         return Err(fail(format!("span '{s}' must be greater than zero")));
@@ -348,6 +356,9 @@ fn member_of(
             SCol::Point(c, f) => {
                 let mut v = Vec::new();
                 for s in cell.split(';') {
+                    if s.trim().is_empty() {
+                        return Err(fail(empty_entry(cell)));
+                    }
                     v.push(num(s.trim())? * f);
                 }
                 points.push((c, v, i));
@@ -355,6 +366,9 @@ fn member_of(
             SCol::PointAt(f) => {
                 let mut v = Vec::new();
                 for s in cell.split(';') {
+                    if s.trim().is_empty() {
+                        return Err(fail(empty_entry(cell)));
+                    }
                     let x = num(s.trim())? * f;
                     if x < 0.0 {
                         return Err(fail(format!(
