@@ -694,6 +694,9 @@ fn repeated_names_are_found_among_the_reported_rows_in_one_reading() {
     let sel = r.unwrap();
     assert_eq!((n, sel.counts.flagged), (1, 1));
     assert_eq!(names(&sel), ["P0", "P1", "P2"]);
+    // A sheet of a reported row says so.
+    let src = beamsift::report::sheet::candidate_source(&sel, &sel.lists[0].items[0]);
+    assert!(src.contains("1 other row(s) flagged"), "{src}");
     // P0 (reported, line 32) again on line 38 as a failing row: found in
     // the one reading (P0 is kept when the later row comes).
     let (r, n) = run(&catalogue("", "P0,rect,20,40\n"), false);

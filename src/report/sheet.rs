@@ -163,17 +163,29 @@ pub fn scan_note(
     s
 }
 
+/// What a sheet says of the rows the duplicate filter flagged, if any.
+fn flagged_words(c: &crate::search::Counts) -> String {
+    if c.flagged == 0 {
+        return String::new();
+    }
+    format!(
+        "; its name was checked exactly against every row; {} other row(s) flagged by the duplicate-name filter were not confirmed (`beamsift catalog validate` lists every repeat)",
+        crate::units::count(c.flagged)
+    )
+}
+
 /// Where a catalogue section's properties came from, for the sheet.
 pub fn candidate_source(sel: &Selection, c: &Candidate) -> String {
     format!(
-        "catalogue {} line {}; {}",
+        "catalogue {} line {}; {}{}",
         sel.files.get(c.file).cloned().unwrap_or_default(),
         c.line,
         if c.shape.is_some() {
             "properties computed from its dimensions (given values used where the row has them)"
         } else {
             "properties as given by the row"
-        }
+        },
+        flagged_words(&sel.counts)
     )
 }
 
