@@ -127,7 +127,10 @@ pub fn parse_row<'r>(
             ),
         });
     }
-    let mut cells = Cells::read(schema, rec)?;
+    // Filled in place: the cells are large, and moving them out of a
+    // returned Result cost two copies per row on the scan's path.
+    let mut cells = Cells::empty();
+    cells.read(schema, rec)?;
     let name_col = schema.name.unwrap_or(0);
     if cells.name.is_empty() {
         return Err(cell_err(
@@ -243,10 +246,10 @@ pub(super) struct Cells<'r> {
 }
 
 impl<'r> Cells<'r> {
-    /// Read every cell of the record; the first bad one is the error.
+    /// No cell read yet.
     #[inline]
-    fn read(schema: &Schema, rec: &Record<'r>) -> std::result::Result<Self, CellError> {
-        let mut cells = Cells {
+    fn empty() -> Self {
+        Cells {
             given: Given::default(),
             dims: [(0.0, false); 14],
             s_both: None,
@@ -259,7 +262,14 @@ impl<'r> Cells<'r> {
             family: "",
             own: [None; 8],
             factors: TimberFactors::default(),
-        };
+        }
+    }
+
+    /// Read every cell of the record into `self` (from [`Cells::empty`]);
+    /// the first bad one is the error.
+    #[inline]
+    fn read(&mut self, schema: &Schema, rec: &Record<'r>) -> std::result::Result<(), CellError> {
+        let cells = self;
         for (i, col) in schema.cols.iter().enumerate() {
             if let Col::Dim(..) | Col::Prop(..) | Col::Cost(..) | Col::Factor(_) = col {
                 let bytes = rec.get(i).unwrap_or(b"");
@@ -328,7 +338,7 @@ impl<'r> Cells<'r> {
                 Col::Dim(..) | Col::Prop(..) | Col::Cost(..) => {}
             }
         }
-        Ok(cells)
+        Ok(())
     }
 
     /// Store one numeric cell's value (in its header unit).
