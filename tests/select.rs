@@ -817,3 +817,31 @@ proptest! {
         }
     }
 }
+
+/// A catalogue's problems are told in the units its columns were typed
+/// in. Check values by hand (from the rows below): a 1.5 × 9.25 in
+/// rectangle has Ix = 1.5 × 9.25³ / 12 = 98.93 in⁴ (b·d³/12, any
+/// strength-of-materials text), so a given 120 in⁴ is 21.3 % off; a
+/// 10 in² section 10 in deep has at most A·c_top·c_bot = 10 × 5 × 5 = 250
+/// in⁴, so 1,000 in⁴ cannot be.
+#[test]
+fn catalogue_problems_are_told_in_the_typed_units() {
+    let csv = "name,shape,b [in],d [in],Ix [in4]\nL1,rect,1.5,9.25,120\n";
+    let cat = read::open(csv.as_bytes(), "us.csv", &ReadOptions::default()).unwrap();
+    let v = read::validate(cat, &timber(), &[], true).unwrap();
+    let e: Vec<String> = v.errors.iter().map(|e| e.to_string()).collect();
+    assert!(
+        e.iter()
+            .any(|m| m.contains("given Ix = 120 in4 differs by 21.3 % from 98.93 in4")),
+        "{e:?}"
+    );
+    let csv = "name,A [in2],Ix [in4],d [in]\nP2,10,1000,10\n";
+    let cat = read::open(csv.as_bytes(), "us.csv", &ReadOptions::default()).unwrap();
+    let v = read::validate(cat, &timber(), &[], true).unwrap();
+    let e: Vec<String> = v.errors.iter().map(|e| e.to_string()).collect();
+    assert!(
+        e.iter()
+            .any(|m| m.contains("1,000 in⁴ exceeds A·c_top·c_bot = 250 in⁴")),
+        "{e:?}"
+    );
+}

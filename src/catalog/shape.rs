@@ -4,7 +4,8 @@
 
 use super::row::{CellError, cell_err, rel_diff};
 use super::schema::{
-    B, BF, BF_BOT, BF_TOP, D, DIMS, H, HW, R, R_OUT, Schema, T, TF, TF_BOT, TF_TOP, TW, column_of,
+    B, BF, BF_BOT, BF_TOP, Col, D, DIMS, H, HW, R, R_OUT, Schema, T, TF, TF_BOT, TF_TOP, TW,
+    column_of,
 };
 use crate::section::spec::normalise_family;
 use crate::section::{Given, Properties, Shape};
@@ -53,7 +54,7 @@ pub(super) fn shape_and_properties(
             given.bf = dim(BF);
             given.tf = dim(TF);
             given
-                .properties()
+                .properties_in(schema.typed_system(crate::units::Show::Dimension))
                 .map_err(|e| located(schema, e, name_col))?
         }
     };
@@ -108,14 +109,25 @@ fn cross_check(
             };
             if bad {
                 let col = column_of(schema, label).unwrap_or(shape_col);
+                // Both values in the unit the column's header gives.
+                let (f, unit) = match (schema.cols.get(col), schema.headers.get(col)) {
+                    (Some(Col::Prop(_, f)), Some(h)) => {
+                        let unit = match (h.find('['), h.rfind(']')) {
+                            (Some(a), Some(b)) if b > a => format!(" {}", h[a + 1..b].trim()),
+                            _ => String::new(),
+                        };
+                        (*f, unit)
+                    }
+                    _ => (1.0, String::new()),
+                };
                 return Err(cell_err(
                     col,
                     schema,
                     format!(
-                        "given {label} = {} differs by {:.1} % from {} computed from the dimensions: expected agreement within {:.0} %",
-                        units::fmt_num(g),
+                        "given {label} = {}{unit} differs by {:.1} % from {}{unit} computed from the dimensions: expected agreement within {:.0} %",
+                        units::fmt_num(g / f),
                         100.0 * rel_diff(g, c).min(9.99e2),
-                        units::fmt_num(c),
+                        units::fmt_num(c / f),
                         100.0 * tol
                     ),
                 ));

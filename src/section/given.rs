@@ -10,6 +10,7 @@
 
 use super::{IGeometry, Properties, positive_value};
 use crate::error::{Error, Location, Result};
+use crate::units::System;
 use serde::{Deserialize, Serialize};
 
 /// Table values of a section, internal units. `None` = not given.
@@ -71,8 +72,13 @@ impl Given {
         c_top: f64,
         c_bot: f64,
         depth: f64,
+        sys: System,
     ) -> Result<()> {
-        let f = crate::units::fmt_num;
+        use crate::units::Show;
+        // Values in the units the row was typed in (`sys`).
+        let i4 = |v: f64| Show::SecondMoment.fmt(v, sys);
+        let i3 = |v: f64| Show::SectionModulus.fmt(v, sys);
+        let len = |v: f64| Show::Dimension.fmt(v, sys);
         let over = |v: f64, bound: f64| v > bound * (1.0 + BOUND_SLACK);
         let hint = "check the column's unit and that the value belongs to this row";
         let cap = area * c_top * c_bot;
@@ -80,9 +86,9 @@ impl Given {
             return Err(Error::input(
                 Location::field("Ix"),
                 format!(
-                    "{} mm⁴ exceeds A·c_top·c_bot = {} mm⁴, which no section can: {hint}",
-                    f(ix),
-                    f(cap)
+                    "{} exceeds A·c_top·c_bot = {}, which no section can: {hint}",
+                    i4(ix),
+                    i4(cap)
                 ),
             ));
         }
@@ -93,10 +99,10 @@ impl Given {
                     return Err(Error::input(
                         Location::field(label),
                         format!(
-                            "{} mm³ but Ix/c = {} mm³ (c = {} mm from the centroid to that fibre): expected agreement within 2 %; {hint}",
-                            f(s),
-                            f(def),
-                            f(c)
+                            "{} but Ix/c = {} (c = {} from the centroid to that fibre): expected agreement within 2 %; {hint}",
+                            i3(s),
+                            i3(def),
+                            len(c)
                         ),
                     ));
                 }
@@ -111,9 +117,9 @@ impl Given {
                 return Err(Error::input(
                     Location::field("Zx"),
                     format!(
-                        "{} mm³ is below the elastic modulus S = {} mm³; the plastic modulus is never smaller: {hint}",
-                        f(z),
-                        f(s_min)
+                        "{} is below the elastic modulus S = {}; the plastic modulus is never smaller: {hint}",
+                        i3(z),
+                        i3(s_min)
                     ),
                 ));
             }
@@ -121,9 +127,9 @@ impl Given {
                 return Err(Error::input(
                     Location::field("Zx"),
                     format!(
-                        "{} mm³ exceeds A·d/2 = {} mm³, which no section can: {hint}",
-                        f(z),
-                        f(area * depth / 2.0)
+                        "{} exceeds A·d/2 = {}, which no section can: {hint}",
+                        i3(z),
+                        i3(area * depth / 2.0)
                     ),
                 ));
             }
@@ -134,9 +140,9 @@ impl Given {
                 return Err(Error::input(
                     Location::field("Q"),
                     format!(
-                        "{} mm³ exceeds A·c_top·c_bot/d = {} mm³, which no section can: {hint}",
-                        f(q),
-                        f(qcap)
+                        "{} exceeds A·c_top·c_bot/d = {}, which no section can: {hint}",
+                        i3(q),
+                        i3(qcap)
                     ),
                 ));
             }
@@ -147,10 +153,10 @@ impl Given {
                 return Err(Error::input(
                     Location::field("Iy"),
                     format!(
-                        "{} mm⁴ exceeds A·(b/2)² = {} mm⁴ for a width of {} mm, which no section can: {hint}",
-                        f(iy),
-                        f(icap),
-                        f(b)
+                        "{} exceeds A·(b/2)² = {} for a width of {}, which no section can: {hint}",
+                        i4(iy),
+                        i4(icap),
+                        len(b)
                     ),
                 ));
             }
@@ -161,9 +167,9 @@ impl Given {
             return Err(Error::input(
                 Location::field("J"),
                 format!(
-                    "{} mm⁴ exceeds the polar moment Ix + Iy = {} mm⁴, which no section can: {hint}",
-                    f(j),
-                    f(ix + iy)
+                    "{} exceeds the polar moment Ix + Iy = {}, which no section can: {hint}",
+                    i4(j),
+                    i4(ix + iy)
                 ),
             ));
         }
@@ -172,7 +178,7 @@ impl Given {
         {
             return Err(Error::input(
                 Location::field("tw"),
-                format!("{} mm is wider than the flange bf = {} mm", f(tw), f(bf)),
+                format!("{} is wider than the flange bf = {}", len(tw), len(bf)),
             ));
         }
         if let Some(tf) = self.tf
@@ -181,17 +187,23 @@ impl Given {
             return Err(Error::input(
                 Location::field("tf"),
                 format!(
-                    "two flanges of {} mm do not fit in the depth d = {} mm",
-                    f(tf),
-                    f(depth)
+                    "two flanges of {} do not fit in the depth d = {}",
+                    len(tf),
+                    len(depth)
                 ),
             ));
         }
         Ok(())
     }
 
-    /// Build the properties, checking every given value.
+    /// Build the properties, checking every given value (problems in SI).
     pub fn properties(&self) -> Result<Properties> {
+        self.properties_in(System::Si)
+    }
+
+    /// [`Given::properties`] with the problems in the units of `sys` (the
+    /// system the row was typed in).
+    pub fn properties_in(&self, sys: System) -> Result<Properties> {
         for (name, v) in [
             ("A", self.area),
             ("Ix", self.ix),
@@ -229,13 +241,14 @@ impl Given {
             }
         };
         if (c_top + c_bot - depth).abs() > 0.02 * depth {
+            let len = |v: f64| crate::units::Show::Dimension.fmt(v, sys);
             return Err(Error::msg(format!(
-                "c_top + c_bot = {} mm does not match the depth d = {} mm",
-                crate::units::fmt_num(c_top + c_bot),
-                crate::units::fmt_num(depth)
+                "c_top + c_bot = {} does not match the depth d = {}",
+                len(c_top + c_bot),
+                len(depth)
             )));
         }
-        self.physical_bounds(area, ix, c_top, c_bot, depth)?;
+        self.physical_bounds(area, ix, c_top, c_bot, depth, sys)?;
         // bf, tf and tw describe a doubly symmetric I only: a row whose
         // extreme fibres (or moduli) differ is mono-symmetric, and one
         // flange width and thickness cannot say which flange is which, so
