@@ -150,6 +150,14 @@ fn segment_of(prep: &Prepared, it: &Item) -> Option<(f64, f64)> {
 
 /// "segment 0.000–2.000 m" (feet in US units).
 fn segment_words(x1: f64, x2: f64, sys: System) -> String {
+    if sys == System::UsFeetInches {
+        // Feet and inches as every other length of that system.
+        return format!(
+            "segment {} – {}",
+            Show::Span.num(x1, sys),
+            Show::Span.num(x2, sys)
+        );
+    }
     let (unit, per) = Show::Span.unit(sys);
     format!("segment {:.3}–{:.3} {unit}", x1 / per, x2 / per)
 }

@@ -798,6 +798,10 @@ fn feet_inches_on_the_member_table() {
     let out = text(&o).0;
     assert!(out.contains("19'-8 1/4\" + 3'-11 1/4\""), "{out}");
     assert!(out.contains("kip"), "{out}");
+    // Buckling segments too: braces at 2.0 m (the demo job's) are 2000 /
+    // 25.4 = 78.74 in = 6 ft 6.74 in, 6'-6 3/4" to the nearest 1/16 in.
+    assert!(out.contains("segment 0'-0\" – 6'-6 3/4\""), "{out}");
+    assert!(!out.contains(" ft "), "decimal feet left in {out}");
 }
 
 /// `analyse` writes deflection in the sheet's one convention, positive
