@@ -340,7 +340,17 @@ fn drivers(c: &mut Criterion) {
         format!("schedule of 200 members x {} sections", rows.len()),
         |b| {
             b.iter(|| {
-                black_box(batch::size(&members, &rows, &mats, &Filters::default(), false).unwrap())
+                black_box(
+                    batch::size(
+                        &members,
+                        &rows,
+                        &mats,
+                        &Filters::default(),
+                        false,
+                        beamsift::units::System::Si,
+                    )
+                    .unwrap(),
+                )
             })
         },
     );

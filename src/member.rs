@@ -270,6 +270,7 @@ pub fn member_check(
     props: &Properties,
     mass: f64,
     material: Option<&Material>,
+    sys: System,
 ) -> MemberCheck {
     let mut sec = SectionInput::new(props, mass);
     if let Some(m) = material {
@@ -315,7 +316,7 @@ pub fn member_check(
         not_verified: summary.gaps.describe(),
         excluded: prep.criteria.exclude.list(),
         not_checked: prep.not_checked(props, material),
-        assumptions: prep.assumptions(),
+        assumptions: prep.assumptions_in(sys),
         settlements: (0..d.combos.len())
             .flat_map(|ci| {
                 let a = d.apply(ci, &sl);

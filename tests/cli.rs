@@ -831,3 +831,47 @@ fn analyse_prints_upward_deflection_negative() {
         "{out}"
     );
 }
+
+/// Under `--units us` the words are in US units too: the demo job's braces
+/// at 2.0 m are 2000 / 304.8 = 6.562 ft apart (in the assumptions of
+/// select and batch), and stock bars of 6 m are 19'-8 1/4" under us-ft-in
+/// (6000 / 25.4 = 236.22 in, nearest 1/16 in) with the kerf in inches
+/// (3 mm = 0.1181 in).
+#[test]
+fn assumptions_and_stock_bars_in_the_display_units() {
+    let job = repo("catalogs/demo-job.toml");
+    let steel = repo("catalogs/demo-steel.csv");
+    let o = run(&[
+        "select",
+        "--job",
+        job.to_str().unwrap(),
+        "-c",
+        steel.to_str().unwrap(),
+        "--units",
+        "us",
+    ]);
+    let out = text(&o).0;
+    assert!(out.contains("braces every 6.562 ft restrain"), "{out}");
+    assert!(!out.contains("braces every 2 m"), "{out}");
+    let o = run(&[
+        "batch",
+        "--schedule",
+        repo("catalogs/demo-schedule.csv").to_str().unwrap(),
+        "--job",
+        repo("catalogs/demo-template.toml").to_str().unwrap(),
+        "-c",
+        steel.to_str().unwrap(),
+        "--stock-lengths",
+        "6m",
+        "--kerf",
+        "3mm",
+        "--units",
+        "us-ft-in",
+    ]);
+    let out = text(&o).0;
+    assert!(out.contains("braces every 6'-6 3/4\" restrain"), "{out}");
+    assert!(
+        out.contains("Cutting from stock bars (19'-8 1/4\"; kerf 0.1181 in per piece"),
+        "{out}"
+    );
+}

@@ -57,7 +57,15 @@ fn build() -> (String, String, member::MemberCheck) {
     };
     let p = shape.properties().unwrap();
     let mass = p.mass_per_length(7850.0);
-    let r = member::member_check(&job, &prep, &shape.describe(System::Si), &p, mass, None);
+    let r = member::member_check(
+        &job,
+        &prep,
+        &shape.describe(System::Si),
+        &p,
+        mass,
+        None,
+        System::Si,
+    );
     let s = sheet::build(
         &job,
         &prep,
@@ -350,7 +358,7 @@ fn names_from_the_job_are_escaped_in_both_formats() {
     let prep = Prepared::new(&job.beam, job.material.clone(), job.criteria.clone()).unwrap();
     let shape = Shape::Rect { b: 100.0, d: 300.0 };
     let p = shape.properties().unwrap();
-    let r = member::member_check(&job, &prep, "rect", &p, 0.0, None);
+    let r = member::member_check(&job, &prep, "rect", &p, 0.0, None, System::Si);
     let s = sheet::build(&job, &prep, &r, "given", None, System::Si);
     let (md, html) = (sheet::markdown(&s), sheet::html(&s));
     for (what, text) in [("markdown", &md), ("html", &html)] {
@@ -397,7 +405,7 @@ fn title_block_from_the_project_table() {
     let prep = Prepared::new(&job.beam, job.material.clone(), job.criteria.clone()).unwrap();
     let shape = Shape::Rect { b: 100.0, d: 300.0 };
     let p = shape.properties().unwrap();
-    let r = member::member_check(&job, &prep, "rect", &p, 0.0, None);
+    let r = member::member_check(&job, &prep, "rect", &p, 0.0, None, System::Si);
     let s = sheet::build(&job, &prep, &r, "given", None, System::Si);
     let (md, html) = (sheet::markdown(&s), sheet::html(&s));
     assert!(
@@ -431,7 +439,7 @@ fn section_numbers_have_no_gaps() {
         let job = from_toml(JOB, "snap.toml").unwrap();
         let prep = Prepared::new(&job.beam, job.material.clone(), job.criteria.clone()).unwrap();
         let p = Shape::Rect { b: 100.0, d: 300.0 }.properties().unwrap();
-        let r = member::member_check(&job, &prep, "rect", &p, 0.0, None);
+        let r = member::member_check(&job, &prep, "rect", &p, 0.0, None, System::Si);
         let alt = beamsift::report::Table::new("Next lightest passing sections", &[]);
         sheet::markdown(
             &sheet::build(&job, &prep, &r, "given", Some(alt), System::Si)
@@ -543,7 +551,7 @@ self_weight = false
     let prep = Prepared::new(&job.beam, job.material.clone(), job.criteria.clone()).unwrap();
     let p = Shape::Rect { b: 100.0, d: 300.0 }.properties().unwrap();
     common::close("I", p.ix, 225e6, 1e-12);
-    let r = member::member_check(&job, &prep, "rect", &p, 0.0, None);
+    let r = member::member_check(&job, &prep, "rect", &p, 0.0, None, System::Si);
     let s = sheet::build(&job, &prep, &r, "given", None, System::Si);
     let md = sheet::markdown(&s);
     assert!(

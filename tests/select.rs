@@ -397,7 +397,15 @@ fn schedule_bill_adds_up() {
         grades: &job.grades,
     };
     let (rows, _, _) = search::load_rows(vec![cat], &mats, false, &Filters::default()).unwrap();
-    let results = batch::size(&members, &rows, &mats, &Filters::default(), false).unwrap();
+    let results = batch::size(
+        &members,
+        &rows,
+        &mats,
+        &Filters::default(),
+        false,
+        beamsift::units::System::Si,
+    )
+    .unwrap();
     let choice: Vec<Option<usize>> = results.iter().map(|r| r.chosen).collect();
     let bill = batch::bill(&results, &choice, &rows);
     let pieces: u32 = bill.iter().map(|l| l.pieces).sum();
@@ -541,6 +549,7 @@ fn schedule_row_equals_its_job() {
         &mats,
         &Filters::default(),
         false,
+        beamsift::units::System::Si,
     )
     .unwrap()[0];
     let prep = Prepared::new(&job.beam, job.material.clone(), job.criteria.clone()).unwrap();
@@ -593,7 +602,15 @@ fn schedule_grade_column_filters_rows() {
     let c = read::open(cat.as_bytes(), "c.csv", &ReadOptions::default()).unwrap();
     let mats = Materials::of(&template);
     let (rows, _, _) = search::load_rows(vec![c], &mats, false, &Filters::default()).unwrap();
-    let res = batch::size(&members, &rows, &mats, &Filters::default(), false).unwrap();
+    let res = batch::size(
+        &members,
+        &rows,
+        &mats,
+        &Filters::default(),
+        false,
+        beamsift::units::System::Si,
+    )
+    .unwrap();
     assert!(res[0].passing.iter().all(|&j| rows[j].grade == "S355"));
     assert!(!res[0].passing.is_empty());
     assert!(rows[res[0].chosen.unwrap()].name.ends_with("S355"));

@@ -171,8 +171,13 @@ impl Prepared {
         v
     }
 
-    /// The assumptions a checker needs, for every output.
+    /// The assumptions a checker needs, for every output (lengths in SI).
     pub fn assumptions(&self) -> Vec<String> {
+        self.assumptions_in(crate::units::System::Si)
+    }
+
+    /// [`Prepared::assumptions`] with lengths in the display units `sys`.
+    pub fn assumptions_in(&self, sys: crate::units::System) -> Vec<String> {
         let c = &self.criteria;
         let mut v = Vec::new();
         match c.bracing {
@@ -185,11 +190,11 @@ impl Prepared {
             Bracing::Spacing(s) => v.push(match c.braced_flange {
                 BracedFlange::Top => format!(
                     "braces every {} restrain the top flange only; under hogging the bottom flange is unbraced between supports",
-                    crate::units::Show::Span.fmt(s, crate::units::System::Si)
+                    crate::units::Show::Span.fmt(s, sys)
                 ),
                 BracedFlange::Both => format!(
                     "braces every {} restrain both flanges (or twist)",
-                    crate::units::Show::Span.fmt(s, crate::units::System::Si)
+                    crate::units::Show::Span.fmt(s, sys)
                 ),
             }),
         }

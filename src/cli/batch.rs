@@ -107,6 +107,7 @@ pub fn run(a: Args, out: &Out) -> Result<i32> {
         kerf: a.kerf.as_deref(),
         wastage: a.wastage.as_deref(),
         allowances: &a.allowance,
+        units: sys,
     })?;
     // A workbook's sheet is read as the same text (see Input).
     let sched = beamsift::catalog::input::Input::new(&a.schedule)?;

@@ -55,7 +55,7 @@ pub fn run(a: Args, out: &Out) -> beamsift::Result<i32> {
         let props = shape.properties()?;
         let mass = props.mass_per_length(job.material.density);
         (
-            member::member_check(&job, &prep, &shape.describe(sys), &props, mass, None),
+            member::member_check(&job, &prep, &shape.describe(sys), &props, mass, None, sys),
             "properties computed from the dimensions (section module)".to_string(),
         )
     } else {
@@ -79,7 +79,7 @@ pub fn run(a: Args, out: &Out) -> beamsift::Result<i32> {
             .get(&c.material)
             .clone();
         (
-            member::member_check(&job, &prep, &c.name, &c.properties, c.mass, Some(&m)),
+            member::member_check(&job, &prep, &c.name, &c.properties, c.mass, Some(&m), sys),
             format!("{}; {note}", sheet::candidate_source(&sel, c)),
         )
     };

@@ -132,6 +132,7 @@ fn run_lightest(a: LightestArgs, out: &Out) -> Result<i32> {
         &lightest.samples,
         &mats,
         shown(a.chart.as_deref()),
+        sys,
     )?;
     write_chart(a.chart.as_deref(), || lightest_chart(&result, sys));
     let view = SweepView {

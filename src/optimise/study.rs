@@ -166,7 +166,7 @@ pub fn study(title: &str, prob: &Problem, prep: &Prepared, opts: &StudyOptions) 
         grid_points: grid.size(),
         not_checked: prep.not_checked(&d_props, None),
         excluded: prep.criteria.exclude.list(),
-        assumptions: prep.assumptions(),
+        assumptions: prep.assumptions_in(sys),
         reference: None,
         caution: crate::CAUTION,
     })

@@ -277,16 +277,17 @@ fn cutting(doc: &mut Document, c: &Cutting, sys: System) {
         ("lb", 1.0 / units::KG_PER_LB)
     };
     let span = Show::Span.label(sys);
+    // Each stock length with its unit (feet-inches carry their own marks).
     let stock: Vec<String> = c
         .stock_lengths
         .iter()
-        .map(|&l| Show::Span.num(l, sys))
+        .map(|&l| Show::Span.fmt(l, sys))
         .collect();
     let mut t = Table::new(
         format!(
-            "Cutting from stock bars ({} {span}; kerf {} mm per piece{})",
+            "Cutting from stock bars ({}; kerf {} per piece{})",
             stock.join(", "),
-            units::fmt_num(c.kerf),
+            Show::Dimension.fmt(c.kerf, sys),
             if c.rationalised {
                 "; rationalised sections"
             } else {

@@ -346,7 +346,7 @@ pub fn section_table(r: &MemberCheck, sys: System) -> Table {
 }
 
 /// Methods and sources (for the end of the sheet) and assumptions.
-pub fn methods(prep: &Prepared, r: &MemberCheck) -> (Vec<String>, Vec<String>) {
+pub fn methods(prep: &Prepared, r: &MemberCheck, sys: System) -> (Vec<String>, Vec<String>) {
     let mut m = vec![
         "Flexure formula f = M·y/I (extreme fibres: f = M·c/I = M/S); shear stress by V·Q/(I·t) (Jourawski) or the average web shear V/(d·t_w) for I-shapes.".to_string(),
         "Analysis: direct stiffness method with Euler–Bernoulli beam elements and consistent nodal loads, exact for uniform, linearly varying, point and moment loads; moment and shear by statics; deflection by integrating the curvature M/(E·I) twice from the exact nodal values; spring supports by compatibility of the settlements for this section's E·I.".to_string(),
@@ -366,7 +366,7 @@ pub fn methods(prep: &Prepared, r: &MemberCheck) -> (Vec<String>, Vec<String>) {
             .to_string(),
         "Allowable stresses and deflection limits as entered by the user.".to_string(),
     ];
-    a.extend(prep.assumptions());
+    a.extend(prep.assumptions_in(sys));
     (m, a)
 }
 

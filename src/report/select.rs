@@ -304,7 +304,7 @@ impl<'a> SelectResult<'a> {
             skipped_rows: &sel.skipped,
             prices,
             excluded: prep.criteria.exclude.list(),
-            assumptions: prep.assumptions(),
+            assumptions: prep.assumptions_in(sys),
             notes: job.notes.clone(),
             caution: CAUTION,
         }
@@ -465,7 +465,7 @@ impl ShortlistResult {
             by_mass: priced(&sel.lists[1].items),
             counts: sel.counts.clone(),
             excluded: prep.criteria.exclude.list(),
-            assumptions: prep.assumptions(),
+            assumptions: prep.assumptions_in(sys),
             notes: job.notes.clone(),
             caution: CAUTION,
         }

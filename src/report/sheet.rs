@@ -35,7 +35,7 @@ pub struct Subject<'a> {
 
 /// Check a section and write its sheet.
 pub fn for_section(job: &Job, prep: &Prepared, s: Subject<'_>, sys: System) -> Written {
-    let r = member::member_check(job, prep, s.name, s.properties, s.mass, s.material);
+    let r = member::member_check(job, prep, s.name, s.properties, s.mass, s.material, sys);
     Written {
         sheet: build(job, prep, &r, &s.source, s.alternatives, sys).with_near_misses(s.near_misses),
         verdict: r.verdict,
@@ -221,7 +221,7 @@ pub fn build(
         ),
         None => format!("{}: no check line was evaluated.", r.verdict.word()),
     };
-    let (methods, assumptions) = calc::methods(prep, r);
+    let (methods, assumptions) = calc::methods(prep, r, sys);
     Sheet {
         title: format!("Calculation: {}", job.title),
         project: job.project.clone(),

@@ -80,6 +80,7 @@ fn context(
     rows: &[Candidate],
     mats: &Materials<'_>,
     chart: Option<String>,
+    sys: System,
 ) -> Result<Context> {
     let prep = Prepared::new(&job.beam, job.material.clone(), job.criteria.clone())?;
     let mut not_checked: Vec<String> = Vec::new();
@@ -93,7 +94,7 @@ fn context(
     Ok(Context {
         title: job.title.clone(),
         excluded: prep.criteria.exclude.list(),
-        assumptions: prep.assumptions(),
+        assumptions: prep.assumptions_in(sys),
         notes: job.notes.clone(),
         chart,
         caution: CAUTION,
@@ -105,6 +106,7 @@ impl LightestResult {
     /// The lightest section found at each of `spans` (and the parametric
     /// optimum there, when one was sought); `samples` are the sections
     /// whose kinds were met (for what is not checked).
+    #[allow(clippy::too_many_arguments)]
     pub fn new(
         job: &Job,
         spans: &[f64],
@@ -113,6 +115,7 @@ impl LightestResult {
         samples: &[Candidate],
         mats: &Materials<'_>,
         chart: Option<String>,
+        sys: System,
     ) -> Result<LightestResult> {
         let rows = found
             .iter()
@@ -130,7 +133,7 @@ impl LightestResult {
             })
             .collect();
         Ok(LightestResult {
-            context: context(job, samples, mats, chart)?,
+            context: context(job, samples, mats, chart, sys)?,
             rows,
         })
     }
@@ -174,7 +177,7 @@ impl TableResult {
         sys: System,
     ) -> Result<TableResult> {
         Ok(TableResult {
-            context: context(job, rows, mats, chart)?,
+            context: context(job, rows, mats, chart, sys)?,
             columns: columns.iter().map(|&c| column_label(c, sys)).collect(),
             rows: rows
                 .iter()

@@ -67,6 +67,7 @@ pub fn size(
     mats: &Materials<'_>,
     filters: &Filters,
     by_cost: bool,
+    sys: units::System,
 ) -> Result<Vec<MemberResult>> {
     members
         .par_iter()
@@ -143,7 +144,7 @@ pub fn size(
                         prep.not_checked(&rows[*j].properties, Some(mats.get(&rows[*j].material)))
                     })
                     .unwrap_or_default(),
-                assumptions: prep.assumptions(),
+                assumptions: prep.assumptions_in(sys),
                 notes: m.job.notes.clone(),
             })
         })
@@ -305,7 +306,7 @@ pub fn schedule(
     filters: &Filters,
     opts: &Options,
 ) -> Result<Schedule> {
-    let mut s = sized(members, rows, mats, filters, opts.by_cost, opts.max_sizes)?;
+    let mut s = sized(members, rows, mats, filters, opts)?;
     if let Some(stock) = &opts.stock_lengths {
         s.cutting = Some(cut_schedule(&s, stock, opts.kerf));
     }
@@ -346,10 +347,10 @@ fn sized(
     rows: &[Candidate],
     mats: &Materials<'_>,
     filters: &Filters,
-    by_cost: bool,
-    max_sizes: Option<usize>,
+    opts: &Options,
 ) -> Result<Schedule> {
-    let results = size(members, rows, mats, filters, by_cost)?;
+    let (by_cost, max_sizes) = (opts.by_cost, opts.max_sizes);
+    let results = size(members, rows, mats, filters, by_cost, opts.units)?;
     let choice: Vec<Option<usize>> = results.iter().map(|r| r.chosen).collect();
     let bill = bill(&results, &choice, rows);
     let (total_mass, total_cost) = totals(&bill);
@@ -505,6 +506,8 @@ pub struct Options {
     pub wastage: Option<f64>,
     /// Allowances on the cost, each in per cent.
     pub allowances: Vec<Allowance>,
+    /// The display units of the members' words (assumptions).
+    pub units: units::System,
 }
 
 /// The options of a schedule run as typed.
@@ -516,6 +519,7 @@ pub struct Typed<'a> {
     pub kerf: Option<&'a str>,
     pub wastage: Option<&'a str>,
     pub allowances: &'a [String],
+    pub units: units::System,
 }
 
 /// A percentage as typed: `5%`, `5 %` or `5`, from 0 to 100.
@@ -592,6 +596,7 @@ impl Options {
             kerf,
             wastage,
             allowances,
+            units: t.units,
         })
     }
 
