@@ -595,6 +595,20 @@ pub fn typed_length_system(text: &str) -> System {
     }
 }
 
+/// The system a stress was typed in (psi, ksi: US; else SI).
+pub fn typed_stress_system(text: &str) -> System {
+    let unit = split_number(text.trim()).map_or("", |(_, u)| u);
+    match unit_factor(unit, Dim::Stress) {
+        Ok(f)
+            if (f - Show::Stress.unit(System::Us).1).abs() <= 1e-9 * f
+                || (f - Show::Stress.unit(System::Us).1 / 1000.0).abs() <= 1e-9 * f =>
+        {
+            System::Us
+        }
+        _ => System::Si,
+    }
+}
+
 /// Parse a plain number (no unit), rejecting NaN and infinities.
 pub fn parse_number(text: &str) -> Result<f64> {
     let t = text.trim();

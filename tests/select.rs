@@ -861,4 +861,10 @@ fn catalogue_problems_are_told_in_the_typed_units() {
             .any(|m| m.contains("1,000 in⁴ exceeds A·c_top·c_bot = 250 in⁴")),
         "{e:?}"
     );
+    // A job's E typed as 1600 psi (meant ksi) is 1.6 ksi, told in ksi.
+    let job = "[material]\nkind = \"timber\"\nE = \"1600 psi\"\nFb = \"1000 psi\"\nFv = \"180 psi\"\ndensity = \"35 lb/ft3\"\n[beam]\nspans = [\"12 ft\"]\nsupports = [\"pinned\", \"pinned\"]\n[[case]]\nname = \"dead\"\ncategory = \"dead\"\n[presets]\nstrength = \"asce7-16-asd\"\n";
+    let e = beamsift::job::from_toml(job, "us.toml")
+        .unwrap_err()
+        .to_string();
+    assert!(e.contains("E = 1.6 ksi is outside"), "{e}");
 }

@@ -90,7 +90,8 @@ fn own_material(
         density: own[6].unwrap_or(base.density),
         timber,
     };
-    match m.validate() {
+    // Problems in the system the row's dimensions were typed in.
+    match m.validate_in(schema.typed_system(crate::units::Show::Dimension)) {
         Ok(()) => Ok(m),
         Err(e) => Err(locate_invalid(schema, e, name_col)),
     }

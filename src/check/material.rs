@@ -75,13 +75,21 @@ impl Material {
         }
     }
 
+    /// Check the values (problems in SI).
     pub fn validate(&self) -> Result<()> {
-        self.validate_strengths()?;
-        self.validate_timber_values()?;
+        self.validate_in(crate::units::System::Si)
+    }
+
+    /// [`Material::validate`] with the values in the problems in the units
+    /// of `sys` (the system they were typed in); the ranges stay stated
+    /// in SI, as they are defined.
+    pub fn validate_in(&self, sys: crate::units::System) -> Result<()> {
+        self.validate_strengths(sys)?;
+        self.validate_timber_values(sys)?;
         if !(self.density == 0.0 || (100.0..=25_000.0).contains(&self.density)) {
             return Err(Error::msg(format!(
-                "density = {} kg/m³: expected 0 (no self-weight) or 100 to 25,000 kg/m³; check its unit",
-                crate::units::fmt_num(self.density)
+                "density = {}: expected 0 (no self-weight) or 100 to 25,000 kg/m³; check its unit",
+                crate::units::Show::Density.fmt(self.density, sys)
             ))
             .in_field("material.density"));
         }
@@ -111,7 +119,9 @@ impl Material {
 
     /// E and the strengths: positive, in physical ranges, Fy within the
     /// steels AISC 360-16 lists.
-    fn validate_strengths(&self) -> Result<()> {
+    fn validate_strengths(&self, sys: crate::units::System) -> Result<()> {
+        let stress = |v: f64| crate::units::Show::Stress.fmt(v, sys);
+        let modulus = |v: f64| crate::units::Show::Modulus.fmt(v, sys);
         let pos = |name: &str, v: f64| -> Result<()> {
             if !v.is_finite() || v <= 0.0 {
                 return Err(Error::msg(format!(
@@ -141,8 +151,8 @@ impl Material {
         // self-weight) or 100 to 25,000 kg/m³.
         if !(1e3..=1e6).contains(&self.e) {
             return Err(Error::msg(format!(
-                "E = {} MPa is outside 1 GPa to 1000 GPa: check its unit",
-                crate::units::fmt_num(self.e)
+                "E = {} is outside 1 GPa to 1000 GPa: check its unit",
+                modulus(self.e)
             ))
             .in_field("material.E"));
         }
@@ -156,9 +166,9 @@ impl Material {
                 && v > 0.02 * self.e
             {
                 return Err(Error::msg(format!(
-                    "{name} = {} MPa is more than 2 % of E = {} MPa, which no structural material reaches: check the units",
-                    crate::units::fmt_num(v),
-                    crate::units::fmt_num(self.e)
+                    "{name} = {} is more than 2 % of E = {}, which no structural material reaches: check the units",
+                    stress(v),
+                    modulus(self.e)
                 ))
                 .in_field(&format!("material.{name}")));
             }
@@ -167,9 +177,9 @@ impl Material {
             && fy > FY_MAX
         {
             return Err(Error::msg(format!(
-                "Fy = {} MPa is above the structural steels AISC 360-16 lists (Table A3.1, up to {} MPa, from memory): its limit states are not stated for it",
-                crate::units::fmt_num(fy),
-                crate::units::fmt_num(FY_MAX)
+                "Fy = {} is above the structural steels AISC 360-16 lists (Table A3.1, up to {}, from memory): its limit states are not stated for it",
+                stress(fy),
+                stress(FY_MAX)
             ))
             .in_field("material.Fy"));
         }
@@ -177,15 +187,16 @@ impl Material {
     }
 
     /// E_min and the NDS adjustment factors, in their ranges.
-    fn validate_timber_values(&self) -> Result<()> {
+    fn validate_timber_values(&self, sys: crate::units::System) -> Result<()> {
+        let modulus = |v: f64| crate::units::Show::Modulus.fmt(v, sys);
         let t = &self.timber;
         if let Some(em) = t.e_min
             && em > self.e
         {
             return Err(Error::msg(format!(
-                "Emin = {} MPa exceeds E = {} MPa: the modulus for stability is a lower fractile of E (NDS Appendix D), never above it",
-                crate::units::fmt_num(em),
-                crate::units::fmt_num(self.e)
+                "Emin = {} exceeds E = {}: the modulus for stability is a lower fractile of E (NDS Appendix D), never above it",
+                modulus(em),
+                modulus(self.e)
             ))
             .in_field("material.Emin"));
         }

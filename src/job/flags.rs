@@ -80,6 +80,14 @@ fn given<const N: usize>(options: [(bool, &'static str); N]) -> Vec<&'static str
 }
 
 impl JobFlags {
+    /// The system the material values were typed in (from --E, else SI),
+    /// for the words of their problems.
+    fn typed_system(&self) -> crate::units::System {
+        self.e
+            .as_deref()
+            .map_or(crate::units::System::Si, crate::units::typed_stress_system)
+    }
+
     /// The options that describe the beam, loads or combinations (refused
     /// with --job), by name.
     fn beam_flags(&self) -> Vec<&'static str> {
@@ -271,7 +279,7 @@ impl JobFlags {
             c.self_weight = false;
             checks.push("--no-self-weight".into());
         }
-        m.validate()?;
+        m.validate_in(self.typed_system())?;
         Ok((set, checks))
     }
 
@@ -429,7 +437,7 @@ impl JobFlags {
             }
         }
         criteria.self_weight = !self.no_self_weight;
-        material.validate()?;
+        material.validate_in(self.typed_system())?;
         beam.validate()?;
         Ok(Job {
             title: "beam from flags".into(),

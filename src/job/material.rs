@@ -96,7 +96,11 @@ pub(super) fn parse_material(
         density,
         timber,
     };
-    mat.validate()
+    // Problems in the system E was typed in.
+    let sys = m.e.as_ref().map_or(crate::units::System::Si, |t| {
+        crate::units::typed_stress_system(t.get_ref())
+    });
+    mat.validate_in(sys)
         .map_err(|e| locate_invalid(src, m, table, e))?;
     Ok(mat)
 }
