@@ -128,8 +128,8 @@ pub fn run_shortlist(a: ShortlistArgs, out: &Out) -> Result<i32> {
             let l = units::parse(t, Dim::Length).map_err(|e| e.in_field("--length"))?;
             if !(1.0..=1e6).contains(&l) {
                 return Err(Error::msg(format!(
-                    "{} mm is outside the supported piece length, 1 mm to 1 km",
-                    units::fmt_num(l)
+                    "{} is outside the supported piece length, 1 mm to 1 km",
+                    t.trim()
                 ))
                 .in_field("--length"));
             }

@@ -406,7 +406,15 @@ impl Problem {
             .unwrap_or(1.0)
     }
 
+    /// Check the problem (lengths in its problems in SI).
     pub fn validate(&self) -> Result<()> {
+        self.validate_in(crate::units::System::Si)
+    }
+
+    /// [`Problem::validate`] with the lengths in its problems in `sys`
+    /// (the system the bounds were typed in).
+    pub fn validate_in(&self, sys: crate::units::System) -> Result<()> {
+        let len = |v: f64| crate::units::Show::Dimension.fmt(v, sys);
         let vars = self.family.variables();
         if self.bounds.len() != vars.len() {
             return Err(Error::Internal("bounds do not match the family".into()));
@@ -414,10 +422,10 @@ impl Problem {
         for (i, (lo, hi)) in self.bounds.iter().enumerate() {
             if !(lo.is_finite() && hi.is_finite() && *lo > 0.0 && hi >= lo) {
                 return Err(Error::msg(format!(
-                    "bounds on {} ({} to {} mm) are not valid: expected 0 < lower ≤ upper",
+                    "bounds on {} ({} to {}) are not valid: expected 0 < lower ≤ upper",
                     vars[i],
-                    crate::units::fmt_num(*lo),
-                    crate::units::fmt_num(*hi)
+                    len(*lo),
+                    len(*hi)
                 )));
             }
         }
@@ -448,9 +456,9 @@ impl Problem {
         for (i, (lo, hi)) in self.bounds.iter().enumerate() {
             if *hi > 10_000.0 {
                 return Err(Error::msg(format!(
-                    "bounds on {}: an upper bound of {} mm is beyond 10 m",
+                    "bounds on {}: an upper bound of {} is beyond 10 m",
                     vars[i],
-                    crate::units::fmt_num(*hi)
+                    len(*hi)
                 ))
                 .in_field("--bound"));
             }
@@ -459,8 +467,8 @@ impl Problem {
         for (t, p) in &self.plate_prices {
             if !(p.is_finite() && *p > 0.0 && *p < 1e6) {
                 return Err(Error::msg(format!(
-                    "the price of {} mm plate is {}: expected a price per kg above zero",
-                    crate::units::fmt_num(*t),
+                    "the price of {} plate is {}: expected a price per kg above zero",
+                    len(*t),
                     crate::units::fmt_num(*p)
                 ))
                 .in_field("--plate-prices"));

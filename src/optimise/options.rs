@@ -158,23 +158,35 @@ impl Options {
             )));
         }
         // Fabrication grid: a step from 0.1 mm (no stock is finer) to 1 m.
-        let step = units::parse(self.step.as_deref().unwrap_or("10mm"), Dim::Length)
-            .map_err(|e| e.in_field("--step"))?;
+        let step_text = self.step.as_deref().unwrap_or("10mm");
+        let step = units::parse(step_text, Dim::Length).map_err(|e| e.in_field("--step"))?;
         if !(0.1..=1000.0).contains(&step) {
             return Err(Error::msg(format!(
-                "{} mm: expected a step from 0.1 mm to 1 m",
-                units::fmt_num(step)
+                "{}: expected a step from 0.1 mm to 1 m",
+                step_text.trim()
             ))
             .in_field("--step"));
         }
         if let Some(t) = plates.iter().find(|t| !(**t > 0.0 && **t <= 1000.0)) {
+            // In the system the list was typed in.
+            let sys = units::typed_length_system(self.plates.as_deref().unwrap_or(""));
             return Err(Error::msg(format!(
-                "{} mm: expected thicknesses above 0 and up to 1 m",
-                units::fmt_num(*t)
+                "{}: expected thicknesses above 0 and up to 1 m",
+                units::Show::Dimension.fmt(*t, sys)
             ))
             .in_field("--plates"));
         }
-        prob.validate()?;
+        // Problems in the system the bounds were typed in (else the
+        // output's).
+        let typed = self
+            .bounds
+            .iter()
+            .find_map(|b| {
+                b.split_once('=')
+                    .map(|(_, r)| units::typed_length_system(r.split("..").next().unwrap_or("")))
+            })
+            .unwrap_or(units);
+        prob.validate_in(typed)?;
         let list = |v: &Option<String>, n: &str| -> Result<Option<Vec<f64>>> {
             v.as_deref()
                 .map(|t| units::parse_list(t, Dim::Length, n))
