@@ -29,8 +29,8 @@
 //! stored result. Anything else (s outside the grid, negative or not
 //! finite) takes the full search.
 
-use super::extremes::{add_coef, scaled_sum};
-use super::{Applied, Demand, Extremes, Pre, Quantity, element_extremes, eval};
+use super::extremes::{add_coef, element_extremes_from, scaled_sum};
+use super::{Applied, Demand, Extremes, Pre, Quantity, eval};
 use crate::beam::solve::Coef;
 use std::sync::OnceLock;
 
@@ -78,6 +78,10 @@ struct Candidate {
     p: Option<Coef>,
     /// Extremes known before the section (no patterns), if any.
     pre: Pre,
+    /// Where this side's extreme lay at the interval's lower end
+    /// (element-local): the start of the deflection refinement. (Starting
+    /// at the position interpolated between both ends measured no faster.)
+    hint: Option<f64>,
 }
 
 impl Candidate {
@@ -98,7 +102,7 @@ impl Candidate {
     fn refine(&self, q: Quantity, s: f64, upper: bool) -> (f64, f64) {
         let el = match self.pre.at(s) {
             Some(el) => el,
-            None => element_extremes(q, &self.coef(s), self.l),
+            None => element_extremes_from(q, &self.coef(s), self.l, self.hint),
         };
         if upper {
             (el.max, self.x0 + el.x_max)
@@ -155,6 +159,7 @@ impl Lookup {
             u: d.unit_sw.elems[e],
             p,
             pre,
+            hint: None,
         };
         let (mut upper, mut lower) = (Vec::new(), Vec::new());
         if combo.patterns.is_empty() {
@@ -266,11 +271,13 @@ impl Lookup {
         let upper = ends(self.q, &self.upper, s1, s2, true);
         let lower = ends(self.q, &self.lower, s1, s2, false);
         Survivors {
-            max: pick(&self.upper, kept(&upper, &[&upper])).collect(),
-            min: pick(&self.lower, kept(&lower, &[&lower])).collect(),
-            abs: pick(&self.upper, kept(&upper, &[&upper, &lower]))
+            max: pick(&self.upper, &upper, kept(&upper, &[&upper])).collect(),
+            min: pick(&self.lower, &lower, kept(&lower, &[&lower])).collect(),
+            abs: pick(&self.upper, &upper, kept(&upper, &[&upper, &lower]))
                 .map(|c| (c, true))
-                .chain(pick(&self.lower, kept(&lower, &[&upper, &lower])).map(|c| (c, false)))
+                .chain(
+                    pick(&self.lower, &lower, kept(&lower, &[&upper, &lower])).map(|c| (c, false)),
+                )
                 .collect(),
         }
     }
@@ -282,11 +289,21 @@ impl Lookup {
 struct Ends {
     value: Vec<[f64; 2]>,
     lines: Vec<[[f64; 2]; 2]>,
+    /// Each candidate's extreme position at the lower end, element-local.
+    x: Vec<f64>,
 }
 
-/// The candidates of `c` at indices `keep`, in order.
-fn pick(c: &[Candidate], keep: Vec<usize>) -> impl Iterator<Item = Candidate> + '_ {
-    keep.into_iter().map(move |i| c[i])
+/// The candidates of `c` at indices `keep`, in order, each with where its
+/// extreme lay at the interval's lower end (`ends`).
+fn pick<'a>(
+    c: &'a [Candidate],
+    ends: &'a Ends,
+    keep: Vec<usize>,
+) -> impl Iterator<Item = Candidate> + 'a {
+    keep.into_iter().map(move |i| Candidate {
+        hint: Some(ends.x[i]),
+        ..c[i]
+    })
 }
 
 fn ends(q: Quantity, cands: &[Candidate], s1: f64, s2: f64, upper: bool) -> Ends {
@@ -294,9 +311,11 @@ fn ends(q: Quantity, cands: &[Candidate], s1: f64, s2: f64, upper: bool) -> Ends
     let mut out = Ends {
         value: Vec::with_capacity(cands.len()),
         lines: Vec::with_capacity(cands.len()),
+        x: Vec::with_capacity(cands.len()),
     };
     for c in cands {
         let at = [s1, s2].map(|s| c.refine(q, s, upper));
+        out.x.push(at[0].1 - c.x0);
         out.value.push([sign * at[0].0, sign * at[1].0]);
         out.lines
             .push(at.map(|(_, x)| [s1, s2].map(|s| sign * eval(q, &c.coef(s), x - c.x0))));
