@@ -138,11 +138,11 @@ pub fn from_toml(text: &str, file: &str) -> Result<Job> {
 /// presets, currency, project, and load cases with their combinations
 /// (each case taken by its category). It need not be a member: `[beam]`
 /// and `[[load]]` may be left out. Where they are given they are read
-/// and checked as in any job but not used (every member's spans and
-/// loads come from the schedule). Without a
-/// `[beam]` the returned job's beam is a placeholder of one 1 m span that
-/// holds only the cases and combinations: it is never analysed. The
-/// job's notes (which every member carries) say what was not used.
+/// and checked as in any job but not used (every member's spans and loads
+/// come from the schedule). Without a `[beam]` the returned job's beam is
+/// a placeholder of one 1 m span that holds only the cases and
+/// combinations: it is never analysed. The job's notes (which every
+/// member carries) say what was not used.
 pub fn template_from_toml(text: &str, file: &str) -> Result<Job> {
     let (mut job, unused) = read_job(text, file, true)?;
     job.notes.extend(unused);
