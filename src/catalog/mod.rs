@@ -33,4 +33,4 @@ pub mod workbook;
 pub use number::number;
 pub use prices::Prices;
 pub use row::{CellError, Materials, Row, RowMaterial, cost_per_mm, parse_row};
-pub use schema::{Col, Factor, KNOWN, PriceBasis, Prop, Schema};
+pub use schema::{Col, Factor, KNOWN, PriceBasis, Prop, Schema, split_header};

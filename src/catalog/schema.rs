@@ -151,7 +151,9 @@ pub struct Schema {
     pub decimal_comma: bool,
 }
 
-fn split_header(h: &str) -> (String, Option<String>) {
+/// A header's name and the unit in its brackets (`Ix [in4]` → `Ix`,
+/// `in4`), both trimmed; the schedule reader splits its headers the same.
+pub fn split_header(h: &str) -> (String, Option<String>) {
     let h = h.trim();
     match (h.find('['), h.rfind(']')) {
         (Some(a), Some(b)) if b > a => (

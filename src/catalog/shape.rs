@@ -111,13 +111,12 @@ fn cross_check(
                 let col = column_of(schema, label).unwrap_or(shape_col);
                 // Both values in the unit the column's header gives.
                 let (f, unit) = match (schema.cols.get(col), schema.headers.get(col)) {
-                    (Some(Col::Prop(_, f)), Some(h)) => {
-                        let unit = match (h.find('['), h.rfind(']')) {
-                            (Some(a), Some(b)) if b > a => format!(" {}", h[a + 1..b].trim()),
-                            _ => String::new(),
-                        };
-                        (*f, unit)
-                    }
+                    (Some(Col::Prop(_, f)), Some(h)) => (
+                        *f,
+                        super::schema::split_header(h)
+                            .1
+                            .map_or(String::new(), |u| format!(" {u}")),
+                    ),
                     _ => (1.0, String::new()),
                 };
                 return Err(cell_err(

@@ -123,6 +123,10 @@ impl Bloom {
 /// checks every name (sweeps) or every reported name (scans).
 pub(super) const SUSPECT_CAP: usize = 100_000;
 
+/// Most readings of a scan or sweep with --skip-bad-rows and repeated
+/// names (each round leaves out the repeats found among the rows reported).
+pub(super) const MAX_ROUNDS: usize = 6;
+
 /// A name that repeats: (file index, name, its first line, this line).
 #[derive(Clone, Debug, Serialize)]
 pub struct Repeat {

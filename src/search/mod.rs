@@ -20,7 +20,7 @@ mod load;
 mod rank;
 mod scan;
 
-use duplicates::{Bloom, SUSPECT_CAP};
+use duplicates::{Bloom, MAX_ROUNDS, SUSPECT_CAP};
 pub use duplicates::{Repeat, Suspect, confirm_duplicates};
 pub(crate) use duplicates::{find_repeats, refuse_repeats};
 pub use filters::{Filters, glob};

@@ -4,7 +4,9 @@
 //! scan keeps (`Kept`), then finished into a `Selection`. Also the scan
 //! with exact duplicate detection (`scan_checked`).
 
-use super::duplicates::{Bloom, Repeat, SUSPECT_CAP, Suspect, refuse_repeats, repeat_error};
+use super::duplicates::{
+    Bloom, MAX_ROUNDS, Repeat, SUSPECT_CAP, Suspect, refuse_repeats, repeat_error,
+};
 use super::rank::{KeyRef, compare, dominated, dominated_by, near_insert};
 use super::{Candidate, Counts, Rank, ScanOptions, Selection, TopList, to_candidate};
 use crate::catalog::read::Catalog;
@@ -633,9 +635,6 @@ pub fn scan_checked<R: Read + Send>(
         "{total} duplicate name(s): after skipping them {MAX_ROUNDS} times, rows whose names repeat still enter the lists; fix the names (`beamsift catalog validate` lists every repeat)"
     )))
 }
-
-/// Most readings of `scan_checked` with --skip-bad-rows and repeated names.
-const MAX_ROUNDS: usize = 6;
 
 /// A worker count for the scans, checked: more workers than cores only
 /// add memory and switching, so at most four per core (and 256).

@@ -134,12 +134,8 @@ pub fn read_schedule_at<R: Read>(
     let mut errors = Vec::new();
     for (i, h) in headers.iter().enumerate() {
         let h = h.as_str();
-        let (name, unit) = match (h.find('['), h.rfind(']')) {
-            (Some(a), Some(b)) if b > a => {
-                (h[..a].trim().to_ascii_lowercase(), Some(h[a + 1..b].trim()))
-            }
-            _ => (h.to_ascii_lowercase(), None),
-        };
+        let (name, unit) = crate::catalog::split_header(h);
+        let (name, unit) = (name.to_ascii_lowercase(), unit.as_deref());
         let at = at
             .clone()
             .with_line(header_line)
@@ -436,13 +432,17 @@ fn member_of(
     let mut beam = Beam::new(spans, supports);
     let total = beam.length();
     // A member's case of a category takes the template's pattern for
-    // that category (e.g. live load patterned by span or not).
+    // that category (e.g. live load patterned by span or not); of several
+    // template cases of one category, a patterned one (the envelope over
+    // the patterns holds the unpatterned load too, so it is never less
+    // severe).
     let case_of = |beam: &mut Beam, c: Category| -> usize {
         match beam.cases.iter().position(|k| k.category == c) {
             Some(i) => i,
             None => {
                 let i = beam.case(c.name(), c);
-                if let Some(t) = template.beam.cases.iter().find(|k| k.category == c) {
+                let of_c = || template.beam.cases.iter().filter(|k| k.category == c);
+                if let Some(t) = of_c().find(|k| k.pattern.is_on()).or_else(|| of_c().next()) {
                     beam.cases[i].pattern = t.pattern;
                 }
                 i
@@ -463,56 +463,51 @@ fn member_of(
             },
         );
     }
+    // A problem of the point loads, at its column.
+    let header = |i: usize| headers.get(i).map_or("", String::as_str);
+    let at_col = |i: usize, msg: String| (i, Error::msg(msg).in_field(header(i)));
     match (&point_at, points.first()) {
         (None, Some(&(_, _, i))) => {
-            return Err((
+            return Err(at_col(
                 i,
-                Error::msg(format!(
+                format!(
                     "member '{mark}' has a point load but no point_at: give its position from the left end"
-                ))
-                .in_field(headers.get(i).map_or("", String::as_str)),
+                ),
             ));
         }
         (Some((_, i, _)), None) => {
-            return Err((
+            return Err(at_col(
                 *i,
-                Error::msg(format!(
+                format!(
                     "member '{mark}' gives point_at but no point load: fill dead_point, live_point or snow_point, or leave point_at empty"
-                ))
-                .in_field(headers.get(*i).map_or("", String::as_str)),
+                ),
             ));
         }
         _ => {}
     }
     if let Some((xs, xi, f)) = &point_at {
-        for (_, v, i) in &points {
-            if v.len() != xs.len() {
-                return Err((
-                    *i,
-                    Error::msg(format!(
-                        "{} value(s) for {} position(s) in point_at: give one value per position, separated by ';' (0 where there is none)",
-                        v.len(),
-                        xs.len()
-                    ))
-                    .in_field(headers.get(*i).map_or("", String::as_str)),
-                ));
-            }
+        if let Some((_, v, i)) = points.iter().find(|(_, v, _)| v.len() != xs.len()) {
+            return Err(at_col(
+                *i,
+                format!(
+                    "{} value(s) for {} position(s) in point_at: give one value per position, separated by ';' (0 where there is none)",
+                    v.len(),
+                    xs.len()
+                ),
+            ));
         }
         if let Some(x) = xs.iter().find(|x| **x > total * (1.0 + 1e-12)) {
             // In the column's own unit, as typed in its header.
-            let h = headers.get(*xi).map_or("", String::as_str);
-            let unit = match (h.find('['), h.rfind(']')) {
-                (Some(a), Some(b)) if b > a => h[a + 1..b].trim(),
-                _ => "",
-            };
-            return Err((
+            let unit = crate::catalog::split_header(header(*xi))
+                .1
+                .unwrap_or_default();
+            return Err(at_col(
                 *xi,
-                Error::msg(format!(
+                format!(
                     "a point load at {} {unit} lies beyond the end of the member, {} {unit} long",
                     units::fmt_num(*x / f),
                     units::fmt_num(total / f)
-                ))
-                .in_field(h),
+                ),
             ));
         }
         for (c, v, _) in points {

@@ -9,7 +9,8 @@
 //! (`sweep::lightest`; tests/sweep.rs compares the two).
 
 use super::{
-    Bloom, Counts, Filters, find_repeats, map_block, refuse_repeats, to_candidate_unchecked,
+    Bloom, Counts, Filters, MAX_ROUNDS, find_repeats, map_block, refuse_repeats,
+    to_candidate_unchecked,
 };
 use crate::catalog::read::Catalog;
 use crate::catalog::records::{Block, Records};
@@ -423,7 +424,3 @@ pub fn lightest_by_span<R: Read + Send>(
         samples,
     })
 }
-
-/// Most re-readings of `lightest_by_span` with --skip-bad-rows and repeated
-/// names.
-const MAX_ROUNDS: usize = 6;
