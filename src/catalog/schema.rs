@@ -245,8 +245,9 @@ fn cost_unit(unit: &str) -> Result<(Option<String>, PriceBasis, f64)> {
 
 impl Schema {
     /// The index of the name column (0 when there is none).
+    #[inline]
     pub fn name_column(&self) -> usize {
-        self.cols.iter().position(|c| *c == Col::Name).unwrap_or(0)
+        self.name.unwrap_or(0)
     }
 
     /// Parse the header row; every problem is reported at once.

@@ -121,16 +121,13 @@ fn scan_file<R: Read + Send>(
             let block = msg?;
             let pos = block.end_offset;
             let schema = &schema;
-            let mut parsed = map_block(
+            let parsed = map_block(
                 &block,
                 delim,
                 &mut pool,
                 || (),
-                |_, rec| check_record(job, fi, schema, rec),
+                |_, rec| check_record(job, fi, schema, &bloom, rec),
             );
-            parsed
-                .par_iter_mut()
-                .for_each(|(_, outs)| bloom.insert_all(outs));
             for (rec, out) in parsed
                 .into_iter()
                 .flat_map(|(recs, outs)| recs.iter().zip(outs))
@@ -181,10 +178,19 @@ fn read_blocks<R: Read>(
 }
 
 /// The parallel phase for one record: left out, bad, filtered, or checked.
-fn check_record<'r>(job: &ScanJob<'_>, fi: usize, schema: &Schema, rec: Record<'r>) -> Outcome<'r> {
+/// The name's word of the duplicate filter is prefetched first, so that
+/// memory access overlaps the parse and the check.
+fn check_record<'r>(
+    job: &ScanJob<'_>,
+    fi: usize,
+    schema: &Schema,
+    bloom: &Bloom,
+    rec: Record<'r>,
+) -> Outcome<'r> {
     if !job.exclude.is_empty() && job.exclude.contains(&(fi, rec.line())) {
         return Outcome::Excluded;
     }
+    let touched = bloom.touch(rec.get(schema.name_column()).unwrap_or(b""));
     match parse_row(schema, &rec, job.mats) {
         Err(e) => Outcome::Bad(rec.line(), e.column, e.message),
         Ok(row) => {
@@ -197,7 +203,7 @@ fn check_record<'r>(job: &ScanJob<'_>, fi: usize, schema: &Schema, rec: Record<'
                 .check(SectionInput::new(&row.props, row.mass).with_material(mat));
             Outcome::Checked {
                 name: row.name,
-                suspect: false,
+                suspect: bloom.insert_touched(row.name, touched),
                 mass: row.mass,
                 depth: row.props.depth,
                 cost: row.cost,

@@ -154,12 +154,14 @@ fn pass<R: Read + Send>(
                 if !exclude.is_empty() && exclude.contains(&(fi, line)) {
                     return RowOut::Excluded;
                 }
+                // The filter's word is fetched while the row is parsed.
+                let touched = bloom.touch(rec.get(schema.name_column()).unwrap_or(b""));
                 let row = match parse_row(&schema, &rec, mats) {
                     Ok(r) => r,
                     Err(e) => return RowOut::Bad(line, e.column, e.message),
                 };
                 // Repeats count before the filters, as in `load_rows`.
-                let suspect = bloom.insert(row.name);
+                let suspect = bloom.insert_touched(row.name, touched);
                 if !filters.admits(&row) {
                     return RowOut::Filtered {
                         name: row.name,
