@@ -111,6 +111,37 @@ pub fn parse_row<'r>(
     rec: &Record<'r>,
     mats: &Materials<'_>,
 ) -> std::result::Result<Row<'r>, CellError> {
+    let mut row = Row::default();
+    parse_row_into(schema, rec, mats, &mut row)?;
+    Ok(row)
+}
+
+impl Default for Row<'_> {
+    /// An empty slot for [`parse_row_into`], never a row.
+    fn default() -> Self {
+        Row {
+            name: "",
+            series: "",
+            grade: "",
+            shape: None,
+            props: Properties::default(),
+            mass: 0.0,
+            material: RowMaterial::Job,
+            cost: None,
+            stock: None,
+        }
+    }
+}
+
+/// [`parse_row`] into a row reused from record to record: the scan's
+/// path, where moving the large properties out of returned values cost
+/// several copies per row. After an error `row` holds no meaning.
+pub fn parse_row_into<'r>(
+    schema: &Schema,
+    rec: &Record<'r>,
+    mats: &Materials<'_>,
+    row: &mut Row<'r>,
+) -> std::result::Result<(), CellError> {
     if rec.fault() == Some(records::Fault::UnclosedQuote) {
         return Err(CellError {
             column: 0,
@@ -143,14 +174,15 @@ pub fn parse_row<'r>(
         cells.given.s_top = cells.given.s_top.or(Some(s));
         cells.given.s_bot = cells.given.s_bot.or(Some(s));
     }
-    let (shape, props) = shape::shape_and_properties(
+    row.shape = shape::shape_and_properties(
         schema,
         cells.family,
         &mut cells.given,
         &cells.dims,
         name_col,
+        &mut row.props,
     )?;
-    let material = material::row_material(
+    row.material = material::row_material(
         schema,
         mats,
         cells.grade,
@@ -158,25 +190,19 @@ pub fn parse_row<'r>(
         &cells.factors,
         name_col,
     )?;
-    let mass = mass(
+    row.mass = mass(
         schema,
-        mats.get(&material).density,
-        &props,
+        mats.get(&row.material).density,
+        &row.props,
         cells.mass,
         name_col,
     )?;
-    let cost = cost_per_mm(schema.price_basis, cells.cost, mass, props.area);
-    Ok(Row {
-        cost,
-        name: cells.name,
-        series: cells.series,
-        grade: cells.grade,
-        shape,
-        props,
-        mass,
-        material,
-        stock: cells.stock,
-    })
+    row.cost = cost_per_mm(schema.price_basis, cells.cost, row.mass, row.props.area);
+    row.name = cells.name;
+    row.series = cells.series;
+    row.grade = cells.grade;
+    row.stock = cells.stock;
+    Ok(())
 }
 
 /// The row's mass: given (checked against A·ρ where the material has a

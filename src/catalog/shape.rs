@@ -19,7 +19,8 @@ pub(super) fn shape_and_properties(
     given: &mut Given,
     dims: &[(f64, bool); 14],
     name_col: usize,
-) -> std::result::Result<(Option<Shape>, Properties), CellError> {
+    props: &mut Properties,
+) -> std::result::Result<Option<Shape>, CellError> {
     let dim = |i: usize| dims[i].1.then_some(dims[i].0);
     let shape_col = schema.shape.unwrap_or(0);
     let shape = if family.is_empty() {
@@ -33,12 +34,11 @@ pub(super) fn shape_and_properties(
         Some(s)
     };
     // Properties: computed, given, or both (cross-checked).
-    let props = match &shape {
+    match &shape {
         Some(s) => {
-            let mut p = s.properties_of_valid();
-            cross_check(schema, given, &p, shape_col)?;
-            take_given(given, &mut p);
-            p
+            *props = s.properties_of_valid();
+            cross_check(schema, given, props, shape_col)?;
+            take_given(given, props);
         }
         None => {
             if dims.iter().any(|d| d.1) && given.ix.is_none() {
@@ -53,12 +53,12 @@ pub(super) fn shape_and_properties(
             given.tw = dim(TW);
             given.bf = dim(BF);
             given.tf = dim(TF);
-            given
+            *props = given
                 .properties_in(schema.typed_system(crate::units::Show::Dimension))
-                .map_err(|e| located(schema, e, name_col))?
+                .map_err(|e| located(schema, e, name_col))?;
         }
-    };
-    Ok((shape, props))
+    }
+    Ok(shape)
 }
 
 /// An error of the section module at the column of the field it names

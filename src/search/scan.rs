@@ -11,7 +11,7 @@ use super::rank::{KeyRef, compare, dominated, dominated_by, near_insert};
 use super::{Candidate, Counts, Rank, ScanOptions, Selection, TopList, to_candidate};
 use crate::catalog::read::Catalog;
 use crate::catalog::records::{Block, Record, Records};
-use crate::catalog::{Materials, Schema, parse_row};
+use crate::catalog::{Materials, Row, Schema, parse_row, parse_row_into};
 use crate::check::{Prepared, SectionInput, Summary, Verdict};
 use crate::error::{Error, Location, Result};
 use rayon::prelude::*;
@@ -121,13 +121,9 @@ fn scan_file<R: Read + Send>(
             let block = msg?;
             let pos = block.end_offset;
             let schema = &schema;
-            let parsed = map_block(
-                &block,
-                delim,
-                &mut pool,
-                || (),
-                |_, rec| check_record(job, fi, schema, &bloom, rec),
-            );
+            let parsed = map_block(&block, delim, &mut pool, Row::default, |row, rec| {
+                check_record(job, fi, schema, &bloom, row, rec)
+            });
             for (rec, out) in parsed
                 .into_iter()
                 .flat_map(|(recs, outs)| recs.iter().zip(outs))
@@ -185,16 +181,17 @@ fn check_record<'r>(
     fi: usize,
     schema: &Schema,
     bloom: &Bloom,
+    row: &mut Row<'r>,
     rec: Record<'r>,
 ) -> Outcome<'r> {
     if !job.exclude.is_empty() && job.exclude.contains(&(fi, rec.line())) {
         return Outcome::Excluded;
     }
     let touched = bloom.touch(rec.get(schema.name_column()).unwrap_or(b""));
-    match parse_row(schema, &rec, job.mats) {
+    match parse_row_into(schema, &rec, job.mats, row) {
         Err(e) => Outcome::Bad(rec.line(), e.column, e.message),
-        Ok(row) => {
-            if !job.opts.filters.admits(&row) {
+        Ok(()) => {
+            if !job.opts.filters.admits(row) {
                 return Outcome::Filtered;
             }
             let mat = job.mats.get(&row.material);

@@ -65,7 +65,9 @@ pub enum Form {
 }
 
 /// Section properties, all in internal units (mm, mm², mm³, mm⁴, mm⁶).
-#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+/// The default (all zero, no shape) is a slot to be filled in place, never
+/// a section.
+#[derive(Clone, Debug, Default, PartialEq, Serialize, Deserialize)]
 pub struct Properties {
     /// Cross-sectional area A.
     pub area: f64,
