@@ -1,7 +1,8 @@
 //! The scan pipeline: a reader thread hands blocks of records to the
 //! workers, which parse, filter and check each row in parallel
-//! (`check_record`); the outcomes are merged in file order into what the
-//! scan keeps (`Kept`), then finished into a `Selection`. Also the scan
+//! (`check_record`); the outcomes are merged in file order, one block
+//! behind the parsing, into what the scan keeps (`Kept`), then finished
+//! into a `Selection`. Also the scan
 //! with exact duplicate detection (`scan_checked`).
 
 use super::duplicates::{
@@ -12,7 +13,7 @@ use super::{Candidate, Counts, Rank, ScanOptions, Selection, TopList, to_candida
 use crate::catalog::read::Catalog;
 use crate::catalog::records::{Block, Record, Records};
 use crate::catalog::{Materials, Row, Schema, parse_row, parse_row_into};
-use crate::check::{Prepared, SectionInput, Summary, Verdict};
+use crate::check::{Prepared, SectionInput, Verdict};
 use crate::error::{Error, Location, Result};
 use rayon::prelude::*;
 use std::collections::{HashMap, HashSet};
@@ -20,20 +21,24 @@ use std::io::Read;
 use std::sync::mpsc::{Receiver, SyncSender};
 
 /// What the parallel phase hands to the merge: small, so moving a chunk
-/// of them is cheap. A row that enters a list is parsed again to build
-/// its candidate (rare after the first chunks).
-pub(super) enum Outcome<'r> {
+/// of them is cheap, and owning nothing of the records, so a block's
+/// outcomes can be merged while the next block is parsed. A row that
+/// enters a list is parsed again to build its candidate (rare after the
+/// first chunks); the merge reads a checked row's name from its record.
+pub(super) enum Outcome {
     Bad(u64, usize, String),
     Filtered,
     Excluded,
     Checked {
-        name: &'r str,
         /// The duplicate filter had seen this name.
         suspect: bool,
         mass: f64,
         depth: f64,
         cost: Option<f64>,
-        summary: Summary,
+        /// The check's largest utilisation and verdict (the rest of its
+        /// summary is found again for a row that is kept).
+        utilisation: f64,
+        verdict: Verdict,
     },
 }
 
@@ -84,10 +89,10 @@ pub fn scan_excluding<R: Read + Send>(
     kept.finish(opts)
 }
 
-/// One catalogue of a scan: a reader thread reads the next block (finding
-/// where its records end) while this one is parsed and checked, segment by
-/// segment, in parallel; the names enter the duplicate filter, and the
-/// outcomes are merged in file order. Returns the bytes read.
+/// One catalogue of a scan: a reader thread reads ahead (finding where
+/// the records end) while a block is parsed and checked, segment by
+/// segment, in parallel (the names enter the duplicate filter), and the
+/// block before it is merged in file order. Returns the bytes read.
 fn scan_file<R: Read + Send>(
     job: &ScanJob<'_>,
     fi: usize,
@@ -116,22 +121,53 @@ fn scan_file<R: Read + Send>(
         let mut cat = cat;
         cat.set_segment(job.opts.chunk);
         let reader = sc.spawn(move || read_blocks(cat, tx, back_rx));
-        let mut pool: Vec<Records> = Vec::new();
-        for msg in rx {
-            let block = msg?;
-            let pos = block.end_offset;
-            let schema = &schema;
-            let parsed = map_block(&block, delim, &mut pool, Row::default, |row, rec| {
-                check_record(job, fi, schema, &bloom, row, rec)
-            });
-            for (rec, out) in parsed
-                .into_iter()
-                .flat_map(|(recs, outs)| recs.iter().zip(outs))
-            {
-                kept.merge(job, &mut place, rec, out)?;
+        // Block k is merged (in file order, on one worker) while block
+        // k + 1 is parsed and checked (on the others, which then take
+        // over the merging worker's share): the merge is off the
+        // critical path. With one worker the two run one after the other.
+        let mut blocks = rx.into_iter();
+        let mut pending: Option<Parsed> = None;
+        let mut spare: Vec<Vec<Records>> = Vec::new();
+        loop {
+            let next = blocks.next().transpose()?;
+            if next.is_none() && pending.is_none() {
+                break;
             }
-            progress(kept.counts.rows, done_bytes + pos);
-            let _ = back_tx.send(block);
+            let pool = spare.pop().unwrap_or_default();
+            let schema = &schema;
+            let bloom = &bloom;
+            let back_tx = &back_tx;
+            let parse = move || {
+                next.map(|block| {
+                    let mut pool = pool;
+                    let outs: Vec<Vec<Outcome>> =
+                        map_block(&block, delim, &mut pool, Row::default, |row, rec| {
+                            check_record(job, fi, schema, bloom, row, rec)
+                        })
+                        .into_iter()
+                        .map(|(_, outs)| outs)
+                        .collect();
+                    let pos = block.end_offset;
+                    let _ = back_tx.send(block);
+                    Parsed { pool, outs, pos }
+                })
+            };
+            let done = pending.take();
+            let merge = || -> Result<Option<Vec<Records>>> {
+                let Some(p) = done else { return Ok(None) };
+                for (recs, outs) in p.pool.iter().zip(p.outs) {
+                    for (rec, out) in recs.iter().zip(outs) {
+                        kept.merge(job, &mut place, rec, out)?;
+                    }
+                }
+                progress(kept.counts.rows, done_bytes + p.pos);
+                Ok(Some(p.pool))
+            };
+            let (parsed, merged) = rayon::join(parse, merge);
+            if let Some(pool) = merged? {
+                spare.push(pool);
+            }
+            pending = parsed;
         }
         // A panic in the reader is an internal error, never the end of
         // the file.
@@ -146,6 +182,14 @@ fn scan_file<R: Read + Send>(
         ));
     }
     Ok(read_bytes)
+}
+
+/// A block parsed and checked, waiting for its merge: its records (by
+/// segment), their outcomes, and the input offset after it.
+struct Parsed {
+    pool: Vec<Records>,
+    outs: Vec<Vec<Outcome>>,
+    pos: u64,
 }
 
 /// The reader thread: read blocks into the ones sent back (or new ones)
@@ -183,7 +227,7 @@ fn check_record<'r>(
     bloom: &Bloom,
     row: &mut Row<'r>,
     rec: Record<'r>,
-) -> Outcome<'r> {
+) -> Outcome {
     if !job.exclude.is_empty() && job.exclude.contains(&(fi, rec.line())) {
         return Outcome::Excluded;
     }
@@ -199,12 +243,12 @@ fn check_record<'r>(
                 .prep
                 .check(SectionInput::new(&row.props, row.mass).with_material(mat));
             Outcome::Checked {
-                name: row.name,
                 suspect: bloom.insert_touched(row.name, touched),
                 mass: row.mass,
                 depth: row.props.depth,
                 cost: row.cost,
-                summary: s,
+                utilisation: s.utilisation,
+                verdict: s.verdict,
             }
         }
     }
@@ -276,7 +320,7 @@ impl Kept {
         job: &ScanJob<'_>,
         place: &mut FilePlace<'_>,
         rec: Record<'_>,
-        out: Outcome<'_>,
+        out: Outcome,
     ) -> Result<()> {
         self.counts.rows += 1;
         let line = rec.line();
@@ -285,13 +329,18 @@ impl Kept {
             Outcome::Excluded => self.counts.bad += 1,
             Outcome::Filtered => self.counts.filtered += 1,
             Outcome::Checked {
-                name,
                 suspect,
                 mass,
                 depth,
                 cost,
-                summary: s,
+                utilisation,
+                verdict,
             } => {
+                // The name as `parse_row` read it (a checked row's name
+                // cell is UTF-8).
+                let name = std::str::from_utf8(rec.get(place.schema.name_column()).unwrap_or(b""))
+                    .map(str::trim)
+                    .map_err(|_| Error::Internal("a checked row's name is not UTF-8".into()))?;
                 // A flagged name is a repeat of a kept row's (exact),
                 // or, if this row is kept, in doubt.
                 let mut doubtful = false;
@@ -308,19 +357,30 @@ impl Kept {
                     mass,
                     depth,
                     cost,
-                    utilisation: s.utilisation,
+                    utilisation,
                     name,
                     file: place.fi,
                     line,
                 };
                 let kept = std::cell::Cell::new(false);
+                // The row parsed and checked again (the same arithmetic:
+                // the same summary), with what the outcome left out.
                 let materialise = || -> Result<Candidate> {
                     kept.set(true);
                     let row = parse_row(place.schema, &rec, job.mats)
                         .map_err(|e| Error::Internal(e.message))?;
+                    let mat = job.mats.get(&row.material);
+                    let s = job
+                        .prep
+                        .check(SectionInput::new(&row.props, row.mass).with_material(mat));
+                    if s.verdict != verdict || s.utilisation.to_bits() != utilisation.to_bits() {
+                        return Err(Error::Internal(format!(
+                            "the check of '{name}' gave a different result the second time"
+                        )));
+                    }
                     Ok(to_candidate(job.prep, job.mats, &row, &s, place.fi, line))
                 };
-                self.keep_checked(job.opts, &k, &s, materialise)?;
+                self.keep_checked(job.opts, &k, verdict, materialise)?;
                 if kept.get() {
                     self.kept_name(place.fi, name, line, doubtful);
                 }
@@ -402,10 +462,10 @@ impl Kept {
         &mut self,
         opts: &ScanOptions,
         k: &KeyRef<'_>,
-        s: &Summary,
+        verdict: Verdict,
         materialise: impl Fn() -> Result<Candidate>,
     ) -> Result<()> {
-        if s.passes {
+        if verdict == Verdict::Passes {
             self.counts.passing += 1;
             let front =
                 opts.pareto && !self.pareto.iter().any(|p| dominated_by(k.mass, k.depth, p));
@@ -422,7 +482,7 @@ impl Kept {
                     }
                 }
             }
-        } else if s.verdict == Verdict::NotVerified {
+        } else if verdict == Verdict::NotVerified {
             self.counts.not_verified += 1;
             let in_lists = opts.include_unverified && self.lists.iter().any(|l| l.wants_key(k));
             if in_lists || self.unverified.wants_key(k) {
@@ -445,7 +505,7 @@ impl Kept {
                     .near
                     .items
                     .last()
-                    .is_some_and(|l| s.utilisation < l.utilisation);
+                    .is_some_and(|l| k.utilisation < l.utilisation);
             if wanted {
                 near_insert(&mut self.near, materialise()?);
             }
