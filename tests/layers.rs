@@ -189,3 +189,32 @@ fn the_library_modules_form_no_cycle() {
     }
     assert!(cycles.is_empty(), "{cycles:#?}\nuses: {uses:#?}");
 }
+
+#[test]
+fn unsafe_code_is_only_the_prefetch_hint() {
+    // The crate denies unsafe code; the one allowed site is the cache
+    // prefetch of the duplicate filter (a hint that cannot fault).
+    let mut sites = Vec::new();
+    for (name, code) in src("") {
+        for l in code.lines() {
+            if l.contains("unsafe {") || l.contains("unsafe fn") || l.contains("unsafe impl") {
+                sites.push(format!("{name}: {}", l.trim()));
+            }
+        }
+    }
+    assert_eq!(
+        sites,
+        vec!["search/duplicates.rs: unsafe {".to_string()],
+        "{sites:#?}"
+    );
+    let lib = &src("lib.rs")[0].1;
+    assert!(
+        lib.contains("#![deny(unsafe_code)]"),
+        "lib.rs must deny unsafe code"
+    );
+    let main = &src("main.rs")[0].1;
+    assert!(
+        main.contains("#![forbid(unsafe_code)]"),
+        "main.rs must forbid unsafe code"
+    );
+}
