@@ -868,3 +868,59 @@ fn catalogue_problems_are_told_in_the_typed_units() {
         .to_string();
     assert!(e.contains("E = 1.6 ksi is outside"), "{e}");
 }
+
+/// Two headers for one quantity are refused at the second, whichever
+/// synonym comes first: before, `name` and `designation` were both read,
+/// the row took one and the duplicate check the other, so two rows of one
+/// designation passed unnoticed.
+#[test]
+fn two_headers_for_one_quantity_are_refused() {
+    for (header, col, other) in [
+        (
+            "name,designation,shape,bf [mm],tf [mm],hw [mm],tw [mm]",
+            2,
+            "name",
+        ),
+        (
+            "section,name,shape,bf [mm],tf [mm],hw [mm],tw [mm]",
+            2,
+            "section",
+        ),
+        (
+            "name,shape,family,bf [mm],tf [mm],hw [mm],tw [mm]",
+            3,
+            "shape",
+        ),
+        (
+            "name,shape,bf [mm],tf [mm],hw [mm],tw [mm],Ix [mm4],I [cm4]",
+            8,
+            "Ix [mm4]",
+        ),
+    ] {
+        let text = format!("{header}\nA,welded-i,200,12,500,8,1,1\n");
+        let err = read::open(text.as_bytes(), "two.csv", &ReadOptions::default())
+            .err()
+            .unwrap_or_else(|| panic!("{header}: accepted"))
+            .to_string();
+        assert!(
+            err.contains(&format!("two.csv:1:{col}"))
+                && err.contains(&format!(
+                    "as column {} ('{other}')",
+                    header.split(',').position(|h| h == other).unwrap() + 1
+                )),
+            "{header}: {err}"
+        );
+    }
+    // One name column with a repeat is still a duplicate.
+    let text = "name,shape,bf [mm],tf [mm],hw [mm],tw [mm]\nD14X,welded-i,200,12,500,8\nD14X,welded-i,210,12,500,8\n";
+    let beam = common::simple_span(3000.0, 0.5, 1.0);
+    let steel = common::allowable(200_000.0, 200.0, Some(120.0), 7850.0);
+    let opts = ScanOptions {
+        ranks: vec![(Rank::Mass, 10)],
+        ..ScanOptions::default()
+    };
+    let err = scan_text(text, &beam, &steel, &opts)
+        .unwrap_err()
+        .to_string();
+    assert!(err.contains("duplicate section name 'D14X'"), "{err}");
+}

@@ -32,5 +32,6 @@ pub mod workbook;
 
 pub use number::number;
 pub use prices::Prices;
-pub use row::{CellError, Materials, Row, RowMaterial, cost_per_mm, parse_row, parse_row_into};
+pub(crate) use row::parse_row_into;
+pub use row::{CellError, Materials, Row, RowMaterial, cost_per_mm, parse_row};
 pub use schema::{Col, Factor, KNOWN, PriceBasis, Prop, Schema, split_header};

@@ -111,20 +111,20 @@ pub fn parse_row<'r>(
     rec: &Record<'r>,
     mats: &Materials<'_>,
 ) -> std::result::Result<Row<'r>, CellError> {
-    let mut row = Row::default();
+    let mut row = Row::slot();
     parse_row_into(schema, rec, mats, &mut row)?;
     Ok(row)
 }
 
-impl Default for Row<'_> {
+impl Row<'_> {
     /// An empty slot for [`parse_row_into`], never a row.
-    fn default() -> Self {
+    pub(crate) fn slot() -> Self {
         Row {
             name: "",
             series: "",
             grade: "",
             shape: None,
-            props: Properties::default(),
+            props: Properties::unset(),
             mass: 0.0,
             material: RowMaterial::Job,
             cost: None,
@@ -135,8 +135,9 @@ impl Default for Row<'_> {
 
 /// [`parse_row`] into a row reused from record to record: the scan's
 /// path, where moving the large properties out of returned values cost
-/// several copies per row. After an error `row` holds no meaning.
-pub fn parse_row_into<'r>(
+/// several copies per row. After an error `row` holds no meaning (it is
+/// crate-private for that reason).
+pub(crate) fn parse_row_into<'r>(
     schema: &Schema,
     rec: &Record<'r>,
     mats: &Materials<'_>,

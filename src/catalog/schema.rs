@@ -267,6 +267,24 @@ impl Schema {
                 }
             }
         }
+        // Two headers for one quantity (`name` and `designation`, `shape`
+        // and `family`, or a dimension and its synonym): which to read
+        // would be a guess, so the header is refused.
+        for j in 0..cols.len() {
+            if let Some(i) = (0..j).find(|&i| same_quantity(&cols[i], &cols[j])) {
+                errors.push(Error::input(
+                    loc.clone()
+                        .with_column(j as u64 + 1)
+                        .with_field(headers[j].clone()),
+                    format!(
+                        "column '{}' gives the same value as column {} ('{}'): keep one of them",
+                        headers[j],
+                        i + 1,
+                        headers[i]
+                    ),
+                ));
+            }
+        }
         let name = cols.iter().position(|c| *c == Col::Name);
         let shape = cols.iter().position(|c| *c == Col::Shape);
         if name.is_none() {
@@ -295,6 +313,22 @@ impl Schema {
             shape,
             decimal_comma: false,
         })
+    }
+}
+
+/// Whether two columns give the same quantity (notes never do; a second
+/// price column is refused where it is read).
+fn same_quantity(a: &Col, b: &Col) -> bool {
+    match (a, b) {
+        (Col::Dim(i, _), Col::Dim(j, _)) => i == j,
+        (Col::Prop(p, _), Col::Prop(q, _)) => p == q,
+        (Col::Factor(f), Col::Factor(g)) => f == g,
+        (Col::Name, Col::Name)
+        | (Col::Shape, Col::Shape)
+        | (Col::Series, Col::Series)
+        | (Col::Grade, Col::Grade)
+        | (Col::Stock, Col::Stock) => true,
+        _ => false,
     }
 }
 

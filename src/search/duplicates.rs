@@ -89,9 +89,11 @@ impl Bloom {
     /// word prefetched: call it before the row is parsed and checked, so
     /// the memory access overlaps that work and the insert then finds the
     /// word in cache. (A plain load instead measured slower than inserting
-    /// a segment's names in one batch: the processor waits for it; the
-    /// prefetch it does not wait for measured 10 % less CPU time for one
-    /// worker on 1 M rows, benches/README.md.)
+    /// a segment's names in one batch, as the processor waits for it; the
+    /// prefetch, which it does not wait for, took one worker on 1 M rows
+    /// from 0.52–0.55 s to 0.48–0.52 s: benches/README.md.) The cell is
+    /// the schema's one name column, so the hash is of the row's name
+    /// whenever the trimmed lengths agree (`insert_touched`).
     pub(super) fn touch(&self, cell: &[u8]) -> (u64, usize) {
         let cell = cell.trim_ascii();
         let h = name_hash_bytes(cell);
@@ -100,9 +102,11 @@ impl Bloom {
     }
 
     /// Insert `name` given the result of [`Bloom::touch`] on its cell:
-    /// the hash is reused when the trimmed cell is the name (the name is
-    /// the cell trimmed of all Unicode white space, so equal lengths mean
-    /// equal text); true if the name may have been seen before.
+    /// the hash is reused when the trimmed cell is the name. The name is
+    /// the cell trimmed of Unicode white space (`str::trim`), which takes
+    /// off at least the ASCII white space `touch` trims, so the name is a
+    /// part of the trimmed cell, and equal lengths mean equal text. True if
+    /// the name may have been seen before.
     pub(super) fn insert_touched(&self, name: &str, touched: (u64, usize)) -> bool {
         if touched.1 == name.len() {
             self.insert_hashed(touched.0)

@@ -2,8 +2,8 @@
 //! workers, which parse, filter and check each row in parallel
 //! (`check_record`); the outcomes are merged in file order, one block
 //! behind the parsing, into what the scan keeps (`Kept`), then finished
-//! into a `Selection`. Also the scan
-//! with exact duplicate detection (`scan_checked`).
+//! into a `Selection`. Also the scan with exact duplicate detection
+//! (`scan_checked`).
 
 use super::duplicates::{
     Bloom, MAX_ROUNDS, Repeat, SUSPECT_CAP, Suspect, refuse_repeats, repeat_error,
@@ -23,8 +23,10 @@ use std::sync::mpsc::{Receiver, SyncSender};
 /// What the parallel phase hands to the merge: small, so moving a chunk
 /// of them is cheap, and owning nothing of the records, so a block's
 /// outcomes can be merged while the next block is parsed. A row that
-/// enters a list is parsed again to build its candidate (rare after the
-/// first chunks); the merge reads a checked row's name from its record.
+/// enters a list is parsed and checked again to build its candidate (rare
+/// after the first blocks for a short list; with a long one, `--top
+/// 100000`, those second checks run on the merging thread), and the merge
+/// reads a checked row's name from its record.
 pub(super) enum Outcome {
     Bad(u64, usize, String),
     Filtered,
@@ -43,7 +45,9 @@ pub(super) enum Outcome {
 }
 
 /// Scan catalogues against a prepared job. `progress` is called after
-/// each chunk with the rows and bytes read so far (over all files). Rows in
+/// each block is merged (one block behind the reading, possibly from a
+/// worker thread of the pool) with the rows and bytes read so far (over
+/// all files). Rows in
 /// `exclude` ((file, line)) are skipped as bad. Repeats of the reported
 /// names found in the reading, and reported rows in doubt, are returned
 /// for `scan_checked`.
@@ -128,52 +132,58 @@ fn scan_file<R: Read + Send>(
         let mut blocks = rx.into_iter();
         let mut pending: Option<Parsed> = None;
         let mut spare: Vec<Vec<Records>> = Vec::new();
-        loop {
-            let next = blocks.next().transpose()?;
-            if next.is_none() && pending.is_none() {
-                break;
-            }
-            let pool = spare.pop().unwrap_or_default();
-            let schema = &schema;
-            let bloom = &bloom;
-            let back_tx = &back_tx;
-            let parse = move || {
-                next.map(|block| {
-                    let mut pool = pool;
-                    let outs: Vec<Vec<Outcome>> =
-                        map_block(&block, delim, &mut pool, Row::default, |row, rec| {
-                            check_record(job, fi, schema, bloom, row, rec)
-                        })
-                        .into_iter()
-                        .map(|(_, outs)| outs)
-                        .collect();
-                    let pos = block.end_offset;
-                    let _ = back_tx.send(block);
-                    Parsed { pool, outs, pos }
-                })
-            };
-            let done = pending.take();
-            let merge = || -> Result<Option<Vec<Records>>> {
-                let Some(p) = done else { return Ok(None) };
-                for (recs, outs) in p.pool.iter().zip(p.outs) {
-                    for (rec, out) in recs.iter().zip(outs) {
-                        kept.merge(job, &mut place, rec, out)?;
-                    }
+        let run = (|| -> Result<()> {
+            loop {
+                let next = blocks.next().transpose()?;
+                if next.is_none() && pending.is_none() {
+                    return Ok(());
                 }
-                progress(kept.counts.rows, done_bytes + p.pos);
-                Ok(Some(p.pool))
-            };
-            let (parsed, merged) = rayon::join(parse, merge);
-            if let Some(pool) = merged? {
-                spare.push(pool);
+                let pool = spare.pop().unwrap_or_default();
+                let schema = &schema;
+                let bloom = &bloom;
+                let back_tx = &back_tx;
+                let parse = move || {
+                    next.map(|block| {
+                        let mut pool = pool;
+                        let outs: Vec<Vec<Outcome>> =
+                            map_block(&block, delim, &mut pool, Row::slot, |row, rec| {
+                                check_record(job, fi, schema, bloom, row, rec)
+                            })
+                            .into_iter()
+                            .map(|(_, outs)| outs)
+                            .collect();
+                        let pos = block.end_offset;
+                        let _ = back_tx.send(block);
+                        Parsed { pool, outs, pos }
+                    })
+                };
+                let done = pending.take();
+                let merge = || -> Result<Option<Vec<Records>>> {
+                    let Some(p) = done else { return Ok(None) };
+                    for (recs, outs) in p.pool.iter().zip(p.outs) {
+                        for (rec, out) in recs.iter().zip(outs) {
+                            kept.merge(job, &mut place, rec, out)?;
+                        }
+                    }
+                    progress(kept.counts.rows, done_bytes + p.pos);
+                    Ok(Some(p.pool))
+                };
+                let (parsed, merged) = rayon::join(parse, merge);
+                if let Some(pool) = merged? {
+                    spare.push(pool);
+                }
+                pending = parsed;
             }
-            pending = parsed;
-        }
-        // A panic in the reader is an internal error, never the end of
-        // the file.
-        reader
-            .join()
-            .map_err(|_| Error::Internal("the catalogue reader thread stopped unexpectedly".into()))
+        })();
+        // The reader is joined on every path: the receiver goes first, so
+        // a reader waiting to send stops. A panic in the reader is an
+        // internal error, never the end of the file.
+        drop(blocks);
+        let joined = reader.join().map_err(|_| {
+            Error::Internal("the catalogue reader thread stopped unexpectedly".into())
+        });
+        run?;
+        joined
     })?;
     if kept.counts.rows == rows_before {
         return Err(Error::input(

@@ -65,9 +65,7 @@ pub enum Form {
 }
 
 /// Section properties, all in internal units (mm, mm², mm³, mm⁴, mm⁶).
-/// The default (all zero, no shape) is a slot to be filled in place, never
-/// a section.
-#[derive(Clone, Debug, Default, PartialEq, Serialize, Deserialize)]
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct Properties {
     /// Cross-sectional area A.
     pub area: f64,
@@ -123,6 +121,36 @@ pub struct Properties {
 }
 
 impl Properties {
+    /// All zero, no shape: a slot for the catalogue reader to fill in
+    /// place, never a section (crate-private for that reason).
+    pub(crate) fn unset() -> Properties {
+        Properties {
+            area: 0.0,
+            depth: 0.0,
+            width: 0.0,
+            y_c: 0.0,
+            ix: 0.0,
+            iy: None,
+            c_top: 0.0,
+            c_bot: 0.0,
+            s_top: 0.0,
+            s_bot: 0.0,
+            zx: None,
+            rx: 0.0,
+            ry: None,
+            q_na: None,
+            t_na: None,
+            j: None,
+            cw: None,
+            sy: None,
+            zy: None,
+            y_sc: None,
+            web_area: None,
+            i_geometry: None,
+            form: Form::Given,
+        }
+    }
+
     /// Mass per length (kg/m) for a density in kg/m³.
     pub fn mass_per_length(&self, density: f64) -> f64 {
         self.area * 1e-6 * density

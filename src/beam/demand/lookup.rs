@@ -17,10 +17,16 @@
 //! If a line lies above c's chord at both ends (by more than a round-off
 //! margin), it lies above it on the whole interval, and c cannot hold the
 //! maximum anywhere in it: c is dropped for that interval. The maximum is
-//! then exactly the largest refinement among the survivors — the same
-//! refinement (same polynomial, same arithmetic) the full search runs, so
-//! the value and its position are unchanged. The smallest value is the
-//! same argument applied to −F and −U.
+//! then the largest refinement among the survivors — the refinement the
+//! full search runs (same polynomial, same arithmetic), so the value and
+//! its position are the full search's. One difference: a deflection
+//! refinement's Newton iteration starts from the survivor's own guess
+//! (`Hint`), so its root is the same to the same tolerance (1e-10 of the
+//! bracket) rather than to the last bit; where the deflection is flat at
+//! its extreme, the value then agrees to round-off (tests/checks.rs
+//! `lookup_equals_full_search`; the outputs compared in benches/README.md
+//! were byte-identical). The smallest value is the same argument applied
+//! to −F and −U.
 //!
 //! The intervals are a fixed grid of eight steps per octave of s (the top
 //! bits of the float), from 2⁻¹⁴ to 2⁷ N/mm (about 6 g/m to 13 t/m times
