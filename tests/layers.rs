@@ -216,13 +216,26 @@ fn unsafe_code_is_only_the_prefetch_hint() {
             }
         }
     }
-    assert_eq!(allows, vec!["search/duplicates.rs".to_string()], "{allows:?}");
+    assert_eq!(
+        allows,
+        vec!["search/duplicates.rs".to_string()],
+        "{allows:?}"
+    );
     assert!(
-        !words.is_empty() && words.iter().all(|w| w.starts_with("search/duplicates.rs: ")),
+        !words.is_empty()
+            && words
+                .iter()
+                .all(|w| w.starts_with("search/duplicates.rs: ")),
         "{words:#?}"
     );
     let lib = &src("lib.rs")[0].1;
-    assert!(lib.contains("#![deny(unsafe_code)]"), "lib.rs must deny unsafe code");
+    assert!(
+        lib.contains("#![deny(unsafe_code)]"),
+        "lib.rs must deny unsafe code"
+    );
     let main = &src("main.rs")[0].1;
-    assert!(main.contains("#![forbid(unsafe_code)]"), "main.rs must forbid unsafe code");
+    assert!(
+        main.contains("#![forbid(unsafe_code)]"),
+        "main.rs must forbid unsafe code"
+    );
 }

@@ -406,9 +406,12 @@ impl Block {
 /// whole input into memory).
 pub const MAX_RECORD: usize = 16 << 20;
 
-/// Bytes per segment by default (a block is 16 segments).
+/// Bytes per segment by default (a block is 12 segments: two blocks are
+/// in flight while one is merged and the next parsed; 16 took the peak
+/// memory of a 10 M-row scan to 1.12–1.17× a 100 k-row one, 12 to
+/// 1.08–1.10× at the same speed, 8 was slower; benches/README.md).
 pub const SEGMENT: usize = 64 << 10;
-const SEGMENTS_PER_BLOCK: usize = 16;
+const SEGMENTS_PER_BLOCK: usize = 12;
 
 /// A record longer than [`MAX_RECORD`], from `line`.
 #[derive(Debug)]

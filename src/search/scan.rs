@@ -13,7 +13,7 @@ use super::{Candidate, Counts, Rank, ScanOptions, Selection, TopList, to_candida
 use crate::catalog::read::Catalog;
 use crate::catalog::records::{Block, Record, Records};
 use crate::catalog::{Materials, Row, Schema, parse_row, parse_row_into};
-use crate::check::{Prepared, SectionInput, Verdict};
+use crate::check::{Prepared, SectionInput, Summary, Verdict};
 use crate::error::{Error, Location, Result};
 use rayon::prelude::*;
 use std::collections::{HashMap, HashSet};
@@ -23,10 +23,9 @@ use std::sync::mpsc::{Receiver, SyncSender};
 /// What the parallel phase hands to the merge: small, so moving a chunk
 /// of them is cheap, and owning nothing of the records, so a block's
 /// outcomes can be merged while the next block is parsed. A row that
-/// enters a list is parsed and checked again to build its candidate (rare
-/// after the first blocks for a short list; with a long one, `--top
-/// 100000`, those second checks run on the merging thread), and the merge
-/// reads a checked row's name from its record.
+/// enters a list is parsed again to build its candidate (rare after the
+/// first blocks), and the merge reads a checked row's name from its
+/// record.
 pub(super) enum Outcome {
     Bad(u64, usize, String),
     Filtered,
@@ -37,10 +36,7 @@ pub(super) enum Outcome {
         mass: f64,
         depth: f64,
         cost: Option<f64>,
-        /// The check's largest utilisation and verdict (the rest of its
-        /// summary is found again for a row that is kept).
-        utilisation: f64,
-        verdict: Verdict,
+        summary: Summary,
     },
 }
 
@@ -257,8 +253,7 @@ fn check_record<'r>(
                 mass: row.mass,
                 depth: row.props.depth,
                 cost: row.cost,
-                utilisation: s.utilisation,
-                verdict: s.verdict,
+                summary: s,
             }
         }
     }
@@ -343,8 +338,7 @@ impl Kept {
                 mass,
                 depth,
                 cost,
-                utilisation,
-                verdict,
+                summary: s,
             } => {
                 // The name as `parse_row` read it (a checked row's name
                 // cell is UTF-8).
@@ -367,30 +361,19 @@ impl Kept {
                     mass,
                     depth,
                     cost,
-                    utilisation,
+                    utilisation: s.utilisation,
                     name,
                     file: place.fi,
                     line,
                 };
                 let kept = std::cell::Cell::new(false);
-                // The row parsed and checked again (the same arithmetic:
-                // the same summary), with what the outcome left out.
                 let materialise = || -> Result<Candidate> {
                     kept.set(true);
                     let row = parse_row(place.schema, &rec, job.mats)
                         .map_err(|e| Error::Internal(e.message))?;
-                    let mat = job.mats.get(&row.material);
-                    let s = job
-                        .prep
-                        .check(SectionInput::new(&row.props, row.mass).with_material(mat));
-                    if s.verdict != verdict || s.utilisation.to_bits() != utilisation.to_bits() {
-                        return Err(Error::Internal(format!(
-                            "the check of '{name}' gave a different result the second time"
-                        )));
-                    }
                     Ok(to_candidate(job.prep, job.mats, &row, &s, place.fi, line))
                 };
-                self.keep_checked(job.opts, &k, verdict, materialise)?;
+                self.keep_checked(job.opts, &k, s.verdict, materialise)?;
                 if kept.get() {
                     self.kept_name(place.fi, name, line, doubtful);
                 }
