@@ -43,10 +43,9 @@ pub(super) enum Outcome {
 /// Scan catalogues against a prepared job. `progress` is called after
 /// each block is merged (one block behind the reading, possibly from a
 /// worker thread of the pool) with the rows and bytes read so far (over
-/// all files). Rows in
-/// `exclude` ((file, line)) are skipped as bad. Repeats of the reported
-/// names found in the reading, and reported rows in doubt, are returned
-/// for `scan_checked`.
+/// all files). Rows in `exclude` ((file, line)) are skipped as bad.
+/// Repeats of the reported names found in the reading, and reported rows
+/// in doubt, are returned for `scan_checked`.
 pub fn scan<R: Read + Send>(
     prep: &Prepared,
     catalogs: Vec<Catalog<R>>,
