@@ -14,6 +14,13 @@ const POW10: [f64; 23] = [
 /// a cell holding `/` is read as a fraction or mixed number (`3/16`, `1-1/2`).
 #[inline]
 pub fn number(cell: &[u8]) -> Option<f64> {
+    number_kind(cell).map(|(v, _)| v)
+}
+
+/// [`number`], and whether the cell was read as a fraction or mixed number
+/// (so a caller need not search the cell for `/` again).
+#[inline]
+pub fn number_kind(cell: &[u8]) -> Option<(f64, bool)> {
     let mut b = cell;
     while let [first, rest @ ..] = b {
         if first.is_ascii_whitespace() {
@@ -61,15 +68,15 @@ pub fn number(cell: &[u8]) -> Option<f64> {
     let k = frac.unwrap_or(0);
     if ok && n_digits <= 15 && k <= 22 && digits != b"." {
         let v = m as f64 / POW10[k];
-        return Some(if neg { -v } else { v });
+        return Some((if neg { -v } else { v }, false));
     }
     let text = std::str::from_utf8(b).ok()?;
     if b.contains(&b'/') {
         // A fraction or mixed number (3/16, 1-1/2, 1 1/2): off the fast path.
-        return crate::units::fraction(text).ok();
+        return crate::units::fraction(text).ok().map(|v| (v, true));
     }
     let v: f64 = text.parse().ok()?;
-    v.is_finite().then_some(v)
+    v.is_finite().then_some((v, false))
 }
 
 /// Text holding a number with a decimal comma (a schedule's cell, a

@@ -2,7 +2,7 @@
 //! steps of [`parse_row`] — the shape and its properties (`shape.rs`), the
 //! material (`material.rs`), the mass.
 
-use super::number::number;
+use super::number::number_kind;
 use super::records::{self, Record};
 use super::schema::{Col, Factor, PriceBasis, Prop, R, R_OUT, Schema};
 use super::{material, shape};
@@ -310,8 +310,8 @@ impl<'r> Cells<'r> {
                 } else {
                     bytes
                 };
-                let v = match number(bytes) {
-                    Some(_) if bytes.contains(&b'/') && !matches!(col, Col::Dim(..)) => {
+                let v = match number_kind(bytes) {
+                    Some((_, true)) if !matches!(col, Col::Dim(..)) => {
                         let shown = String::from_utf8_lossy(bytes).trim().to_string();
                         return Err(cell_err(
                             i,
@@ -321,7 +321,7 @@ impl<'r> Cells<'r> {
                             ),
                         ));
                     }
-                    Some(v) => v,
+                    Some((v, _)) => v,
                     None if bytes.contains(&b'/') => {
                         let shown = String::from_utf8_lossy(bytes);
                         let why = crate::units::fraction(&shown).err().unwrap_or_default();

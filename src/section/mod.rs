@@ -249,7 +249,18 @@ pub enum Shape {
 /// Supported range of a section dimension: 1 µm to 100 m.
 const DIM_RANGE: (f64, f64) = (1e-3, 1e5);
 
+#[inline]
 pub(crate) fn positive(name: &str, v: f64, sys: System) -> Result<()> {
+    if v >= DIM_RANGE.0 && v <= DIM_RANGE.1 {
+        return Ok(());
+    }
+    not_positive(name, v, sys)
+}
+
+/// The problem of a dimension `positive` refuses (off the per-row path).
+#[cold]
+#[inline(never)]
+fn not_positive(name: &str, v: f64, sys: System) -> Result<()> {
     if v.is_finite() && v > 0.0 && !(DIM_RANGE.0..=DIM_RANGE.1).contains(&v) {
         return Err(Error::msg(format!(
             "{name} = {} is outside the supported range of section dimensions (0.001 mm to 100 m)",
