@@ -231,10 +231,37 @@ fn count_lines(s: &[u8], whole: bool) -> u64 {
     n
 }
 
+/// Each byte of `x` that is zero marked by its high bit, exactly (no
+/// carries between bytes: the low seven bits are added apart from the top
+/// one).
+#[inline]
+fn zero_bytes(x: u64) -> u64 {
+    const LOW7: u64 = 0x7f7f_7f7f_7f7f_7f7f;
+    !((((x & LOW7).wrapping_add(LOW7)) | x) | LOW7)
+}
+
 /// The first delimiter or line break at or after `i` (or `data.len()`):
-/// fields are short, so a plain loop beats a vector search here.
+/// eight bytes at a time (fields are short, so this beats a vector search,
+/// and a byte loop by about three instructions a byte), then byte by byte
+/// for the last few.
 #[inline]
 fn field_end(data: &[u8], mut i: usize, delim: u8) -> usize {
+    const ONES: u64 = 0x0101_0101_0101_0101;
+    let (d, lf, cr) = (
+        ONES * u64::from(delim),
+        ONES * u64::from(b'\n'),
+        ONES * u64::from(b'\r'),
+    );
+    while let Some(chunk) = data.get(i..i + 8) {
+        let mut w = [0u8; 8];
+        w.copy_from_slice(chunk);
+        let w = u64::from_le_bytes(w);
+        let hit = zero_bytes(w ^ d) | zero_bytes(w ^ lf) | zero_bytes(w ^ cr);
+        if hit != 0 {
+            return i + (hit.trailing_zeros() / 8) as usize;
+        }
+        i += 8;
+    }
     while i < data.len() {
         let b = data[i];
         if b == delim || b == b'\n' || b == b'\r' {
