@@ -85,23 +85,37 @@ fn prefetch(word: &std::sync::atomic::AtomicU64) {
 }
 
 impl Bloom {
-    /// The hash of a name's cell as read (ASCII spaces trimmed), with its
-    /// word prefetched: call it before the row is parsed and checked, so
-    /// the memory access overlaps that work and the insert then finds the
-    /// word in cache. (A plain load instead measured slower than inserting
-    /// a segment's names in one batch, as the processor waits for it; the
-    /// prefetch, which it does not wait for, took one worker on 1 M rows
-    /// from 0.52–0.55 s to 0.48–0.52 s: benches/README.md.) The cell is
-    /// the schema's one name column, so the hash is of the row's name
-    /// whenever the trimmed lengths agree (`insert_touched`).
-    pub(super) fn touch(&self, cell: &[u8]) -> (u64, usize) {
+    /// The hash of a name's cell as read (ASCII spaces trimmed), and the
+    /// trimmed length. The cell is the schema's one name column, so the
+    /// hash is of the row's name whenever the lengths agree
+    /// (`insert_touched`). A scan's worker hashes, and its merge inserts
+    /// in file order, prefetching the words of the rows a little ahead
+    /// (`scan::MERGE_AHEAD`).
+    pub(super) fn cell_hash(cell: &[u8]) -> (u64, usize) {
         let cell = cell.trim_ascii();
-        let h = name_hash_bytes(cell);
-        prefetch(&self.words[(h & self.mask) as usize]);
-        (h, cell.len())
+        (name_hash_bytes(cell), cell.len())
     }
 
-    /// Insert `name` given the result of [`Bloom::touch`] on its cell:
+    /// [`Bloom::cell_hash`] with the name's word prefetched: called before
+    /// a sweep's worker parses and checks the row, so the memory access
+    /// overlaps that work and its insert then finds the word in cache. (A
+    /// plain load instead measured slower than inserting a segment's names
+    /// in one batch, as the processor waits for it; the prefetch, which it
+    /// does not wait for, took one scan worker on 1 M rows from 0.52–0.55 s
+    /// to 0.48–0.52 s: benches/README.md.)
+    pub(super) fn touch(&self, cell: &[u8]) -> (u64, usize) {
+        let hashed = Self::cell_hash(cell);
+        self.prefetch_hash(hashed.0);
+        hashed
+    }
+
+    /// Prefetch the word of a name hashed by [`Bloom::cell_hash`].
+    #[inline]
+    pub(super) fn prefetch_hash(&self, h: u64) {
+        prefetch(&self.words[(h & self.mask) as usize]);
+    }
+
+    /// Insert `name` given the result of [`Bloom::cell_hash`] on its cell:
     /// the hash is reused when the trimmed cell is the name. The name is
     /// the cell trimmed of Unicode white space (`str::trim`), which takes
     /// off at least the ASCII white space `touch` trims, so the name is a

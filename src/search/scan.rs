@@ -31,8 +31,10 @@ pub(super) enum Outcome {
     Filtered,
     Excluded,
     Checked {
-        /// The duplicate filter had seen this name.
-        suspect: bool,
+        /// The name's hash for the duplicate filter (`Bloom::cell_hash`): the
+        /// merge enters it, in file order, so which rows the filter flags
+        /// is the same on every run.
+        touched: (u64, usize),
         mass: f64,
         depth: f64,
         cost: Option<f64>,
@@ -113,6 +115,7 @@ fn scan_file<R: Read + Send>(
         fi,
         at: &at,
         schema: &schema,
+        bloom: &bloom,
     };
     let read_bytes = std::thread::scope(|sc| -> Result<u64> {
         let (tx, rx) = std::sync::mpsc::sync_channel::<Result<Block>>(2);
@@ -135,14 +138,13 @@ fn scan_file<R: Read + Send>(
                 }
                 let pool = spare.pop().unwrap_or_default();
                 let schema = &schema;
-                let bloom = &bloom;
                 let back_tx = &back_tx;
                 let parse = move || {
                     next.map(|block| {
                         let mut pool = pool;
                         let outs: Vec<Vec<Outcome>> =
                             map_block(&block, delim, &mut pool, Row::slot, |row, rec| {
-                                check_record(job, fi, schema, bloom, row, rec)
+                                check_record(job, fi, schema, row, rec)
                             })
                             .into_iter()
                             .map(|(_, outs)| outs)
@@ -155,8 +157,17 @@ fn scan_file<R: Read + Send>(
                 let done = pending.take();
                 let merge = || -> Result<Option<Vec<Records>>> {
                     let Some(p) = done else { return Ok(None) };
-                    for (recs, outs) in p.pool.iter().zip(p.outs) {
-                        for (rec, out) in recs.iter().zip(outs) {
+                    for (recs, mut outs) in p.pool.iter().zip(p.outs) {
+                        // The filter words of the rows a little ahead are
+                        // fetched while these are merged.
+                        for o in outs.iter().take(MERGE_AHEAD) {
+                            o.prefetch(place.bloom);
+                        }
+                        for (k, rec) in recs.iter().enumerate().take(outs.len()) {
+                            if let Some(o) = outs.get(k + MERGE_AHEAD) {
+                                o.prefetch(place.bloom);
+                            }
+                            let out = std::mem::replace(&mut outs[k], Outcome::Filtered);
                             kept.merge(job, &mut place, rec, out)?;
                         }
                     }
@@ -187,6 +198,19 @@ fn scan_file<R: Read + Send>(
         ));
     }
     Ok(read_bytes)
+}
+
+/// How many rows ahead the merge prefetches the duplicate filter's words.
+const MERGE_AHEAD: usize = 16;
+
+impl Outcome {
+    /// Prefetch a checked row's word of the duplicate filter.
+    #[inline]
+    fn prefetch(&self, bloom: &Bloom) {
+        if let Outcome::Checked { touched, .. } = self {
+            bloom.prefetch_hash(touched.0);
+        }
+    }
 }
 
 /// A block parsed and checked, waiting for its merge: its records (by
@@ -223,20 +247,18 @@ fn read_blocks<R: Read>(
 }
 
 /// The parallel phase for one record: left out, bad, filtered, or checked.
-/// The name's word of the duplicate filter is prefetched first, so that
-/// memory access overlaps the parse and the check.
+/// The name is hashed for the duplicate filter (the merge enters it).
 fn check_record<'r>(
     job: &ScanJob<'_>,
     fi: usize,
     schema: &Schema,
-    bloom: &Bloom,
     row: &mut Row<'r>,
     rec: Record<'r>,
 ) -> Outcome {
     if !job.exclude.is_empty() && job.exclude.contains(&(fi, rec.line())) {
         return Outcome::Excluded;
     }
-    let touched = bloom.touch(rec.get(schema.name_column()).unwrap_or(b""));
+    let touched = Bloom::cell_hash(rec.get(schema.name_column()).unwrap_or(b""));
     match parse_row_into(schema, &rec, job.mats, row) {
         Err(e) => Outcome::Bad(rec.line(), e.column, e.message),
         Ok(()) => {
@@ -248,7 +270,7 @@ fn check_record<'r>(
                 .prep
                 .check(SectionInput::new(&row.props, row.mass).with_material(mat));
             Outcome::Checked {
-                suspect: bloom.insert_touched(row.name, touched),
+                touched,
                 mass: row.mass,
                 depth: row.props.depth,
                 cost: row.cost,
@@ -258,11 +280,13 @@ fn check_record<'r>(
     }
 }
 
-/// The catalogue being merged: its index, name and schema.
+/// The catalogue being merged: its index, name and schema, and its
+/// duplicate filter.
 struct FilePlace<'a> {
     fi: usize,
     at: &'a Location,
     schema: &'a Schema,
+    bloom: &'a Bloom,
 }
 
 /// What the scan keeps while it reads (see `Selection`).
@@ -333,7 +357,7 @@ impl Kept {
             Outcome::Excluded => self.counts.bad += 1,
             Outcome::Filtered => self.counts.filtered += 1,
             Outcome::Checked {
-                suspect,
+                touched,
                 mass,
                 depth,
                 cost,
@@ -344,6 +368,7 @@ impl Kept {
                 let name = std::str::from_utf8(rec.get(place.schema.name_column()).unwrap_or(b""))
                     .map(str::trim)
                     .map_err(|_| Error::Internal("a checked row's name is not UTF-8".into()))?;
+                let suspect = place.bloom.insert_touched(name, touched);
                 // A flagged name is a repeat of a kept row's (exact),
                 // or, if this row is kept, in doubt.
                 let mut doubtful = false;
